@@ -1,0 +1,36 @@
+#!/usr/bin/env bash
+# `npm start` (production build) and `npm run dev` (Vite dev server) from a fresh clone:
+# dependencies, database, migrations, demo seed, mail fake, build, serve.
+set -euo pipefail
+source "$(dirname "$0")/env.sh"
+source "$ROOT_DIR/scripts/deps.sh"
+mode="${1:-}"
+
+ensure_dependencies
+bash "$ROOT_DIR/scripts/db-up.sh"
+npx tsx scripts/migrate.ts "$DB_NAME"
+start_mail_fake
+[ -f scripts/seed.ts ] && npx tsx scripts/seed.ts
+
+export ORIGIN="${ORIGIN:-http://$HOST:$PORT}"
+export BETTER_AUTH_URL="${BETTER_AUTH_URL:-$ORIGIN}"
+export LOOPWRIGHT_ENV="${LOOPWRIGHT_ENV:-development}"
+
+banner() {
+	log "Loopwright is at $ORIGIN"
+	log "demo sign-in: ${DEMO_EMAIL:-demo@loopwright.local} / ${DEMO_PASSWORD:-loopwright-demo}"
+	log "captured e-mail: $ORIGIN/dev/mail (owners, development only)"
+	log "stop the database afterwards with: npm run db:stop"
+}
+
+if [ "$mode" = "--dev" ]; then
+	banner
+	exec npx vite dev --host "$HOST" --port "$PORT" --strictPort
+fi
+
+log "building"
+npx vite build --logLevel warn
+banner
+export NODE_ENV=production
+# exec: SIGTERM reaches the server itself, which closes the pool and exits.
+exec node build
