@@ -1,0 +1,21 @@
+/**
+ * Loopwright analysis engine: public surface (pure TypeScript, no I/O).
+ *
+ * API note
+ * - Transfer functions (tf/): `FactoredTf = { gain, originPower, zeros: Root[], poles: Root[], delayS? }`
+ *   meaning gain · s^originPower · Π(zeros)/Π(poles) · e^(−s·delayS), every factor normalised to 1
+ *   at s = 0: `RealRoot {kind:'real', omega}` is (1 + s/omega), omega < 0 = RHP;
+ *   `PairRoot {kind:'pair', omega0, q}` is 1 + s/(q·omega0) + s²/omega0², q < 0 = RHP pair.
+ *   Build with `realRoot`, `realRootHz`, `pairRoot`, `pairRootHz`, `constantTf`.
+ *   Algebra: `multiply(...tfs)`, `divide`, `invert`, `scale`, `withDelay`, `cancelCommon`.
+ *   Evaluate: `evaluate(tf, omega) → {re, im}`, `evaluatePolar(tf, omega) → {magDb, phaseDeg}`,
+ *   `frequencyResponse(tf, freqHz: Float64Array) → {freqHz, magDb, phaseDeg}` (phase unwrapped
+ *   from the factors, delay exact), `compileTf` + `lnMagPhaseAt` for hot loops.
+ *   Convert: `toPolynomials(tf, {padeOrder})`, `fromPolynomials(num, den)`, `fromZpk`, `toZpk`,
+ *   `padeDelay(Td, n)`. Polynomials are ASCENDING arrays (p[i] multiplies s^i) everywhere.
+ * - Math (math/): `polyRoots(p) → {roots, backwardError, method}` (Aberth + companion fallback).
+ * - Sweep (sweep/): `logGrid(startHz, stopHz, points)`, `logGridPerDecade`, `mergeGrids`.
+ */
+export * from './math';
+export * from './tf';
+export * from './sweep';

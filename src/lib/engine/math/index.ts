@@ -1,0 +1,4 @@
+/** Polynomials (ascending coefficients), complex values, polynomial roots. */
+export * from './complex';
+export * from './polynomial';
+export * from './roots';

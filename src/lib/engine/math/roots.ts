@@ -1,0 +1,270 @@
+/**
+ * Roots of real polynomials (ascending coefficients, see polynomial.ts) up to degree ~16.
+ * Method: scale s = k·x (k = |a0/an|^(1/n)) so the roots cluster around |x| = 1, start from
+ * the Newton-polygon radii, iterate Aberth–Ehrlich, polish with Newton on the original
+ * polynomial, then check the backward error. If it fails, fall back to the eigenvalues of
+ * the scaled companion matrix (mathjs `eigs`, eigenvectors off) and keep the better set.
+ * [published: O. Aberth, "Iteration methods for finding all zeros of a polynomial
+ * simultaneously", Math. Comp. 27 (1973); D. A. Bini, "Numerical computation of polynomial
+ * zeros by means of Aberth's method", Numer. Algorithms 13 (1996) — from memory]
+ */
+import { eigs } from 'mathjs';
+import type { Complex } from './complex';
+import { degree, type Poly } from './polynomial';
+
+export interface RootsResult {
+	roots: Complex[];
+	/** Largest backward error max_i |p(r_i)| / Σ|a_k||r_i|^k (about 1e-16 is perfect). */
+	backwardError: number;
+	method: 'closed-form' | 'aberth' | 'companion';
+}
+
+/** Options; defaults in brackets. */
+export interface RootsOptions {
+	/** Give up Aberth after this many sweeps [500]. */
+	maxIterations?: number;
+	/** Accept Aberth when the backward error is below this [1e-11]. */
+	acceptBackwardError?: number;
+}
+
+/** Roots of p (ascending coefficients). Roots at s = 0 are returned exactly as 0. */
+export function polyRoots(p: Poly, options: RootsOptions = {}): RootsResult {
+	const n = degree(p);
+	if (n < 0) throw new Error('polyRoots: the zero polynomial has no defined roots');
+	for (const c of p) if (!Number.isFinite(c)) throw new Error('polyRoots: non-finite coefficient');
+	let low = 0;
+	while (p[low] === 0) low++;
+	const zeroRoots: Complex[] = Array.from({ length: low }, () => ({ re: 0, im: 0 }));
+	const q = p.slice(low, n + 1); // q[0] ≠ 0, q[m] ≠ 0
+	const m = q.length - 1;
+	if (m === 0) return { roots: zeroRoots, backwardError: 0, method: 'closed-form' };
+	if (m === 1) {
+		return { roots: [...zeroRoots, { re: -q[0] / q[1], im: 0 }], backwardError: 0, method: 'closed-form' };
+	}
+
+	// Scale s = k·x and make the polynomial monic in x.
+	const k = Math.pow(Math.abs(q[0] / q[m]), 1 / m);
+	const b = new Array<number>(m + 1);
+	for (let i = 0; i <= m; i++) b[i] = (q[i] * Math.pow(k, i - m)) / q[m];
+	b[m] = 1;
+
+	const maxIterations = options.maxIterations ?? 500;
+	const accept = options.acceptBackwardError ?? 1e-11;
+	let xs = aberth(b, maxIterations);
+	xs = xs.map((x) => newtonPolish(b, x));
+	let err = maxBackwardError(b, xs);
+	let method: RootsResult['method'] = 'aberth';
+	if (!(err <= accept)) {
+		const alt = companionRoots(b).map((x) => newtonPolish(b, x));
+		const altErr = maxBackwardError(b, alt);
+		if (altErr < err || !Number.isFinite(err)) {
+			xs = alt;
+			err = altErr;
+			method = 'companion';
+		}
+	}
+	const roots = xs.map((x) => ({ re: x.re * k, im: x.im * k }));
+	return { roots: [...zeroRoots, ...conjugateSymmetric(roots)], backwardError: err, method };
+}
+
+/** Initial radii from the upper convex hull of (i, log|b_i|) (Newton polygon). */
+function initialGuesses(b: number[]): Complex[] {
+	const m = b.length - 1;
+	const pts: { i: number; y: number }[] = [];
+	for (let i = 0; i <= m; i++) if (b[i] !== 0) pts.push({ i, y: Math.log(Math.abs(b[i])) });
+	const hull: { i: number; y: number }[] = [];
+	for (const pt of pts) {
+		while (hull.length >= 2) {
+			const a = hull[hull.length - 2];
+			const c = hull[hull.length - 1];
+			// Remove c if it lies on or below the segment a → pt.
+			if ((c.y - a.y) * (pt.i - a.i) <= (pt.y - a.y) * (c.i - a.i)) hull.pop();
+			else break;
+		}
+		hull.push(pt);
+	}
+	const out: Complex[] = [];
+	const sigma = 0.7; // angular offset so no start point sits on the real axis
+	for (let h = 0; h + 1 < hull.length; h++) {
+		const lo = hull[h];
+		const hi = hull[h + 1];
+		const count = hi.i - lo.i;
+		const radius = Math.exp((lo.y - hi.y) / count);
+		for (let j = 0; j < count; j++) {
+			const angle = (2 * Math.PI * j) / count + (2 * Math.PI * h) / m + sigma;
+			out.push({ re: radius * Math.cos(angle), im: radius * Math.sin(angle) });
+		}
+	}
+	return out;
+}
+
+/** p(x) and p'(x) for real coefficients at complex x. */
+function evalWithDerivative(b: number[], xr: number, xi: number): [number, number, number, number] {
+	let pr = 0;
+	let pi = 0;
+	let dr = 0;
+	let di = 0;
+	for (let i = b.length - 1; i >= 0; i--) {
+		const ndr = dr * xr - di * xi + pr;
+		di = dr * xi + di * xr + pi;
+		dr = ndr;
+		const npr = pr * xr - pi * xi + b[i];
+		pi = pr * xi + pi * xr;
+		pr = npr;
+	}
+	return [pr, pi, dr, di];
+}
+
+function aberth(b: number[], maxIterations: number): Complex[] {
+	const z = initialGuesses(b);
+	const m = z.length;
+	const done = new Array<boolean>(m).fill(false);
+	for (let iter = 0; iter < maxIterations; iter++) {
+		let allDone = true;
+		for (let i = 0; i < m; i++) {
+			if (done[i]) continue;
+			const [pr, pi, dr, di] = evalWithDerivative(b, z[i].re, z[i].im);
+			if (pr === 0 && pi === 0) {
+				done[i] = true;
+				continue;
+			}
+			// ratio = p/p'
+			const dd = dr * dr + di * di;
+			let rr: number;
+			let ri: number;
+			if (dd === 0) {
+				rr = 1e-3 * (1 + Math.hypot(z[i].re, z[i].im));
+				ri = rr;
+			} else {
+				rr = (pr * dr + pi * di) / dd;
+				ri = (pi * dr - pr * di) / dd;
+			}
+			// sum = Σ 1/(z_i − z_j)
+			let sr = 0;
+			let si = 0;
+			for (let j = 0; j < m; j++) {
+				if (j === i) continue;
+				const er = z[i].re - z[j].re;
+				const ei = z[i].im - z[j].im;
+				const e2 = er * er + ei * ei;
+				if (e2 === 0) continue;
+				sr += er / e2;
+				si += -ei / e2;
+			}
+			// w = ratio / (1 − ratio·sum)
+			const denR = 1 - (rr * sr - ri * si);
+			const denI = -(rr * si + ri * sr);
+			const den2 = denR * denR + denI * denI;
+			const wr = den2 === 0 ? rr : (rr * denR + ri * denI) / den2;
+			const wi = den2 === 0 ? ri : (ri * denR - rr * denI) / den2;
+			z[i] = { re: z[i].re - wr, im: z[i].im - wi };
+			if (Math.hypot(wr, wi) <= 4e-16 * Math.hypot(z[i].re, z[i].im)) done[i] = true;
+			else allDone = false;
+		}
+		if (allDone) break;
+	}
+	return z;
+}
+
+/** A few Newton steps; keeps the step only while it lowers |p|. */
+function newtonPolish(b: number[], x: Complex): Complex {
+	let cur = x;
+	let [pr, pi] = evalWithDerivative(b, cur.re, cur.im);
+	let best = Math.hypot(pr, pi);
+	for (let k = 0; k < 6 && best > 0; k++) {
+		const [, , dr, di] = evalWithDerivative(b, cur.re, cur.im);
+		const dd = dr * dr + di * di;
+		if (dd === 0) break;
+		const next = {
+			re: cur.re - (pr * dr + pi * di) / dd,
+			im: cur.im - (pi * dr - pr * di) / dd
+		};
+		const [nr, ni] = evalWithDerivative(b, next.re, next.im);
+		const val = Math.hypot(nr, ni);
+		if (!(val < best)) break;
+		cur = next;
+		pr = nr;
+		pi = ni;
+		best = val;
+	}
+	return cur;
+}
+
+/** max over roots of |p(x)| / Σ |b_i| |x|^i. */
+export function maxBackwardError(b: Poly, xs: readonly Complex[]): number {
+	let worst = 0;
+	for (const x of xs) {
+		const [pr, pi] = evalWithDerivative(b as number[], x.re, x.im);
+		const r = Math.hypot(x.re, x.im);
+		let scale = 0;
+		for (let i = b.length - 1; i >= 0; i--) scale = scale * r + Math.abs(b[i]);
+		const e = scale === 0 ? 0 : Math.hypot(pr, pi) / scale;
+		if (!(e <= worst)) worst = e; // NaN propagates as "worst"
+	}
+	return worst;
+}
+
+/** Eigenvalues of the companion matrix of a monic polynomial b (ascending). */
+function companionRoots(b: number[]): Complex[] {
+	const m = b.length - 1;
+	const rows: number[][] = [];
+	for (let i = 0; i < m; i++) {
+		const row = new Array<number>(m).fill(0);
+		if (i === 0) for (let j = 0; j < m; j++) row[j] = -b[m - 1 - j];
+		else row[i - 1] = 1;
+		rows.push(row);
+	}
+	try {
+		const res = eigs(rows, { eigenvectors: false, precision: 1e-10 }) as unknown as {
+			values: unknown;
+		};
+		const raw = res.values as { toArray?: () => unknown[] } | unknown[];
+		const list = (Array.isArray(raw) ? raw : (raw.toArray?.() ?? [])) as unknown[];
+		return list.map((v) =>
+			typeof v === 'number' ? { re: v, im: 0 } : { re: (v as Complex).re, im: (v as Complex).im }
+		);
+	} catch {
+		return [];
+	}
+}
+
+/**
+ * Make a root set of a real polynomial exactly conjugate-symmetric: each root with im > 0
+ * is matched with the nearest root with im < 0 and the pair is replaced by an exact
+ * conjugate pair; unmatched roots become real.
+ */
+function conjugateSymmetric(roots: Complex[]): Complex[] {
+	const upper = roots.filter((r) => r.im > 0);
+	const lower = roots.filter((r) => r.im < 0);
+	const real = roots.filter((r) => r.im === 0).map((r) => ({ re: r.re, im: 0 }));
+	const out: Complex[] = [...real];
+	const used = new Array<boolean>(lower.length).fill(false);
+	// Pair the most clearly complex roots first.
+	upper.sort((a, b) => b.im / Math.hypot(b.re, b.im) - a.im / Math.hypot(a.re, a.im));
+	for (const u of upper) {
+		let best = -1;
+		let bestD = Infinity;
+		for (let j = 0; j < lower.length; j++) {
+			if (used[j]) continue;
+			const d = Math.hypot(u.re - lower[j].re, u.im + lower[j].im);
+			if (d < bestD) {
+				bestD = d;
+				best = j;
+			}
+		}
+		const scale = Math.hypot(u.re, u.im);
+		if (best >= 0 && bestD <= 1e-6 * scale + Math.abs(u.im)) {
+			used[best] = true;
+			const l = lower[best];
+			const re = (u.re + l.re) / 2;
+			const im = (u.im - l.im) / 2;
+			out.push({ re, im }, { re, im: -im });
+		} else {
+			out.push({ re: u.re, im: 0 });
+		}
+	}
+	lower.forEach((l, j) => {
+		if (!used[j]) out.push({ re: l.re, im: 0 });
+	});
+	return out;
+}

@@ -1,0 +1,2 @@
+/** Frequency grids. */
+export * from './grid';
