@@ -1,0 +1,234 @@
+#!/usr/bin/env python3
+"""ngspice reference: averaged-switch netlists of each design case, AC analysis in batch mode.
+
+Each netlist is the averaged large-signal circuit (behavioural B sources for the averaged switch
+network, real R/L/C parts for the inductor, the capacitor branches and the load, and the op-amp
+compensator built from its parts). ngspice finds the duty itself (scan plus bisection on `op` in
+the .control block until V(out) equals vout), then linearises the circuit at that point in its
+AC analysis. Nothing here uses a closed-form transfer function. Averaged switch model:
+[published: Erickson & Maksimovic, Fundamentals of Power Electronics, 2nd ed., ch. 7 (averaged
+switch modelling), from memory].
+
+Usage: python3 reference/ngspice/generate.py [--cases DIR] [--out DIR] [--netlists DIR]
+"""
+from __future__ import annotations
+
+import argparse
+import json
+import math
+import pathlib
+import re
+import subprocess
+import tempfile
+
+import numpy as np
+
+HERE = pathlib.Path(__file__).resolve().parent
+POINTS_PER_DECADE = 100
+IDEAL_OPAMP_GAIN = 1e9  # error ~ noise gain / 1e9: far below the comparison tolerance
+
+
+def fmt(x: float) -> str:
+    return repr(float(x))
+
+
+def power_stage(p: dict) -> list[str]:
+    r_ds = float(p.get("rdsOn", 0.0))
+    dcr = float(p["inductor"].get("dcr", 0.0))
+    lines = []
+    if p["topology"] == "buck":
+        # Switch node: d*(vg - iL*Rds) + (1 - d)*(0 - iL*Rds); the input draws d*iL.
+        lines += [
+            f"Bsw sw 0 V = V(d)*(V(in) - I(Vs)*{fmt(r_ds)}) - (1 - V(d))*I(Vs)*{fmt(r_ds)}",
+            "Bin in 0 I = V(d)*I(Vs)",
+            f"Rdcr sw x {fmt(dcr)}" if dcr > 0 else "Vdcr sw x DC 0",
+            f"L1 x y {fmt(p['inductor']['l'])}",
+            "Vs y out DC 0",
+        ]
+    else:
+        # Switch node: d*(iL*Rds) + (1 - d)*(v + iL*Rds); the output node receives (1 - d)*iL.
+        lines += [
+            f"L1 in x {fmt(p['inductor']['l'])}",
+            f"Rdcr x y {fmt(dcr)}" if dcr > 0 else "Vdcr x y DC 0",
+            "Vs y sw DC 0",
+            f"Bsw sw 0 V = V(d)*I(Vs)*{fmt(r_ds)} + (1 - V(d))*(V(out) + I(Vs)*{fmt(r_ds)})",
+            "Bout 0 out I = (1 - V(d))*I(Vs)",
+        ]
+    for k, b in enumerate(p["capacitors"]):
+        n = int(b.get("count", 1))
+        esr, esl = float(b.get("esr", 0.0)) / n, float(b.get("esl", 0.0)) / n
+        node = "out"
+        if esr > 0:
+            lines.append(f"Rc{k} {node} a{k} {fmt(esr)}")
+            node = f"a{k}"
+        if esl > 0:
+            lines.append(f"Lc{k} {node} b{k} {fmt(esl)}")
+            node = f"b{k}"
+        lines.append(f"Cc{k} {node} 0 {fmt(float(b['c']) * n)}")
+    lines.append(f"Rload out 0 {fmt(p['vout'] / p['iout'])}")
+    return lines
+
+
+def compensator(doc: dict) -> list[str]:
+    """Op-amp compensator driven by a buffered copy of V(out), so it does not load the plant."""
+    comp = doc["compensator"]
+    parts = comp["parts"]
+    kind = comp["kind"]
+    r1 = float(doc["feedback"]["r1"])
+    vref = float(doc["feedback"]["vref"])
+    rb = r1 * vref / (float(doc["plant"]["vout"]) - vref)
+    g = lambda k: fmt(parts[k])  # noqa: E731
+    lines = ["Ebuf fbin 0 out 0 1", f"R1 fbin inv {fmt(r1)}", f"Rb inv 0 {fmt(rb)}", f"Vref ninv 0 DC {fmt(vref)}"]
+    if kind == "type1":
+        lines.append(f"C1 inv vc {g('c1')}")
+    elif kind in ("type2", "type3"):
+        lines += [f"R2 inv m2 {g('r2')}", f"C1 m2 vc {g('c1')}", f"C2 inv vc {g('c2')}"]
+        if kind == "type3":
+            lines += [f"R3 fbin m3 {g('r3')}", f"C3 m3 inv {g('c3')}"]
+    else:
+        raise NotImplementedError(f"ngspice reference has no netlist for {kind}")
+    opamp = comp.get("opamp")
+    if opamp:
+        # Single-pole op-amp: transconductance into Rp || Cp gives A0 / (1 + s/omega_a).
+        a0 = 10 ** (float(opamp["a0Db"]) / 20)
+        wa = 2 * math.pi * float(opamp["gbw"]) / a0
+        lines += ["Gop 0 p ninv inv 1", f"Rp p 0 {fmt(a0)}", f"Cp p 0 {fmt(1 / (wa * a0))}", "Eop vc 0 p 0 1"]
+    else:
+        lines.append(f"Eop vc 0 ninv inv {fmt(IDEAL_OPAMP_GAIN)}")
+    vramp = float(doc["modulator"].get("vramp", 1.0))
+    # Loop gain T = Gc * Fm * Gvd: the inverting amplifier's sign is taken out here (-1/vramp).
+    lines.append(f"Emod tmod 0 vc 0 {fmt(-1 / vramp)}")
+    delay = float(doc["modulator"].get("delay", 0.0) or 0.0)
+    if delay > 0:
+        # A matched lossless line is an exact pure delay e^(-s*TD) in AC analysis.
+        lines += [f"Tdel tmod 0 dl 0 Z0=50 TD={fmt(delay)}", "Rterm dl 0 50"]
+    return lines
+
+
+def netlist(doc: dict, name: str, response: str, data_file: str) -> str:
+    p = doc["plant"]
+    sw = doc["sweep"]
+    ac = {"gvd": (1, 0, 0), "gvg": (0, 1, 0), "zo": (0, 0, 1), "loop": (1, 0, 0)}[response]
+    probe = "v(out)"
+    if response == "loop":
+        probe = "v(dl)" if float(doc["modulator"].get("delay", 0.0) or 0.0) > 0 else "v(tmod)"
+    body = [
+        f"* Loopwright reference: {name}, response {response} (averaged model, generated by reference/ngspice/generate.py)",
+        f"Vg in 0 DC {fmt(p['vin'])} AC {ac[1]}",
+        f"Vd d 0 DC 0.01 AC {ac[0]}",
+        f"Iinj 0 out DC 0 AC {ac[2]}",
+        *power_stage(p),
+    ]
+    if response == "loop":
+        body += compensator(doc)
+    # The open-loop op-amp would rail to ~1e9 V while the duty is off target: switch its gain
+    # off during the search, back on for the final operating point and the AC analysis.
+    amp_off = amp_on = ""
+    if response == "loop":
+        dev, gain = ("@gop[gm]", "1") if doc["compensator"].get("opamp") else ("@eop[gain]", fmt(IDEAL_OPAMP_GAIN))
+        amp_off, amp_on = f"alter {dev} = 0\n", f"alter {dev} = {gain}\n"
+    control = f"""
+.options reltol=1e-9 abstol=1e-12 vntol=1e-12
+.control
+set numdgt=15
+* Find the duty: step up until V(out) passes vout (the rising branch, so a boost stays on the
+* normal side of its maximum-gain point), then bisect.
+* Every vector is created here, before the first analysis, so it lives in the const plot.
+let target = {fmt(p['vout'])}
+let dlo = 0.0
+let dhi = 0.01
+let duty_v = 0.01
+let k = 0
+let vout_op = 0
+let iin_op = 0
+{amp_off}alter vd dc = dhi
+op
+while v(out) < target
+  let dlo = dhi
+  let dhi = dhi + 0.01
+  alter vd dc = dhi
+  op
+end
+while k < 60
+  let duty_v = (dlo + dhi) / 2
+  alter vd dc = duty_v
+  op
+  if v(out) > target
+    let dhi = duty_v
+  else
+    let dlo = duty_v
+  end
+  let k = k + 1
+end
+let duty_v = (dlo + dhi) / 2
+alter vd dc = duty_v
+{amp_on}op
+let vout_op = v(out)
+let iin_op = -i(vg)
+print duty_v vout_op iin_op
+ac dec {POINTS_PER_DECADE} {fmt(sw['startHz'])} {fmt(sw['stopHz'])}
+set wr_singlescale
+set wr_vecnames
+wrdata {data_file} {probe}
+quit 0
+.endc
+.end
+"""
+    return "\n".join(body) + "\n" + control
+
+
+def run(netlist_text: str, work: pathlib.Path, data_file: str):
+    cir = work / "run.cir"
+    cir.write_text(netlist_text)
+    res = subprocess.run(["ngspice", "-b", str(cir)], capture_output=True, text=True, cwd=work, timeout=120)
+    found = dict(re.findall(r"^(?:\w+\.)?(duty_v|vout_op|iin_op) = (\S+)$", res.stdout, re.M))
+    if res.returncode != 0 or len(found) != 3:
+        raise RuntimeError(f"ngspice failed:\n{res.stdout[-2000:]}\n{res.stderr[-2000:]}")
+    rows = np.loadtxt(work / data_file, skiprows=1)
+    return {"duty": float(found["duty_v"]), "vout": float(found["vout_op"]), "iin": float(found["iin_op"])}, rows
+
+
+def ngspice_version() -> str:
+    out = subprocess.run(["ngspice", "-v"], capture_output=True, text=True).stdout
+    m = re.search(r"ngspice-(\S+)", out)
+    return m.group(1) if m else out.strip()
+
+
+def main(argv=None):
+    ap = argparse.ArgumentParser(description=__doc__.splitlines()[0])
+    ap.add_argument("--cases", default=str(HERE.parent / "cases"))
+    ap.add_argument("--out", default=str(HERE / "out"))
+    ap.add_argument("--netlists", default=str(HERE / "netlists"))
+    args = ap.parse_args(argv)
+    out_dir, net_dir = pathlib.Path(args.out), pathlib.Path(args.netlists)
+    out_dir.mkdir(parents=True, exist_ok=True)
+    net_dir.mkdir(parents=True, exist_ok=True)
+    version = ngspice_version()
+    for path in sorted(pathlib.Path(args.cases).glob("*.json")):
+        doc = json.loads(path.read_text())
+        name = path.stem
+        result = {"case": name, "generator": "reference/ngspice/generate.py",
+                  "versions": {"ngspice": version},
+                  "method": ("averaged-switch netlist with B sources, duty found by bisection on .op, "
+                             f"AC analysis dec {POINTS_PER_DECADE}; phase: principal value at the first point, "
+                             "then numpy.unwrap along the AC grid"),
+                  "responses": {}}
+        responses = ["gvd", "gvg", "zo"] + (["loop"] if doc.get("compensator", {}).get("parts") else [])
+        with tempfile.TemporaryDirectory() as tmp:
+            for resp in responses:
+                text = netlist(doc, name, resp, "data.txt")
+                (net_dir / f"{name}.{resp}.cir").write_text(text)
+                op, rows = run(text, pathlib.Path(tmp), "data.txt")
+                h = rows[:, 1] + 1j * rows[:, 2]
+                result["freqHz"] = rows[:, 0].tolist()
+                result["responses"][resp] = {"magDb": (20 * np.log10(np.abs(h))).tolist(),
+                                             "phaseDeg": np.degrees(np.unwrap(np.angle(h))).tolist()}
+        p = doc["plant"]
+        p_out = op["vout"] ** 2 / (p["vout"] / p["iout"])
+        result["operatingPoint"] = {"duty": op["duty"], "vout": op["vout"], "efficiency": p_out / (p["vin"] * op["iin"])}
+        (out_dir / f"{name}.json").write_text(json.dumps(result, indent=1) + "\n")
+        print(f"{name}: duty={op['duty']:.9f} eff={result['operatingPoint']['efficiency']:.6f} points={len(result['freqHz'])}")
+
+
+if __name__ == "__main__":
+    main()
