@@ -5,6 +5,10 @@ import { defineConfig } from 'vitest/config';
 
 export default defineConfig({
 	plugins: [tailwindcss(), sveltekit()],
+	build: {
+		// The timing heuristic fires on 2-core machines for a normal Svelte build; it is noise.
+		rolldownOptions: { checks: { bundlerTimings: false } }
+	},
 	test: {
 		projects: [
 			{
