@@ -2,3 +2,4 @@
 export * from './complex';
 export * from './polynomial';
 export * from './roots';
+export * from './scalarRoot';

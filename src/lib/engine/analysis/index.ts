@@ -1,0 +1,4 @@
+/** Loop analysis: crossings, margins, closed-loop stability. */
+export * from './margins';
+export * from './closedLoop';
+export * from './analysisGrid';

@@ -1,0 +1,238 @@
+/**
+ * Loop metrics (formulas §7): every gain crossover (|T| = 1) and phase crossover
+ * (∠T = −180° + k·360°) in the analysed range, each bracketed on the dense grid and refined
+ * by Brent's method on the analytic ln|T| or unwrapped phase in log f; PM per crossing,
+ * smallest positive GM, gain-reduction margin, delay margin, modulus margin min|1 + T|.
+ * A margin that does not exist is null, with its reason in `unavailable`.
+ */
+import { brentRoot, goldenMin } from '../math/scalarRoot';
+import { compileTf, lnMagPhaseAt } from '../tf/evaluate';
+import type { FactoredTf } from '../tf/types';
+import { sampleLoop, type GridOptions } from './analysisGrid';
+import { closedLoopStability, type ClosedLoopResult } from './closedLoop';
+
+const RAD2DEG = 180 / Math.PI;
+const TWO_PI = 2 * Math.PI;
+
+export interface GainCrossover {
+	freqHz: number;
+	/** 180° + ∠T reduced to (−180°, 180°]. */
+	phaseMarginDeg: number;
+	/** (180° + ∠T) mod 360° in [0°, 360°). */
+	lagMarginDeg: number;
+	/** Unwrapped loop phase at the crossing. */
+	phaseDeg: number;
+	/** 'falling': |T| goes from above 1 to below 1 with rising frequency. */
+	direction: 'falling' | 'rising';
+}
+
+export interface PhaseCrossover {
+	freqHz: number;
+	/** −20·log10|T|: > 0 the gain may rise by this much; < 0 it may fall by |value|. */
+	gainMarginDb: number;
+	/** The −180° + k·360° line crossed (deg). */
+	lineDeg: number;
+	/** 'falling': the phase decreases through the line. */
+	direction: 'falling' | 'rising';
+}
+
+export interface LoopMetrics {
+	/** The crossing with the smallest phase margin. */
+	crossoverHz: number | null;
+	phaseMarginDeg: number | null;
+	/** Smallest positive gain margin and where it is taken. */
+	gainMarginDb: number | null;
+	phaseCrossoverHz: number | null;
+	/** Negative gain margin closest to zero (conditional stability), dB. */
+	gainReductionMarginDb: number | null;
+	/** min over crossings of lag margin / ωc, s (null when the closed loop is unstable). */
+	delayMarginS: number | null;
+	/** min |1 + T(jω)| over the analysed range, and where. */
+	modulusMargin: number | null;
+	modulusMarginHz: number | null;
+	crossovers: GainCrossover[];
+	phaseCrossovers: PhaseCrossover[];
+	closedLoopStable: boolean | null;
+	closedLoop: ClosedLoopResult | null;
+	/** Why a null metric is null, by metric name. */
+	unavailable: Partial<Record<'crossoverHz' | 'gainMarginDb' | 'gainReductionMarginDb' | 'delayMarginS' | 'modulusMargin' | 'closedLoopStable', string>>;
+}
+
+export interface MarginOptions extends GridOptions {
+	/** Padé order for the delay in the closed-loop pole computation [chosen, see closedLoop.ts]. */
+	padeOrder?: number;
+	/** Skip the closed-loop pole computation [false]. */
+	skipClosedLoop?: boolean;
+}
+
+/** Reduce an angle in degrees to (−180, 180]. */
+export function reduceDeg(x: number): number {
+	let y = x - 360 * Math.floor((x + 180) / 360);
+	if (y <= -180) y += 360;
+	return y;
+}
+
+export function loopMetrics(
+	loop: FactoredTf,
+	range: { startHz: number; stopHz: number },
+	options: MarginOptions = {}
+): LoopMetrics {
+	const c = compileTf(loop);
+	const wA = TWO_PI * range.startHz;
+	const wB = TWO_PI * range.stopHz;
+	const g = sampleLoop(loop, c, wA, wB, options);
+	const buf = new Float64Array(2);
+	const lnMagAtLog = (u: number) => {
+		lnMagPhaseAt(c, Math.exp(u), buf);
+		return buf[0];
+	};
+	const phaseAtLog = (u: number) => {
+		lnMagPhaseAt(c, Math.exp(u), buf);
+		return buf[1];
+	};
+	const n = g.omega.length;
+
+	// Gain crossovers: sign changes of ln|T| (a value of exactly 0 counts as positive, and a
+	// last point of exactly 0 is a crossing at the edge).
+	const crossovers: GainCrossover[] = [];
+	for (let i = 1; i < n; i++) {
+		const a = g.lnMag[i - 1];
+		const b = g.lnMag[i];
+		const atEdge = i === n - 1 && b === 0;
+		if ((a >= 0) === (b >= 0) && !atEdge) continue;
+		const u = atEdge ? Math.log(g.omega[i]) : brentRoot(lnMagAtLog, Math.log(g.omega[i - 1]), Math.log(g.omega[i]), a, b);
+		const w = Math.exp(u);
+		lnMagPhaseAt(c, w, buf);
+		const phaseDeg = buf[1] * RAD2DEG;
+		const pm = reduceDeg(180 + phaseDeg);
+		crossovers.push({
+			freqHz: w / TWO_PI,
+			phaseMarginDeg: pm,
+			lagMarginDeg: pm < 0 ? pm + 360 : pm,
+			phaseDeg,
+			direction: b < a ? 'falling' : 'rising'
+		});
+	}
+
+	// Phase crossovers: the unwrapped phase crossing any −π + 2πk line.
+	const phaseCrossovers: PhaseCrossover[] = [];
+	const first = g.phase[0];
+	const onLine = (p: number) => Number.isInteger((p + Math.PI) / TWO_PI);
+	const pushPhase = (w: number, line: number, dir: 'falling' | 'rising') => {
+		lnMagPhaseAt(c, w, buf);
+		phaseCrossovers.push({
+			freqHz: w / TWO_PI,
+			gainMarginDb: (-20 * buf[0]) / Math.LN10,
+			lineDeg: line * RAD2DEG,
+			direction: dir
+		});
+	};
+	if (onLine(first)) pushPhase(g.omega[0], first, g.phase[1] < first ? 'falling' : 'rising');
+	for (let i = 1; i < n; i++) {
+		const pa = g.phase[i - 1];
+		const pb = g.phase[i];
+		if (pa === pb) continue;
+		const lo = Math.min(pa, pb);
+		const hi = Math.max(pa, pb);
+		// lines L_k = −π + 2πk with lo < L ≤ hi (falling) or lo ≤ L < hi (rising): each once
+		const kMin = Math.ceil((lo + Math.PI) / TWO_PI);
+		const kMax = Math.floor((hi + Math.PI) / TWO_PI);
+		for (let k = kMin; k <= kMax; k++) {
+			const line = -Math.PI + TWO_PI * k;
+			if (line === pa) continue; // counted at the previous point
+			const ua = Math.log(g.omega[i - 1]);
+			const ub = Math.log(g.omega[i]);
+			const u = brentRoot((x) => phaseAtLog(x) - line, ua, ub, pa - line, pb - line);
+			pushPhase(Math.exp(u), line, pb < pa ? 'falling' : 'rising');
+		}
+	}
+	phaseCrossovers.sort((a, b) => a.freqHz - b.freqHz);
+
+	const unavailable: LoopMetrics['unavailable'] = {};
+	let governing: GainCrossover | null = null;
+	for (const x of crossovers) if (!governing || x.phaseMarginDeg < governing.phaseMarginDeg) governing = x;
+	if (!governing) {
+		unavailable.crossoverHz =
+			g.lnMag[0] < 0
+				? '|T| stays below 0 dB over the analysed range'
+				: '|T| stays above 0 dB over the analysed range (crossover above the range)';
+	}
+
+	let gm: PhaseCrossover | null = null;
+	let grm: PhaseCrossover | null = null;
+	for (const p of phaseCrossovers) {
+		if (p.gainMarginDb > 0 && (!gm || p.gainMarginDb < gm.gainMarginDb)) gm = p;
+		if (p.gainMarginDb < 0 && (!grm || p.gainMarginDb > grm.gainMarginDb)) grm = p;
+	}
+	if (!gm) {
+		unavailable.gainMarginDb =
+			phaseCrossovers.length === 0
+				? 'the loop phase never reaches −180° (mod 360°) in the analysed range'
+				: 'every phase crossover has |T| ≥ 1';
+	}
+	if (!grm) unavailable.gainReductionMarginDb = 'no phase crossover with |T| > 1';
+
+	// Modulus margin: min |1 + T| on the grid, refined by golden-section search around it.
+	let iMin = 0;
+	let best = Infinity;
+	const dist = (lnM: number, ph: number) => {
+		const m = Math.exp(lnM);
+		return Math.hypot(1 + m * Math.cos(ph), m * Math.sin(ph));
+	};
+	for (let i = 0; i < n; i++) {
+		const d = dist(g.lnMag[i], g.phase[i]);
+		if (d < best) {
+			best = d;
+			iMin = i;
+		}
+	}
+	let smW = g.omega[iMin];
+	if (n > 2) {
+		const ua = Math.log(g.omega[Math.max(0, iMin - 1)]);
+		const ub = Math.log(g.omega[Math.min(n - 1, iMin + 1)]);
+		const r = goldenMin(
+			(u) => {
+				lnMagPhaseAt(c, Math.exp(u), buf);
+				return dist(buf[0], buf[1]);
+			},
+			ua,
+			ub
+		);
+		if (r.fx < best) {
+			best = r.fx;
+			smW = Math.exp(r.x);
+		}
+	}
+
+	let closedLoop: ClosedLoopResult | null = null;
+	let stable: boolean | null = null;
+	if (!options.skipClosedLoop) {
+		const highest = crossovers.length ? Math.max(...crossovers.map((x) => x.freqHz)) : range.stopHz;
+		closedLoop = closedLoopStability(loop, { padeOrder: options.padeOrder, accurateToHz: 2 * highest });
+		stable = closedLoop.stable;
+		if (stable === null) unavailable.closedLoopStable = closedLoop.reason ?? 'closed-loop poles not available';
+	}
+
+	let delayMarginS: number | null = null;
+	if (crossovers.length === 0) unavailable.delayMarginS = 'no gain crossover';
+	else if (stable === false) unavailable.delayMarginS = 'the closed loop is unstable';
+	else {
+		delayMarginS = Math.min(...crossovers.map((x) => x.lagMarginDeg / 360 / x.freqHz));
+	}
+
+	return {
+		crossoverHz: governing?.freqHz ?? null,
+		phaseMarginDeg: governing?.phaseMarginDeg ?? null,
+		gainMarginDb: gm?.gainMarginDb ?? null,
+		phaseCrossoverHz: gm?.freqHz ?? null,
+		gainReductionMarginDb: grm?.gainMarginDb ?? null,
+		delayMarginS,
+		modulusMargin: Number.isFinite(best) ? best : null,
+		modulusMarginHz: Number.isFinite(best) ? smW / TWO_PI : null,
+		crossovers,
+		phaseCrossovers,
+		closedLoopStable: stable,
+		closedLoop,
+		unavailable
+	};
+}

@@ -1,0 +1,25 @@
+/**
+ * PWM modulator gain Fm = 1/VM, VM = peak-to-peak ramp [published: E&M §7.6; from memory].
+ * With input feed-forward the ramp scales with vin: VM = vramp·vin/vinNominal (formulas §3).
+ * A loop delay Td multiplies the loop by e^(−s·Td), evaluated exactly.
+ */
+import type { FactoredTf } from '../tf/types';
+
+export interface ModulatorInput {
+	/** Peak-to-peak ramp at the nominal input voltage, V. */
+	vramp: number;
+	feedForward: boolean;
+	/** Pure loop delay, s. */
+	delayS: number;
+}
+
+export function rampAmplitude(m: ModulatorInput, vin: number, vinNominal = vin): number {
+	return m.feedForward ? (m.vramp * vin) / vinNominal : m.vramp;
+}
+
+/** Fm·e^(−s·Td) as a transfer function. */
+export function modulatorTf(m: ModulatorInput, vin: number, vinNominal = vin): FactoredTf {
+	const tf: FactoredTf = { gain: 1 / rampAmplitude(m, vin, vinNominal), originPower: 0, zeros: [], poles: [] };
+	if (m.delayS > 0) tf.delayS = m.delayS;
+	return tf;
+}

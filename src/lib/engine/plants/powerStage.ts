@@ -1,0 +1,50 @@
+/**
+ * Builds the averaged small-signal model (VM, CCM) of a buck or boost at its operating point:
+ * operating point, the five transfer functions and the salient features, plus warnings
+ * (DCM: the CCM model does not apply [formulas §4]). Formulas: §1–§4.
+ */
+import type { EngineWarning } from '../errors';
+import { outputNetwork } from './capacitorBank';
+import { operatingPoint } from './operatingPoint';
+import { stageFeatures, stageTransferFunctions } from './stageModel';
+import type { PlantModel, PowerStageInput } from './types';
+
+export function powerStage(input: PowerStageInput): PlantModel {
+	const net = outputNetwork(input.capacitors);
+	const op = operatingPoint(input, net.branches);
+	const params = {
+		topology: input.topology,
+		vin: input.vin,
+		vout: input.vout,
+		duty: op.duty,
+		rLoad: op.rLoad,
+		rSeries: op.rSeries,
+		l: input.l,
+		inductorCurrent: op.inductorCurrent
+	};
+	const t = stageTransferFunctions(params, net);
+	const features = stageFeatures(params, t);
+	const warnings: EngineWarning[] = [];
+	if (op.mode === 'dcm') {
+		warnings.push({
+			code: 'dcm-operating-point',
+			message: `The inductor current runs discontinuous (L = ${sig(input.l)} H is below the critical ${sig(op.criticalInductance)} H, or the load current is below ${sig(op.criticalLoadCurrent)} A); the CCM averaged model does not apply.`
+		});
+	}
+	const halfFsw = input.fswHz / 2;
+	if (features.f0Hz > halfFsw) {
+		warnings.push({
+			code: 'resonance-above-fsw-half',
+			message: `The LC resonance (${sig(features.f0Hz)} Hz) sits above fsw/2; the averaged model is not trusted there.`
+		});
+	}
+	if (features.rhpZeroHz !== null && features.rhpZeroHz > 0 && features.rhpZeroHz < features.f0Hz) {
+		warnings.push({
+			code: 'rhp-zero-below-resonance',
+			message: `The RHP zero (${sig(features.rhpZeroHz)} Hz) sits below the LC resonance; the usable crossover is very low.`
+		});
+	}
+	return { topology: input.topology, operatingPoint: op, features, ...t, warnings };
+}
+
+const sig = (x: number) => Number(x.toPrecision(3)).toString();
