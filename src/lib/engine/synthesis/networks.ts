@@ -3,8 +3,8 @@
 // C2 across it, R3+C3 in series across R1 (Type III); the OTA drives R2+C1 ∥ C2 to ground with the divider in the loop.
 // Formulas: domain sheet §5.1–§5.3 and §5.5 (standard inverting-amplifier algebra; Venable 1983 layout). Hz throughout.
 
-export type CompensatorKind = 'type1' | 'type2' | 'type3' | 'type2-ota';
-export const COMPENSATOR_KINDS: readonly CompensatorKind[] = ['type1', 'type2', 'type3', 'type2-ota'];
+export const COMPENSATOR_KINDS = ['type1', 'type2', 'type3', 'type2-ota'] as const;
+export type CompensatorKind = (typeof COMPENSATOR_KINDS)[number];
 
 /** Divider: r1 from the output to the feedback node, rb from there to ground; rb null when Vout = Vref (none fitted). */
 export interface Divider {

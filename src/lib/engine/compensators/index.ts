@@ -1,0 +1,222 @@
+// Public entry of compensator design: resolveCompensator(doc, ctx) turns the design document's `compensator`
+// section into ideal and rounded parts, their corners, the Gc to build (tf/ factored form) and plain-words warnings,
+// with the achieved crossover and phase margin computed from the loop response, never assumed.
+// Formulas: domain sheet §5 (networks), §6 (placement), §7 (margins), §10 (E-series).
+import type { ZodError } from 'zod';
+import { multiply, rootFreqHz, type FactoredTf } from '../tf';
+import { isInSeries } from '../synthesis/eSeries';
+import {
+	bottomResistor,
+	dividerVout,
+	partsFromShape,
+	partsRecord,
+	type CompensatorKind,
+	type NetworkParts
+} from '../synthesis/networks';
+import { partWarnings } from '../synthesis/practicality';
+import { DEFAULT_SERIES, partFamily, roundParts, type SeriesChoice } from '../synthesis/rounding';
+import { crossoverWarnings, loopWarnings, opampWarnings, poleWarnings } from './checks';
+import { checkLoop, type LoopCheck } from './loopCheck';
+import {
+	CompensatorDesignError,
+	placeByFeatures,
+	placeKFactor,
+	placeManually,
+	type DesignWarning,
+	type Placement,
+	type PlantFeatures
+} from './placement';
+import { compensatorSchema, hasNetworkParts, type CompensatorDoc } from './schema';
+import { compensatorTf, idealCompensatorTf } from './transfer';
+
+export { compensatorSchema, type CompensatorDoc } from './schema';
+export { CompensatorDesignError, type DesignWarning, type PlantFeatures } from './placement';
+export { compensatorTf, idealCompensatorTf, finiteOpampCompensatorTf, type OpampModel } from './transfer';
+export { checkLoop, type LoopCheck, type CrossoverPoint } from './loopCheck';
+export { kFactorFor, boostForK, requiredBoostDeg } from './placement';
+
+export interface CompensatorContext {
+	/** Everything in the loop except Gc: Fm·Gvd (the divider is inside Gc for type2-ota). */
+	plant: FactoredTf;
+	fswHz: number;
+	features: PlantFeatures;
+	vout: number;
+	vref: number;
+	/** Divider top resistor, Ω (feedback.r1); kept as entered. */
+	r1: number;
+}
+
+export interface NetworkReport {
+	/** r1, rb (absent when Vout = Vref), r2, r3, c1, c2, c3, gm, ro as applicable; SI units. */
+	parts: Record<string, number>;
+	/** Finite zeros of the ideal-amplifier network, ascending, Hz. */
+	zerosHz: number[];
+	/** Poles, ascending, Hz; 0 is the integrator at the origin. */
+	polesHz: number[];
+}
+
+export interface AchievedLoop {
+	/** Governing crossing (smallest PM); null when there is none. */
+	crossoverHz: number | null;
+	phaseMarginDeg: number | null;
+	crossovers: { freqHz: number; phaseMarginDeg: number }[];
+}
+
+export interface ResolvedCompensator {
+	kind: CompensatorKind;
+	ideal: NetworkReport;
+	rounded: NetworkReport | null;
+	/** Gc that would be built (rounded parts when a series is set, else ideal; finite op-amp if given). */
+	built: FactoredTf;
+	warnings: DesignWarning[];
+	/** Loop figures from the response: T = Gc·plant for the ideal and for the rounded parts. */
+	achieved: { ideal: AchievedLoop; rounded: AchievedLoop | null };
+	/** How the network was obtained; K-factor details when used. */
+	placement: { method: 'parts' | 'k-factor' | 'features' | 'manual'; k?: number; requiredBoostDeg?: number; usedBoostDeg?: number };
+}
+
+/**
+ * Resolve the design document's `compensator` section for a plant.
+ * Throws CompensatorDesignError (with `field`, a document path) when the input is invalid or the network cannot be
+ * built at all; every softer problem comes back as a warning with the design still produced.
+ */
+export function resolveCompensator(doc: CompensatorDoc, ctx: CompensatorContext): ResolvedCompensator {
+	const parsed = compensatorSchema.safeParse(doc);
+	if (!parsed.success) throw fromZod(parsed.error);
+	const c = parsed.data;
+	checkContext(ctx);
+	const rb = bottomResistor(ctx.r1, ctx.vout, ctx.vref);
+	const warnings: DesignWarning[] = [];
+
+	let placement: Placement | null = null;
+	let ideal: NetworkParts;
+	const givenParts = hasNetworkParts(c.parts) || !c.target;
+	if (givenParts) {
+		ideal = partsFromDoc(c.kind, c.parts!, ctx.r1, rb);
+	} else {
+		const t = c.target!;
+		const pctx = { plant: ctx.plant, fswHz: ctx.fswHz, features: ctx.features };
+		if (t.method === 'k-factor') placement = placeKFactor(c.kind, pctx, t.crossoverHz!, t.phaseMarginDeg!);
+		else if (t.method === 'features') placement = placeByFeatures(c.kind, pctx, t);
+		else placement = placeManually(c.kind, pctx, t);
+		warnings.push(...placement.notes);
+		ideal = partsFromShape(placement.shape, { r1: ctx.r1, rb, gm: c.parts?.gm, ro: c.parts?.ro });
+	}
+
+	const series: SeriesChoice | null = c.series === undefined ? DEFAULT_SERIES : c.series;
+	const rounds = !givenParts && series !== null && (series.resistors !== null || series.capacitors !== null);
+	const rounded = rounds ? roundParts(ideal, series!) : null;
+	if (givenParts && series) warnings.push(...notInSeries(ideal, series));
+
+	const opamp = c.opamp ?? null;
+	const builtParts = rounded ?? ideal;
+	const built = compensatorTf(builtParts, opamp);
+	const range = analysisRange(ctx, [...report(ideal).polesHz, ...report(ideal).zerosHz]);
+	const idealLoop = checkLoop(multiply(compensatorTf(ideal, opamp), ctx.plant), range.startHz, range.stopHz);
+	const roundedLoop = rounded ? checkLoop(multiply(built, ctx.plant), range.startHz, range.stopHz) : null;
+	const builtLoop = roundedLoop ?? idealLoop;
+
+	const builtReport = report(builtParts);
+	const fcForChecks = c.target?.crossoverHz ?? builtLoop.crossoverHz;
+	if (fcForChecks !== null) warnings.push(...crossoverWarnings(fcForChecks, ctx.fswHz, ctx.features));
+	// Judged on the placed (ideal) corners: rounding moves them a few percent, which the achieved margins show.
+	warnings.push(...poleWarnings(report(ideal).polesHz, ctx.fswHz));
+	warnings.push(...loopWarnings(builtLoop, c.target));
+	warnings.push(...partWarnings(builtParts));
+	if (opamp && fcForChecks !== null) warnings.push(...opampWarnings(builtParts, opamp, fcForChecks, builtReport.polesHz));
+	if (rounded && ideal.rb !== null && rounded.rb !== null) {
+		const shift = dividerVout(rounded, ctx.vref) / ctx.vout - 1;
+		if (Math.abs(shift) > 0.005) {
+			warnings.push({
+				code: 'divider-vout-shift',
+				message: `Rounding Rb to ${rounded.rb} Ω sets Vout to ${+(ctx.vout * (1 + shift)).toPrecision(4)} V (${+(shift * 100).toFixed(2)}%); choose R1 so Rb lands on a series value.`
+			});
+		}
+	}
+
+	return {
+		kind: c.kind,
+		ideal: report(ideal),
+		rounded: rounded ? report(rounded) : null,
+		built,
+		warnings,
+		achieved: { ideal: achieved(idealLoop), rounded: roundedLoop ? achieved(roundedLoop) : null },
+		placement: placement?.kFactor
+			? { method: 'k-factor', k: placement.kFactor.k, requiredBoostDeg: placement.kFactor.requiredBoostDeg, usedBoostDeg: placement.kFactor.usedBoostDeg }
+			: { method: givenParts ? 'parts' : c.target!.method }
+	};
+}
+
+function partsFromDoc(kind: CompensatorKind, p: NonNullable<CompensatorDoc['parts']>, r1: number, rb: number | null): NetworkParts {
+	// The schema guarantees the parts each kind needs.
+	switch (kind) {
+		case 'type1':
+			return { kind, r1, rb, c1: p.c1! };
+		case 'type2':
+			return { kind, r1, rb, r2: p.r2!, c1: p.c1!, c2: p.c2! };
+		case 'type3':
+			return { kind, r1, rb, r2: p.r2!, r3: p.r3!, c1: p.c1!, c2: p.c2!, c3: p.c3! };
+		case 'type2-ota': {
+			const out: NetworkParts = { kind, r1, rb, gm: p.gm!, r2: p.r2!, c1: p.c1!, c2: p.c2! };
+			if (p.ro !== undefined) out.ro = p.ro;
+			return out;
+		}
+	}
+}
+
+/** Parts and ideal-amplifier corners of a network, for the response. */
+function report(parts: NetworkParts): NetworkReport {
+	const tf = idealCompensatorTf(parts);
+	const corners = (list: FactoredTf['zeros']) => list.flatMap((r) => (r.kind === 'real' ? [rootFreqHz(r)] : [rootFreqHz(r), rootFreqHz(r)]));
+	const origin = (n: number) => new Array<number>(Math.max(0, n)).fill(0);
+	const record = partsRecord(parts);
+	return {
+		parts: record,
+		zerosHz: [...origin(tf.originPower), ...corners(tf.zeros)].sort((a, b) => a - b),
+		polesHz: [...origin(-tf.originPower), ...corners(tf.poles)].sort((a, b) => a - b)
+	};
+}
+
+function achieved(loop: LoopCheck): AchievedLoop {
+	return { crossoverHz: loop.crossoverHz, phaseMarginDeg: loop.phaseMarginDeg, crossovers: loop.crossovers };
+}
+
+/** Range for the loop check: three decades below the lowest feature to a decade above fsw. */
+function analysisRange(ctx: CompensatorContext, cornersHz: number[]) {
+	const finite = cornersHz.filter((f) => f > 0);
+	const low = Math.min(ctx.features.f0Hz, ...finite, ctx.fswHz / 100);
+	const high = Math.max(ctx.fswHz, ...finite);
+	return { startHz: low / 1000, stopHz: high * 10 };
+}
+
+function notInSeries(parts: NetworkParts, series: SeriesChoice): DesignWarning[] {
+	const out: DesignWarning[] = [];
+	for (const [name, value] of Object.entries(partsRecord(parts))) {
+		if (name === 'r1' || name === 'rb') continue;
+		const family = partFamily(name);
+		const s = family === 'resistor' ? series.resistors : family === 'capacitor' ? series.capacitors : null;
+		if (s && !isInSeries(value, s)) {
+			out.push({ code: 'part-not-in-series', message: `${name.toUpperCase()} = ${value} is not an ${s} value.` });
+		}
+	}
+	return out;
+}
+
+function checkContext(ctx: CompensatorContext): void {
+	const bad = (field: string, rule: string) => new CompensatorDesignError(`${field} ${rule}`, field, 'invalid-design');
+	if (!(ctx.r1 > 0 && Number.isFinite(ctx.r1))) throw bad('feedback.r1', 'must be > 0');
+	if (!(ctx.vref > 0 && Number.isFinite(ctx.vref))) throw bad('feedback.vref', 'must be > 0');
+	if (!(ctx.vout >= ctx.vref)) throw bad('feedback.vref', 'must not exceed the output voltage');
+	if (!(ctx.fswHz > 0 && Number.isFinite(ctx.fswHz))) throw bad('plant.fsw', 'must be > 0');
+	if (!(ctx.features.f0Hz > 0)) throw bad('plant', 'has no LC resonance (f0 must be > 0)');
+}
+
+function fromZod(error: ZodError): CompensatorDesignError {
+	const fields: Record<string, string> = {};
+	for (const issue of error.issues) {
+		const path = ['compensator', ...issue.path.map(String)].join('.');
+		fields[path] ??= issue.message;
+	}
+	const [field, message] = Object.entries(fields)[0];
+	return new CompensatorDesignError(`${field} ${message}`, field, 'invalid-design', fields);
+}
