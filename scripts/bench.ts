@@ -1,0 +1,123 @@
+/**
+ * `npm run bench`: full loop metrics for 10 000 random buck and boost designs with the engine,
+ * then reference/bench_numpy.py (a dense 500-point numpy sweep with sign-change search, what an
+ * engineer would write instead) on the same designs, exchanged through a temporary JSON file.
+ * Prints ms per design for both, their ratio and the largest phase-margin difference.
+ * A benchmark, never a test: nothing here asserts a time.
+ */
+import { spawnSync } from 'node:child_process';
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
+import { performance } from 'node:perf_hooks';
+import { fileURLToPath } from 'node:url';
+import * as engine from '../src/lib/engine';
+
+const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
+const COUNT = Number(process.env.BENCH_COUNT ?? 10_000);
+const SEED = Number(process.env.BENCH_SEED ?? 20261201);
+const SWEEP_POINTS = 500;
+
+type Doc = Record<string, any>; // eslint-disable-line @typescript-eslint/no-explicit-any
+
+/** mulberry32: small, seeded, good enough to spread tolerances. */
+function rng(seed: number) {
+	let a = seed >>> 0;
+	return () => {
+		a = (a + 0x6d2b79f5) >>> 0;
+		let t = Math.imul(a ^ (a >>> 15), 1 | a);
+		t = (t + Math.imul(t ^ (t >>> 7), 61 | t)) ^ t;
+		return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+	};
+}
+
+/**
+ * Two families, each a nominal reference case with a fixed Type III compensator given by parts
+ * (reference/cases), spread uniformly by ± tolerance: L 20 %, C 20 %, ESR 50 %, DCR 30 %,
+ * load current 50 %, Vin 10 % [common practice: typical part and line/load tolerances].
+ */
+function makeDesigns(count: number, seed: number): Doc[] {
+	const nominal = ['buck-ceramic-1v2', 'boost-ceramic-5v-12v'].map(
+		(name) => JSON.parse(readFileSync(path.join(ROOT, 'reference', 'cases', `${name}.json`), 'utf8')) as Doc
+	);
+	const next = rng(seed);
+	const spread = (x: number, tol: number) => x * (1 + tol * (2 * next() - 1));
+	const designs: Doc[] = [];
+	for (let i = 0; i < count; i++) {
+		const base = nominal[i % 2];
+		const d: Doc = structuredClone(base);
+		const p = d.plant;
+		p.inductor.l = spread(p.inductor.l, 0.2);
+		p.inductor.dcr = spread(p.inductor.dcr, 0.3);
+		p.capacitors[0].c = spread(p.capacitors[0].c, 0.2);
+		p.capacitors[0].esr = spread(p.capacitors[0].esr, 0.5);
+		p.iout = spread(p.iout, 0.5);
+		p.vin = spread(p.vin, 0.1);
+		d.sweep = { startHz: 10, stopHz: p.fsw / 2, points: SWEEP_POINTS };
+		designs.push(d);
+	}
+	return designs;
+}
+
+interface Metrics {
+	crossoverHz: number | null;
+	phaseMarginDeg: number | null;
+	gainMarginDb: number | null;
+}
+
+// eslint-disable-next-line @typescript-eslint/no-explicit-any
+const analyzeDesign = (engine as any).analyzeDesign as ((doc: Doc) => { metrics: Metrics }) | undefined;
+
+function runEngine(designs: Doc[]): { msPerDesign: number; metrics: Metrics[] } {
+	if (!analyzeDesign) throw new Error('analyzeDesign is not exported from src/lib/engine yet');
+	const metrics: Metrics[] = new Array(designs.length);
+	const t0 = performance.now();
+	for (let i = 0; i < designs.length; i++) metrics[i] = analyzeDesign(designs[i]).metrics;
+	const elapsed = performance.now() - t0;
+	return { msPerDesign: elapsed / designs.length, metrics };
+}
+
+function runNumpy(designs: Doc[]): { msPerDesign: number; wallMs: number; numpy: string; metrics: Metrics[] } {
+	const dir = mkdtempSync(path.join(tmpdir(), 'loopwright-bench-'));
+	try {
+		const inFile = path.join(dir, 'designs.json');
+		const outFile = path.join(dir, 'results.json');
+		writeFileSync(inFile, JSON.stringify({ designs }));
+		const t0 = performance.now();
+		const run = spawnSync('python3', [path.join(ROOT, 'reference', 'bench_numpy.py'), inFile, outFile], { encoding: 'utf8' });
+		const wallMs = performance.now() - t0;
+		if (run.status !== 0) throw new Error(`reference/bench_numpy.py failed (status ${run.status}): ${run.stderr}`);
+		const out = JSON.parse(readFileSync(outFile, 'utf8'));
+		return { msPerDesign: out.msPerDesign, wallMs, numpy: out.numpy, metrics: out.results };
+	} finally {
+		rmSync(dir, { recursive: true, force: true });
+	}
+}
+
+function main() {
+	const designs = makeDesigns(COUNT, SEED);
+	console.log(`Loopwright bench: ${COUNT} designs (buck and boost, seed ${SEED}), sweep 10 Hz to fsw/2`);
+	const ts = runEngine(designs);
+	console.log(`engine (TypeScript, full metrics):     ${ts.msPerDesign.toFixed(4)} ms per design`);
+	const py = runNumpy(designs);
+	console.log(`numpy ${py.numpy} (${SWEEP_POINTS}-point sweep):      ${py.msPerDesign.toFixed(4)} ms per design` +
+		` (${(py.wallMs / 1000).toFixed(1)} s wall time with start-up and file exchange)`);
+	console.log(`ratio numpy / engine:                  ${(py.msPerDesign / ts.msPerDesign).toFixed(2)}x`);
+
+	let worst = { diff: -1, index: -1, engine: NaN, numpy: NaN };
+	let disagree = 0;
+	for (let i = 0; i < designs.length; i++) {
+		const a = ts.metrics[i].phaseMarginDeg;
+		const b = py.metrics[i].phaseMarginDeg;
+		if (a === null || b === null) {
+			if (a !== b) disagree++;
+			continue;
+		}
+		const diff = Math.abs(a - b);
+		if (diff > worst.diff) worst = { diff, index: i, engine: a, numpy: b };
+	}
+	console.log(`largest PM difference:                 ${worst.diff.toFixed(4)}° (design ${worst.index}, ${designs[worst.index]?.plant.topology}: engine ${worst.engine.toFixed(4)}°, numpy ${worst.numpy.toFixed(4)}°)`);
+	if (disagree) console.log(`designs where only one side found a crossover: ${disagree}`);
+}
+
+main();
