@@ -1,0 +1,216 @@
+/**
+ * The whole analysis pipeline: design document → validated input → averaged power stage
+ * (plants/) → modulator → compensator (compensators/) → loop T = Gc·Fm·Gvd·e^(−sTd) →
+ * Bode data on the requested sweep and loop metrics (analysis/) → contract response.
+ * Errors come back as the contract's error object, never thrown. Every number is finite.
+ */
+import { loopMetrics, type LoopMetrics } from './analysis/margins';
+import { resolveCompensator, CompensatorDesignError, type ResolvedCompensator } from './compensators';
+import { contractError, zodFields, type ContractError } from './contract/errors';
+import { DEFAULT_SWEEP_POINTS, designDocumentSchema, type DesignDocument } from './contract/designSchema';
+import type { AnalysisResponse } from './contract/responseSchema';
+import { DesignInputError, type EngineWarning } from './errors';
+import { modulatorTf, rampAmplitude } from './plants/modulator';
+import { powerStage } from './plants/powerStage';
+import type { PlantModel } from './plants/types';
+import { defaultSweepRange, logGrid } from './sweep/grid';
+import { multiply } from './tf/algebra';
+import { frequencyResponse } from './tf/evaluate';
+import type { FactoredTf } from './tf/types';
+
+export interface AnalyzeOptions {
+	/** Compute the Bode arrays [true]; false leaves them empty (faster, for batch runs). */
+	includeResponse?: boolean;
+}
+
+/** Everything the pipeline built, for callers that need the transfer functions too. */
+export interface AnalysisDetail {
+	response: AnalysisResponse;
+	document: DesignDocument;
+	plant: PlantModel;
+	/** Fm·Gvd·e^(−sTd): the loop without the compensator. */
+	plantLoop: FactoredTf;
+	compensator: ResolvedCompensator;
+	/** T = Gc·Fm·Gvd·e^(−sTd). */
+	loop: FactoredTf;
+	metrics: LoopMetrics;
+}
+
+/** Analyse a design document (any JSON value): the contract response or the contract error. */
+export function analyzeDesign(doc: unknown, options: AnalyzeOptions = {}): AnalysisResponse | ContractError {
+	const r = analyzeDesignDetailed(doc, options);
+	return 'error' in r ? r : r.response;
+}
+
+export function analyzeDesignDetailed(doc: unknown, options: AnalyzeOptions = {}): AnalysisDetail | ContractError {
+	const parsed = designDocumentSchema.safeParse(doc);
+	if (!parsed.success) return contractError(zodFields(parsed.error));
+	try {
+		return run(parsed.data, options);
+	} catch (e) {
+		if (e instanceof DesignInputError) return contractError(e.fields);
+		if (e instanceof CompensatorDesignError) return contractError(e.fields, e.code, e.message);
+		throw e;
+	}
+}
+
+function run(d: DesignDocument, options: AnalyzeOptions): AnalysisDetail {
+	const p = d.plant;
+	const plant = powerStage({
+		topology: p.topology,
+		vin: p.vin,
+		vout: p.vout,
+		iout: p.iout,
+		fswHz: p.fsw,
+		l: p.inductor.l,
+		dcr: p.inductor.dcr,
+		rdsOn: p.rdsOn,
+		capacitors: p.capacitors
+	});
+	const mod = { vramp: d.modulator.vramp, feedForward: d.modulator.feedForward, delayS: d.modulator.delay };
+	const plantLoop = multiply(modulatorTf(mod, p.vin), plant.gvd);
+	const compensator = resolveCompensator(d.compensator, {
+		plant: plantLoop,
+		fswHz: p.fsw,
+		features: plant.features,
+		vout: p.vout,
+		vref: d.feedback.vref,
+		r1: d.feedback.r1
+	});
+	const loop = multiply(compensator.built, plantLoop);
+
+	// Plot grid: the document's sweep, or two decades below f0 to fsw/2 (400 points).
+	let freqHz: Float64Array;
+	const s = d.sweep;
+	if (s && 'freqHz' in s) freqHz = Float64Array.from(s.freqHz);
+	else if (s) freqHz = logGrid(s.startHz, s.stopHz, s.points);
+	else {
+		const r = defaultSweepRange(plant.features.f0Hz, p.fsw);
+		freqHz = logGrid(r.startHz, r.stopHz, DEFAULT_SWEEP_POINTS);
+	}
+
+	// Metrics range: the sweep widened to [f0/100, 10·fsw], so margins above fsw/2 are found
+	// (and flagged) rather than silently missed.
+	let lo = Infinity;
+	let hi = 0;
+	for (const f of freqHz) {
+		lo = Math.min(lo, f);
+		hi = Math.max(hi, f);
+	}
+	const range = { startHz: Math.min(lo, plant.features.f0Hz / 100), stopHz: Math.max(hi, 10 * p.fsw) };
+	const metrics = loopMetrics(loop, range);
+
+	const include = options.includeResponse ?? true;
+	const bode = (tf: FactoredTf) => {
+		if (!include) return { magDb: [], phaseDeg: [] };
+		const r = frequencyResponse(tf, freqHz);
+		return { magDb: Array.from(r.magDb, clampDb), phaseDeg: Array.from(r.phaseDeg, finiteOr0) };
+	};
+
+	const op = plant.operatingPoint;
+	const response: AnalysisResponse = {
+		schemaVersion: 1,
+		operatingPoint: {
+			duty: op.duty,
+			efficiency: op.efficiency,
+			rippleCurrent: op.rippleCurrent,
+			mode: op.mode,
+			inductorCurrent: op.inductorCurrent,
+			loadResistance: op.rLoad,
+			seriesResistance: op.rSeries,
+			outputRipple: op.outputRipple.total,
+			outputRippleCapacitive: op.outputRipple.capacitive,
+			outputRippleEsr: op.outputRipple.esr,
+			criticalInductance: op.criticalInductance,
+			criticalLoadResistance: op.criticalLoadResistance,
+			criticalLoadCurrent: op.criticalLoadCurrent,
+			rampAmplitude: rampAmplitude(mod, p.vin)
+		},
+		features: {
+			f0Hz: plant.features.f0Hz,
+			q: finiteOr0(plant.features.q),
+			esrZeroHz: plant.features.esrZeroHz,
+			rhpZeroHz: plant.features.rhpZeroHz,
+			selfResonanceHz: plant.features.selfResonanceHz
+		},
+		compensator: {
+			kind: compensator.kind,
+			ideal: compensator.ideal,
+			rounded: compensator.rounded,
+			placement: stripUndefined(compensator.placement)
+		},
+		response: {
+			freqHz: include ? Array.from(freqHz) : [],
+			plant: bode(plant.gvd),
+			compensator: bode(compensator.built),
+			loop: bode(loop)
+		},
+		metrics: {
+			crossoverHz: metrics.crossoverHz,
+			phaseMarginDeg: metrics.phaseMarginDeg,
+			gainMarginDb: metrics.gainMarginDb,
+			phaseCrossoverHz: metrics.phaseCrossoverHz,
+			delayMarginS: metrics.delayMarginS,
+			gainReductionMarginDb: metrics.gainReductionMarginDb,
+			modulusMargin: metrics.modulusMargin,
+			modulusMarginHz: metrics.modulusMarginHz,
+			crossovers: metrics.crossovers.map((x) => ({ freqHz: x.freqHz, phaseMarginDeg: x.phaseMarginDeg, direction: x.direction })),
+			phaseCrossovers: metrics.phaseCrossovers.map((x) => ({ freqHz: x.freqHz, gainMarginDb: clampDb(x.gainMarginDb), direction: x.direction })),
+			closedLoopStable: metrics.closedLoopStable,
+			closedLoopPolesHz: (metrics.closedLoop?.poles ?? [])
+				.filter((z) => Number.isFinite(z.re) && Number.isFinite(z.im))
+				.map((z) => ({ re: z.re / (2 * Math.PI), im: z.im / (2 * Math.PI) })),
+			padeOrder: metrics.closedLoop?.padeOrder ?? 0,
+			analysedRangeHz: range,
+			unavailable: { ...metrics.unavailable } as Record<string, string>
+		},
+		warnings: mergeWarnings(plant.warnings, compensator.warnings, loopWarnings(metrics, p.fsw))
+	};
+	return { response, document: d, plant, plantLoop, compensator, loop, metrics };
+}
+
+/** Warnings from the loop metrics that the compensator module does not already give. */
+function loopWarnings(m: LoopMetrics, fswHz: number): EngineWarning[] {
+	const out: EngineWarning[] = [];
+	const half = fswHz / 2;
+	if (m.closedLoopStable === false) {
+		out.push({ code: 'closed-loop-unstable', message: 'The closed loop has a pole in the right half plane (roots of 1 + T): it is unstable.' });
+	}
+	if (m.crossoverHz !== null && m.crossoverHz > half) {
+		out.push({ code: 'crossover-above-fsw-half', message: `A crossover sits at ${sig(m.crossoverHz)} Hz, above fsw/2 where the averaged model is not trusted.` });
+	}
+	if (m.phaseCrossoverHz !== null && m.phaseCrossoverHz > half) {
+		out.push({ code: 'gain-margin-above-fsw-half', message: `The gain margin is taken at ${sig(m.phaseCrossoverHz)} Hz, above fsw/2 where the averaged model is not trusted; treat it as indicative.` });
+	}
+	if (m.gainMarginDb !== null && m.gainMarginDb < 6) {
+		out.push({ code: 'gain-margin-low', message: `Gain margin ${m.gainMarginDb.toFixed(1)} dB is below the usual 6 dB minimum.` });
+	}
+	if (m.modulusMargin !== null && m.modulusMargin < 0.4 && m.closedLoopStable !== false) {
+		out.push({ code: 'modulus-margin-low', message: `min |1 + T| = ${m.modulusMargin.toFixed(2)}: the Nyquist curve passes close to −1 (peak sensitivity ${(1 / m.modulusMargin).toFixed(1)}).` });
+	}
+	return out;
+}
+
+function mergeWarnings(...lists: EngineWarning[][]): EngineWarning[] {
+	const seen = new Set<string>();
+	const out: EngineWarning[] = [];
+	for (const list of lists) {
+		for (const w of list) {
+			const key = `${w.code}|${w.message}`;
+			if (seen.has(key)) continue;
+			seen.add(key);
+			out.push({ code: w.code, message: w.message });
+		}
+	}
+	return out;
+}
+
+const clampDb = (x: number) => (Number.isNaN(x) ? -1000 : Math.max(-1000, Math.min(1000, x)));
+const finiteOr0 = (x: number) => (Number.isFinite(x) ? x : 0);
+const sig = (x: number) => Number(x.toPrecision(3)).toString();
+
+function stripUndefined(o: object): Record<string, string | number> {
+	const out: Record<string, string | number> = {};
+	for (const [k, v] of Object.entries(o)) if (typeof v === 'string' || (typeof v === 'number' && Number.isFinite(v))) out[k] = v;
+	return out;
+}

@@ -1,0 +1,108 @@
+/**
+ * zod schema of the design document, contract v1 (spec: design-document.md). SI units; every
+ * message names the rule, zod adds the field path. Rules: L, C, fsw, vin, vout, iout, vramp > 0;
+ * buck vout < vin, boost vout > vin; vref ≤ vout; sweep startHz < stopHz, 2 ≤ points ≤ 20 000.
+ * The operating-point rules (duty < 0.95, boost below its maximum gain) need the model and are
+ * checked in analyze.ts; they come back in the same error shape.
+ */
+import { z } from 'zod';
+import { compensatorSchema } from '../compensators/schema';
+
+export const SCHEMA_VERSION = 1;
+export const MAX_SWEEP_POINTS = 20000;
+export const DEFAULT_SWEEP_POINTS = 400;
+
+const num = (unit: string) => z.number({ error: `must be a number (${unit})` });
+const positive = (unit: string) => num(unit).positive({ error: 'must be > 0' });
+const nonNegative = (unit: string) => num(unit).nonnegative({ error: 'must be ≥ 0' });
+
+export const capacitorBranchSchema = z.object({
+	c: positive('F'),
+	esr: nonNegative('Ω').default(0),
+	esl: nonNegative('H').default(0),
+	count: num('parts').int({ error: 'must be a whole number' }).min(1, { error: 'must be ≥ 1' }).max(1000, { error: 'must be ≤ 1000' }).default(1)
+});
+
+export const plantSchema = z
+	.object({
+		topology: z.enum(['buck', 'boost'], { error: 'must be "buck" or "boost"' }),
+		vin: positive('V'),
+		vout: positive('V'),
+		iout: positive('A'),
+		fsw: positive('Hz'),
+		inductor: z.object({ l: positive('H'), dcr: nonNegative('Ω').default(0) }, { error: 'must be an object { l, dcr }' }),
+		capacitors: z
+			.array(capacitorBranchSchema, { error: 'must be a list of capacitor branches' })
+			.min(1, { error: 'needs at least one capacitor branch' })
+			.max(8, { error: 'at most 8 capacitor branches' }),
+		rdsOn: nonNegative('Ω').default(0)
+	})
+	.superRefine((p, ctx) => {
+		if (p.topology === 'buck' && !(p.vout < p.vin)) {
+			ctx.addIssue({ code: 'custom', path: ['vout'], message: 'must be < vin for a buck' });
+		}
+		if (p.topology === 'boost' && !(p.vout > p.vin)) {
+			ctx.addIssue({ code: 'custom', path: ['vout'], message: 'must be > vin for a boost' });
+		}
+	});
+
+export const modulatorSchema = z.object({
+	vramp: positive('V'),
+	feedForward: z.boolean({ error: 'must be true or false' }).default(false),
+	delay: nonNegative('s').max(1, { error: 'must be ≤ 1 s' }).default(0)
+});
+
+export const feedbackSchema = z.object({
+	vref: positive('V'),
+	r1: positive('Ω')
+});
+
+const rangeSweepSchema = z
+	.object({
+		startHz: positive('Hz'),
+		stopHz: positive('Hz'),
+		points: num('points')
+			.int({ error: 'must be a whole number' })
+			.min(2, { error: 'must be ≥ 2' })
+			.max(MAX_SWEEP_POINTS, { error: `must be ≤ ${MAX_SWEEP_POINTS}` })
+			.default(DEFAULT_SWEEP_POINTS)
+	})
+	.strict()
+	.superRefine((s, ctx) => {
+		if (!(s.startHz < s.stopHz)) ctx.addIssue({ code: 'custom', path: ['startHz'], message: 'must be < stopHz' });
+	});
+
+const listSweepSchema = z
+	.object({
+		freqHz: z
+			.array(positive('Hz'), { error: 'must be a list of frequencies (Hz)' })
+			.min(1, { error: 'needs at least one frequency' })
+			.max(MAX_SWEEP_POINTS, { error: `at most ${MAX_SWEEP_POINTS} frequencies` })
+	})
+	.strict();
+
+export const sweepSchema = z.union([rangeSweepSchema, listSweepSchema], {
+	error: 'must be { startHz, stopHz, points } or { freqHz: [...] }'
+});
+
+export const designDocumentSchema = z
+	.object({
+		schemaVersion: z.literal(SCHEMA_VERSION, { error: `must be ${SCHEMA_VERSION}` }),
+		name: z.string().max(200).optional(),
+		plant: plantSchema,
+		modulator: modulatorSchema,
+		feedback: feedbackSchema,
+		compensator: compensatorSchema,
+		sweep: sweepSchema.optional()
+	})
+	.superRefine((d, ctx) => {
+		if (!(d.feedback.vref <= d.plant.vout)) {
+			ctx.addIssue({ code: 'custom', path: ['feedback', 'vref'], message: 'must be ≤ plant.vout' });
+		}
+	});
+
+/** A design document as written (defaults optional). */
+export type DesignDocumentInput = z.input<typeof designDocumentSchema>;
+/** A validated design document with defaults filled in. */
+export type DesignDocument = z.output<typeof designDocumentSchema>;
+export type SweepSpec = z.output<typeof sweepSchema>;

@@ -1,0 +1,49 @@
+/**
+ * The contract's error shape: `{ error: { code, message, fields: { 'plant.inductor.l': 'must be > 0' } } }`
+ * (HTTP 400, CLI exit 2). Field keys are dotted document paths; array indices are numbers
+ * ('plant.capacitors.0.c').
+ */
+import type { ZodError } from 'zod';
+
+export interface ContractError {
+	error: {
+		/** 'invalid-design' for a document that breaks a rule; 'compensator-infeasible' when the
+		 * requested compensator cannot be built for this plant. */
+		code: 'invalid-design' | 'compensator-infeasible';
+		message: string;
+		fields: Record<string, string>;
+	};
+}
+
+export function contractError(fields: Record<string, string>, code: ContractError['error']['code'] = 'invalid-design', message?: string): ContractError {
+	const entries = Object.entries(fields);
+	const summary =
+		message ??
+		(entries.length === 0
+			? 'The design document is invalid.'
+			: `The design document is invalid: ${entries.map(([k, v]) => `${k} ${v}`).join('; ')}.`);
+	return { error: { code, message: summary, fields } };
+}
+
+/** Dotted field path → first message, from a zod error. */
+export function zodFields(error: ZodError, prefix: string[] = []): Record<string, string> {
+	const fields: Record<string, string> = {};
+	for (const issue of error.issues) {
+		// A union failure reports the branch issues; surface the most specific one.
+		const nested = (issue as { errors?: { path: PropertyKey[]; message: string }[][] }).errors;
+		if (issue.code === 'invalid_union' && nested && nested.length) {
+			const best = nested.reduce((a, b) => (b.length < a.length ? b : a));
+			for (const sub of best) {
+				const key = [...prefix, ...issue.path.map(String), ...sub.path.map(String)].join('.');
+				fields[key] ??= sub.message;
+			}
+			if (best.length) continue;
+		}
+		const key = [...prefix, ...issue.path.map(String)].join('.') || '(document)';
+		fields[key] ??= issue.message;
+	}
+	return fields;
+}
+
+export const isContractError = (x: unknown): x is ContractError =>
+	typeof x === 'object' && x !== null && 'error' in x && typeof (x as ContractError).error?.code === 'string';

@@ -1,0 +1,4 @@
+/** The JSON contract (v1): design-document and analysis-response schemas, the error shape. */
+export * from './designSchema';
+export * from './responseSchema';
+export * from './errors';

@@ -1,0 +1,80 @@
+/**
+ * zod schema of the analysis response, contract v1 (spec: design-document.md), extended with
+ * the extra fields the engine reports. Every number is finite (z.number() rejects NaN and
+ * ±Infinity); a margin that does not exist is null and its reason is in metrics.unavailable.
+ */
+import { z } from 'zod';
+
+const finite = z.number();
+const nullableFinite = z.number().nullable();
+const bode = z.object({ magDb: z.array(finite), phaseDeg: z.array(finite) });
+const networkReport = z.object({
+	parts: z.record(z.string(), finite),
+	zerosHz: z.array(finite),
+	polesHz: z.array(finite)
+});
+const warning = z.object({ code: z.string(), message: z.string() });
+
+export const analysisResponseSchema = z.object({
+	schemaVersion: z.literal(1),
+	operatingPoint: z.object({
+		duty: finite,
+		efficiency: finite,
+		rippleCurrent: finite,
+		mode: z.enum(['ccm', 'dcm']),
+		inductorCurrent: finite,
+		loadResistance: finite,
+		seriesResistance: finite,
+		outputRipple: finite,
+		outputRippleCapacitive: finite,
+		outputRippleEsr: finite,
+		criticalInductance: finite,
+		criticalLoadResistance: finite,
+		criticalLoadCurrent: finite,
+		rampAmplitude: finite
+	}),
+	features: z.object({
+		f0Hz: finite,
+		q: finite,
+		esrZeroHz: z.array(finite),
+		rhpZeroHz: nullableFinite,
+		selfResonanceHz: z.array(finite)
+	}),
+	compensator: z.object({
+		kind: z.string(),
+		ideal: networkReport,
+		rounded: networkReport.nullable(),
+		placement: z.record(z.string(), z.union([z.string(), finite])).optional()
+	}),
+	response: z.object({
+		freqHz: z.array(finite),
+		plant: bode,
+		compensator: bode,
+		loop: bode
+	}),
+	metrics: z.object({
+		crossoverHz: nullableFinite,
+		phaseMarginDeg: nullableFinite,
+		gainMarginDb: nullableFinite,
+		phaseCrossoverHz: nullableFinite,
+		delayMarginS: nullableFinite,
+		gainReductionMarginDb: nullableFinite,
+		modulusMargin: nullableFinite,
+		modulusMarginHz: nullableFinite,
+		crossovers: z.array(
+			z.object({ freqHz: finite, phaseMarginDeg: finite, direction: z.enum(['falling', 'rising']) })
+		),
+		phaseCrossovers: z.array(
+			z.object({ freqHz: finite, gainMarginDb: finite, direction: z.enum(['falling', 'rising']) })
+		),
+		closedLoopStable: z.boolean().nullable(),
+		/** Closed-loop poles s/2π (Hz), from roots of 1 + T (delay as Padé(n,n)). */
+		closedLoopPolesHz: z.array(z.object({ re: finite, im: finite })),
+		padeOrder: finite,
+		analysedRangeHz: z.object({ startHz: finite, stopHz: finite }),
+		unavailable: z.record(z.string(), z.string())
+	}),
+	warnings: z.array(warning)
+});
+
+export type AnalysisResponse = z.infer<typeof analysisResponseSchema>;
