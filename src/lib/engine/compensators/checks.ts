@@ -73,18 +73,22 @@ export function loopWarnings(loop: LoopCheck, target: { crossoverHz?: number; ph
 			message: `The loop gain crosses 0 dB ${loop.crossovers.length} times (${loop.crossovers.map((c) => fmtHz(c.freqHz)).join(', ')}); check every crossing.`
 		});
 	}
-	if (loop.phaseMarginDeg <= 0) {
+	const unstable = loop.closedLoopStable === false || (loop.closedLoopStable === null && loop.phaseMarginDeg <= 0);
+	if (unstable) {
 		out.push({
 			code: 'unstable',
-			message: `Phase margin is ${deg(loop.phaseMarginDeg)} at ${fmtHz(loop.crossoverHz)}; the loop would oscillate.`
+			message:
+				`The closed loop is unstable (phase margin ${deg(loop.phaseMarginDeg)} at ${fmtHz(loop.crossoverHz)}); it would oscillate. ` +
+				`Lower the crossover or add phase boost.`
 		});
-	} else if (loop.conditionalDipDeg !== null) {
+	} else if (loop.conditionalAtHz !== null) {
 		out.push({
 			code: 'conditionally-stable',
 			message:
-				`The loop phase falls to ${deg(loop.conditionalDipDeg)} at ${fmtHz(loop.conditionalDipHz!)} while the gain is still above 1: ` +
-				`conditionally stable, so a drop in loop gain (light load, low input, saturation) can make it oscillate. ` +
-				`Move the compensator zeros closer to the resonance or raise the crossover.`
+				`The loop phase crosses −180° at ${fmtHz(loop.conditionalAtHz)} while the gain is still above 1 ` +
+				`(${+(-loop.gainReductionMarginDb!).toFixed(1)} dB): conditionally stable, so a drop in loop gain of that much ` +
+				`(light load, low input, a saturated amplifier) can make it oscillate. Move the compensator zeros down toward ` +
+				`the LC resonance, or lower the Q of the output filter.`
 		});
 	}
 	if (target?.phaseMarginDeg !== undefined && loop.phaseMarginDeg < target.phaseMarginDeg - 1) {
