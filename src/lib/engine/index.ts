@@ -14,8 +14,22 @@
  *   Convert: `toPolynomials(tf, {padeOrder})`, `fromPolynomials(num, den)`, `fromZpk`, `toZpk`,
  *   `padeDelay(Td, n)`. Polynomials are ASCENDING arrays (p[i] multiplies s^i) everywhere.
  * - Math (math/): `polyRoots(p) → {roots, backwardError, method}` (Aberth + companion fallback).
- * - Sweep (sweep/): `logGrid(startHz, stopHz, points)`, `logGridPerDecade`, `mergeGrids`.
+ * - Sweep (sweep/): `logGrid(startHz, stopHz, points)`, `logGridPerDecade`, `mergeGrids`, `defaultSweepRange`.
+ * - Plants (plants/): `powerStage(input: PowerStageInput) → PlantModel` = { operatingPoint, features,
+ *   gvd, gvg, zo, zd, zn (FactoredTf), warnings }; throws `DesignInputError` (fields by document
+ *   path) for duty ≥ 0.95 or a boost beyond its maximum gain. `modulatorTf(mod, vin, vinNominal?)`.
+ * - Analysis (analysis/): `loopMetrics(loop, {startHz, stopHz}, options?) → LoopMetrics` (every
+ *   crossing, PM/GM/gain-reduction/delay/modulus margins, null + `unavailable[reason]`),
+ *   `closedLoopStability(loop, {padeOrder?, accurateToHz?})` (roots of den + num).
+ * - Contract (contract/): `designDocumentSchema`, `analysisResponseSchema`, `contractError`, `zodFields`.
+ * - Pipeline: `analyzeDesign(doc: unknown, {includeResponse?}) → AnalysisResponse | ContractError`,
+ *   `analyzeDesignDetailed` (also returns the plant model, loop and metrics).
  */
 export * from './math';
 export * from './tf';
 export * from './sweep';
+export * from './errors';
+export * from './plants';
+export * from './analysis';
+export * from './contract';
+export * from './analyze';
