@@ -18,7 +18,8 @@ const COUNT = Number(process.env.BENCH_COUNT ?? 10_000);
 const SEED = Number(process.env.BENCH_SEED ?? 20261201);
 const SWEEP_POINTS = 500;
 
-type Doc = Record<string, any>; // eslint-disable-line @typescript-eslint/no-explicit-any
+// Design documents are plain contract JSON here; the engine validates them.
+type Doc = Record<string, any>;
 
 /** mulberry32: small, seeded, good enough to spread tolerances. */
 function rng(seed: number) {

@@ -33,7 +33,6 @@ export interface ReferenceOutput {
 
 // The design documents are contract v1 JSON; typed loosely here so a contract extension does not
 // break the loader.
-// eslint-disable-next-line @typescript-eslint/no-explicit-any
 export type DesignDoc = Record<string, any>;
 
 export const caseNames = (): string[] =>
