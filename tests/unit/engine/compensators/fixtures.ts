@@ -63,3 +63,7 @@ export const exampleBuck = () =>
 /** A 9 V → 12 V, 2 A boost at 500 kHz: 2.2 µH/15 mΩ, 2 × 22 µF/5 mΩ, 1.5 V ramp, 1.25 V reference. */
 export const exampleBoost = () =>
 	boostPlant({ vin: 9, vout: 12, iout: 2, l: 2.2e-6, r: 0.015, c: 44e-6, rc: 0.0025, vramp: 1.5, fswHz: 500e3, vref: 1.25 });
+
+/** A buck on a bulk capacitor with real ESR (470 µF, 30 mΩ: ESR zero 11.3 kHz, below fc) — the Type II case of §6.4. */
+export const esrBuck = () =>
+	buckPlant({ vin: 12, vout: 3.3, iout: 3, l: 4.7e-6, r: 0.02, c: 470e-6, rc: 0.03, vramp: 1.8, fswHz: 500e3, vref: 0.8 });
