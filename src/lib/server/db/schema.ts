@@ -1,6 +1,24 @@
 // Application tables. Singular names and snake_case columns, matching better-auth's tables,
-// which are generated into auth-schema.ts and re-exported here.
-import { datetime, int, mysqlTable, varchar } from 'drizzle-orm/mysql-core';
+// which are generated into auth-schema.ts and re-exported here. A workspace is better-auth's
+// `organization`; every app row carries `workspace_id` so isolation is one equality check.
+import { relations } from 'drizzle-orm';
+import {
+	bigint,
+	datetime,
+	double,
+	index,
+	int,
+	json,
+	mysqlEnum,
+	mysqlTable,
+	text,
+	uniqueIndex,
+	varchar
+} from 'drizzle-orm/mysql-core';
+import { organization, user } from './auth-schema';
+import type { CornerMetrics, MarginTargets, RailTolerances } from '../services/types';
+
+export * from './auth-schema';
 
 /** Records that the demo seed ran, so `npm start` seeds once and never duplicates. */
 export const seedMark = mysqlTable('seed_mark', {
@@ -8,3 +26,181 @@ export const seedMark = mysqlTable('seed_mark', {
 	name: varchar('name', { length: 64 }).notNull().unique(),
 	appliedAt: datetime('applied_at', { fsp: 3 }).notNull()
 });
+
+const id = () => varchar('id', { length: 36 }).primaryKey();
+const workspaceId = () =>
+	varchar('workspace_id', { length: 36 })
+		.notNull()
+		.references(() => organization.id, { onDelete: 'cascade' });
+const createdAt = () => datetime('created_at', { fsp: 3 }).$defaultFn(() => new Date()).notNull();
+const updatedAt = () =>
+	datetime('updated_at', { fsp: 3 })
+		.$defaultFn(() => new Date())
+		.$onUpdate(() => new Date())
+		.notNull();
+
+/** Per-workspace settings: the margin targets every rail uses unless it overrides them. */
+export const workspaceSetting = mysqlTable('workspace_setting', {
+	workspaceId: varchar('workspace_id', { length: 36 })
+		.primaryKey()
+		.references(() => organization.id, { onDelete: 'cascade' }),
+	marginTargets: json('margin_targets').$type<MarginTargets>().notNull(),
+	updatedAt: updatedAt()
+});
+
+/** A project: one board or product. */
+export const project = mysqlTable(
+	'project',
+	{
+		id: id(),
+		workspaceId: workspaceId(),
+		name: varchar('name', { length: 120 }).notNull(),
+		description: text('description'),
+		createdBy: varchar('created_by', { length: 36 }).references(() => user.id, { onDelete: 'set null' }),
+		createdAt: createdAt(),
+		updatedAt: updatedAt()
+	},
+	(t) => [uniqueIndex('project_workspace_name_uq').on(t.workspaceId, t.name)]
+);
+
+/** A regulator output on a board, with its operating point, corners and targets. */
+export const rail = mysqlTable(
+	'rail',
+	{
+		id: id(),
+		workspaceId: workspaceId(),
+		projectId: varchar('project_id', { length: 36 })
+			.notNull()
+			.references(() => project.id, { onDelete: 'cascade' }),
+		name: varchar('name', { length: 64 }).notNull(),
+		topology: mysqlEnum('topology', ['buck', 'boost']).notNull(),
+		vout: double('vout').notNull(),
+		vinNom: double('vin_nom').notNull(),
+		vinMin: double('vin_min').notNull(),
+		vinMax: double('vin_max').notNull(),
+		ioutNom: double('iout_nom').notNull(),
+		ioutMin: double('iout_min').notNull(),
+		ioutMax: double('iout_max').notNull(),
+		fsw: double('fsw').notNull(),
+		tolerances: json('tolerances').$type<RailTolerances>().notNull(),
+		/** null: the workspace's targets apply. */
+		marginTargets: json('margin_targets').$type<MarginTargets | null>(),
+		notes: text('notes'),
+		createdBy: varchar('created_by', { length: 36 }).references(() => user.id, { onDelete: 'set null' }),
+		createdAt: createdAt(),
+		updatedAt: updatedAt()
+	},
+	(t) => [uniqueIndex('rail_project_name_uq').on(t.projectId, t.name), index('rail_workspace_idx').on(t.workspaceId)]
+);
+
+export const LOOP_STATUSES = ['draft', 'in-review', 'approved', 'changes-requested'] as const;
+export type LoopStatus = (typeof LOOP_STATUSES)[number];
+
+/**
+ * One saved revision of a rail's loop. Append-only: a new design is a new row with the next
+ * `revision` number; only the review status of a row changes afterwards.
+ */
+export const loopRevision = mysqlTable(
+	'loop_revision',
+	{
+		id: id(),
+		workspaceId: workspaceId(),
+		railId: varchar('rail_id', { length: 36 })
+			.notNull()
+			.references(() => rail.id, { onDelete: 'cascade' }),
+		revision: int('revision').notNull(),
+		schemaVersion: int('schema_version').notNull(),
+		design: json('design').$type<Record<string, unknown>>().notNull(),
+		metrics: json('metrics').$type<CornerMetrics[]>().notNull(),
+		message: varchar('message', { length: 500 }).notNull(),
+		status: mysqlEnum('status', LOOP_STATUSES).notNull().default('draft'),
+		authorId: varchar('author_id', { length: 36 }).references(() => user.id, { onDelete: 'set null' }),
+		createdAt: createdAt(),
+		statusChangedAt: datetime('status_changed_at', { fsp: 3 }),
+		statusChangedBy: varchar('status_changed_by', { length: 36 }).references(() => user.id, { onDelete: 'set null' })
+	},
+	(t) => [uniqueIndex('loop_rail_revision_uq').on(t.railId, t.revision), index('loop_workspace_idx').on(t.workspaceId)]
+);
+
+/** Review conversation on one loop revision (comments and sign-off notes). */
+export const loopComment = mysqlTable(
+	'loop_comment',
+	{
+		id: id(),
+		workspaceId: workspaceId(),
+		loopId: varchar('loop_id', { length: 36 })
+			.notNull()
+			.references(() => loopRevision.id, { onDelete: 'cascade' }),
+		authorId: varchar('author_id', { length: 36 }).references(() => user.id, { onDelete: 'set null' }),
+		body: text('body').notNull(),
+		createdAt: createdAt()
+	},
+	(t) => [index('loop_comment_loop_idx').on(t.loopId)]
+);
+
+/** A workspace-shared compensator strategy (kind, placement target, part series). */
+export const template = mysqlTable(
+	'template',
+	{
+		id: id(),
+		workspaceId: workspaceId(),
+		name: varchar('name', { length: 120 }).notNull(),
+		description: text('description'),
+		topology: mysqlEnum('topology', ['buck', 'boost']),
+		compensator: json('compensator').$type<Record<string, unknown>>().notNull(),
+		createdBy: varchar('created_by', { length: 36 }).references(() => user.id, { onDelete: 'set null' }),
+		createdAt: createdAt(),
+		updatedAt: updatedAt()
+	},
+	(t) => [uniqueIndex('template_workspace_name_uq').on(t.workspaceId, t.name)]
+);
+
+/**
+ * Every write, who did it and what changed. No foreign keys on purpose: the trail outlives
+ * the rows (and users) it describes. `before`/`after` hold small summaries, not whole documents.
+ */
+export const auditLog = mysqlTable(
+	'audit_log',
+	{
+		id: bigint('id', { mode: 'number', unsigned: true }).autoincrement().primaryKey(),
+		workspaceId: varchar('workspace_id', { length: 36 }).notNull(),
+		actorId: varchar('actor_id', { length: 36 }),
+		actorEmail: varchar('actor_email', { length: 255 }),
+		action: varchar('action', { length: 64 }).notNull(),
+		entityType: varchar('entity_type', { length: 32 }).notNull(),
+		entityId: varchar('entity_id', { length: 36 }).notNull(),
+		before: json('before').$type<Record<string, unknown> | null>(),
+		after: json('after').$type<Record<string, unknown> | null>(),
+		createdAt: createdAt()
+	},
+	(t) => [index('audit_workspace_time_idx').on(t.workspaceId, t.createdAt)]
+);
+
+/** Personal API tokens for scripts and CI. Only a SHA-256 of the secret is stored. */
+export const apiToken = mysqlTable(
+	'api_token',
+	{
+		id: id(),
+		userId: varchar('user_id', { length: 36 })
+			.notNull()
+			.references(() => user.id, { onDelete: 'cascade' }),
+		name: varchar('name', { length: 100 }).notNull(),
+		prefix: varchar('prefix', { length: 16 }).notNull(),
+		tokenHash: varchar('token_hash', { length: 64 }).notNull().unique(),
+		createdAt: createdAt(),
+		lastUsedAt: datetime('last_used_at', { fsp: 3 }),
+		expiresAt: datetime('expires_at', { fsp: 3 }),
+		revokedAt: datetime('revoked_at', { fsp: 3 })
+	},
+	(t) => [index('api_token_user_idx').on(t.userId)]
+);
+
+export const projectRelations = relations(project, ({ many }) => ({ rails: many(rail) }));
+export const railRelations = relations(rail, ({ one, many }) => ({
+	project: one(project, { fields: [rail.projectId], references: [project.id] }),
+	loops: many(loopRevision)
+}));
+export const loopRevisionRelations = relations(loopRevision, ({ one }) => ({
+	rail: one(rail, { fields: [loopRevision.railId], references: [rail.id] }),
+	author: one(user, { fields: [loopRevision.authorId], references: [user.id] })
+}));

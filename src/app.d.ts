@@ -1,0 +1,23 @@
+// See https://svelte.dev/docs/kit/types#app.d.ts
+import type { auth } from '$lib/server/auth';
+
+type AuthSession = typeof auth.$Infer.Session;
+
+declare global {
+	namespace App {
+		interface Locals {
+			/** Always set: null when signed out. */
+			user: AuthSession['user'] | null;
+			/** Always set: null when signed out or when the request authenticated with an API token. */
+			session: AuthSession['session'] | null;
+			/** How the caller proved who they are. */
+			authenticatedBy: 'session' | 'token' | null;
+		}
+		interface Error {
+			message: string;
+			code?: string;
+		}
+	}
+}
+
+export {};

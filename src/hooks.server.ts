@@ -1,0 +1,61 @@
+// Request pipeline: identify the caller (better-auth session cookie, or an API token on
+// /api/v1), then guard the request (body size, signed-in areas, development-only pages).
+// Every endpoint still checks the caller's role itself through $lib/server/authz/guard.
+import { building } from '$app/environment';
+import { redirect, type Handle } from '@sveltejs/kit';
+import { sequence } from '@sveltejs/kit/hooks';
+import { svelteKitHandler } from 'better-auth/svelte-kit';
+import { auth } from '$lib/server/auth';
+import { db } from '$lib/server/db';
+import { isProduction } from '$lib/server/env';
+import { errorResponse, ApiError } from '$lib/server/http/errors';
+import { MAX_BODY_BYTES } from '$lib/server/http/request';
+import * as tokens from '$lib/server/services/tokens';
+
+const identify: Handle = async ({ event, resolve }) => {
+	event.locals.user = null;
+	event.locals.session = null;
+	event.locals.authenticatedBy = null;
+	const bearer = /^Bearer\s+(\S+)$/i.exec(event.request.headers.get('authorization') ?? '')?.[1];
+	if (bearer && event.url.pathname.startsWith('/api/v1/')) {
+		const user = await tokens.authenticate(db, bearer);
+		if (user) {
+			event.locals.user = user;
+			event.locals.authenticatedBy = 'token';
+		}
+	} else if (!building) {
+		const found = await auth.api.getSession({ headers: event.request.headers });
+		if (found) {
+			event.locals.user = found.user;
+			event.locals.session = found.session;
+			event.locals.authenticatedBy = 'session';
+		}
+	}
+	return svelteKitHandler({ event, resolve, auth, building });
+};
+
+const guard: Handle = async ({ event, resolve }) => {
+	const path = event.url.pathname;
+	if (path.startsWith('/api/v1/') && Number(event.request.headers.get('content-length') ?? 0) > MAX_BODY_BYTES) {
+		const response = errorResponse(new ApiError(413, 'payload-too-large', `the body exceeds ${MAX_BODY_BYTES} bytes`));
+		// The unread body is still on the socket: close it rather than let the client reuse it.
+		response.headers.set('connection', 'close');
+		return response;
+	}
+	if ((path === '/app' || path.startsWith('/app/')) && !event.locals.user) {
+		redirect(303, `/sign-in?redirectTo=${encodeURIComponent(path + event.url.search)}`);
+	}
+	if ((path === '/dev' || path.startsWith('/dev/')) && isProduction()) {
+		return new Response('Not found', { status: 404 });
+	}
+	const response = await resolve(event);
+	try {
+		response.headers.set('x-content-type-options', 'nosniff');
+		response.headers.set('referrer-policy', 'same-origin');
+	} catch {
+		// Responses passed through from fetch() have immutable headers; they keep their own.
+	}
+	return response;
+};
+
+export const handle = sequence(identify, guard);

@@ -1,0 +1,141 @@
+// zod schemas for the team workspace entities, shared by API routes, form actions and the
+// browser. Numbers are SI (V, A, Hz); margins in deg and dB as named. Each entity has one
+// base object; create/update variants derive from it.
+import { z } from 'zod';
+
+export const ROLE_NAMES = ['owner', 'engineer', 'reviewer', 'viewer'] as const;
+export const roleSchema = z.enum(ROLE_NAMES, { error: `role must be one of ${ROLE_NAMES.join(', ')}` });
+
+export const topologySchema = z.enum(['buck', 'boost']);
+
+const positive = (what: string) => z.number({ error: `${what} must be a number` }).finite().positive(`${what} must be > 0`);
+
+export const marginTargetsSchema = z.object({
+	phaseMarginDeg: z.number().finite().min(0).max(120),
+	gainMarginDb: z.number().finite().min(0).max(60),
+	maxCrossoverFraction: z.number().finite().min(0.005).max(0.5)
+});
+
+/** Defaults [common practice]: PM ≥ 45°, GM ≥ 10 dB, crossover at most fsw/5. */
+export const DEFAULT_MARGIN_TARGETS: z.infer<typeof marginTargetsSchema> = {
+	phaseMarginDeg: 45,
+	gainMarginDb: 10,
+	maxCrossoverFraction: 0.2
+};
+
+export const tolerancesSchema = z.object({
+	inductorPct: z.number().finite().min(0).max(60).default(20),
+	capacitorPct: z.number().finite().min(0).max(80).default(20),
+	esrPct: z.number().finite().min(0).max(300).default(50),
+	vrefPct: z.number().finite().min(0).max(10).default(1)
+});
+
+export const projectSchema = z.object({
+	name: z.string().trim().min(1, 'name is required').max(120),
+	description: z.string().trim().max(2000).nullable().optional()
+});
+export const projectCreateSchema = projectSchema;
+export const projectUpdateSchema = projectSchema.partial().refine((v) => Object.keys(v).length > 0, 'send at least one field');
+
+/** Rail names as on a schematic net: capitals, digits and underscores (5V0_MAIN, VDD_1V2). */
+export const RAIL_NAME = /^[A-Z0-9][A-Z0-9_]{0,63}$/;
+
+const railObject = z.object({
+	name: z.string().trim().regex(RAIL_NAME, 'use capitals, digits and _ (like 5V0_MAIN), at most 64'),
+	topology: topologySchema,
+	vout: positive('vout'),
+	vinNom: positive('vinNom'),
+	vinMin: positive('vinMin'),
+	vinMax: positive('vinMax'),
+	ioutNom: positive('ioutNom'),
+	ioutMin: positive('ioutMin'),
+	ioutMax: positive('ioutMax'),
+	fsw: positive('fsw'),
+	tolerances: tolerancesSchema.default({ inductorPct: 20, capacitorPct: 20, esrPct: 50, vrefPct: 1 }),
+	marginTargets: marginTargetsSchema.nullable().default(null),
+	notes: z.string().max(4000).nullable().optional()
+});
+export type RailInput = z.infer<typeof railObject>;
+
+/** Cross-field rules of a rail, reported on the field that breaks them. */
+function checkRail(rail: RailInput, ctx: z.RefinementCtx) {
+	const issue = (path: keyof RailInput, message: string) => ctx.addIssue({ code: 'custom', path: [path], message });
+	if (rail.vinMin > rail.vinNom) issue('vinMin', 'must be ≤ vinNom');
+	if (rail.vinMax < rail.vinNom) issue('vinMax', 'must be ≥ vinNom');
+	if (rail.ioutMin > rail.ioutNom) issue('ioutMin', 'must be ≤ ioutNom');
+	if (rail.ioutMax < rail.ioutNom) issue('ioutMax', 'must be ≥ ioutNom');
+	// A buck only steps down and a boost only steps up, at every input corner.
+	if (rail.topology === 'buck' && rail.vinMin <= rail.vout) issue('vinMin', 'a buck needs vinMin > vout');
+	if (rail.topology === 'boost' && rail.vinMax >= rail.vout) issue('vinMax', 'a boost needs vinMax < vout');
+}
+
+export const railSchema = railObject.superRefine(checkRail);
+export const railCreateSchema = railSchema;
+/** A PATCH body; the service merges it with the stored rail and validates the result with railSchema. */
+export const railUpdateSchema = railObject
+	.partial()
+	.extend({ tolerances: tolerancesSchema.partial().optional() })
+	.refine((v) => Object.keys(v).length > 0, 'send at least one field');
+
+export const LOOP_STATUS_NAMES = ['draft', 'in-review', 'approved', 'changes-requested'] as const;
+
+export const loopSaveSchema = z.object({
+	/** The revision the edit started from; null (or 0) for the first one. */
+	baseRevision: z.number().int().min(0).nullable(),
+	design: z.unknown().refine((v) => v !== undefined, 'design is required'),
+	message: z.string().trim().min(1, 'say what changed').max(500)
+});
+
+export const REVIEW_ACTIONS = ['request-review', 'approve', 'request-changes'] as const;
+export const loopReviewSchema = z.object({
+	action: z.enum(REVIEW_ACTIONS),
+	comment: z.string().trim().max(5000).optional()
+});
+
+export const commentSchema = z.object({ body: z.string().trim().min(1, 'write something').max(5000) });
+
+const compensatorStrategy = z.object({
+	kind: z.enum(['type1', 'type2', 'type3', 'type2-ota']),
+	target: z
+		.object({
+			method: z.enum(['k-factor', 'features', 'manual']),
+			crossoverHz: z.number().finite().positive().optional(),
+			/** Crossover as a fraction of fsw, for templates that scale with the rail. */
+			crossoverFraction: z.number().finite().positive().max(0.5).optional(),
+			phaseMarginDeg: z.number().finite().min(0).max(120).optional()
+		})
+		.optional(),
+	series: z
+		.object({
+			resistors: z.enum(['E6', 'E12', 'E24', 'E48', 'E96', 'E192']).nullable(),
+			capacitors: z.enum(['E6', 'E12', 'E24', 'E48', 'E96', 'E192']).nullable()
+		})
+		.optional()
+});
+
+export const templateSchema = z.object({
+	name: z.string().trim().min(1, 'name is required').max(120),
+	description: z.string().trim().max(4000).nullable().optional(),
+	topology: topologySchema.nullable().default(null),
+	compensator: compensatorStrategy
+});
+export const templateUpdateSchema = templateSchema.partial().refine((v) => Object.keys(v).length > 0, 'send at least one field');
+
+export const workspaceCreateSchema = z.object({
+	name: z.string().trim().min(1).max(120),
+	slug: z
+		.string()
+		.trim()
+		.regex(/^[a-z0-9][a-z0-9-]{1,62}$/, 'lower-case letters, digits and -, 2 to 63 characters')
+});
+export const workspaceUpdateSchema = z
+	.object({ name: z.string().trim().min(1).max(120), marginTargets: marginTargetsSchema })
+	.partial()
+	.refine((v) => Object.keys(v).length > 0, 'send at least one field');
+
+export const invitationSchema = z.object({ email: z.email(), role: roleSchema });
+export const memberRoleSchema = z.object({ role: roleSchema });
+export const tokenCreateSchema = z.object({
+	name: z.string().trim().min(1).max(100),
+	expiresInDays: z.number().int().min(1).max(366).nullable().optional()
+});

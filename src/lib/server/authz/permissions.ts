@@ -1,0 +1,88 @@
+// The workspace permission matrix: which of our four roles may do which action. Pure data and
+// pure functions, no I/O, so it is tested as a table and every API route asks it through one
+// adapter (./guard.ts). better-auth's organization roles are built from this same table.
+
+/** Our role names, strongest first. better-auth's built-in names (admin, member) are not roles here. */
+export const ROLES = ['owner', 'engineer', 'reviewer', 'viewer'] as const;
+export type Role = (typeof ROLES)[number];
+
+/** Every action a workspace member can attempt. Dotted: `<entity>.<verb>`. */
+export const ACTIONS = [
+	'workspace.read',
+	'workspace.update',
+	'workspace.delete',
+	'member.read',
+	'member.invite',
+	'member.updateRole',
+	'member.remove',
+	'project.read',
+	'project.create',
+	'project.update',
+	'project.delete',
+	'rail.read',
+	'rail.create',
+	'rail.update',
+	'rail.delete',
+	'loop.read',
+	'loop.save',
+	'loop.requestReview',
+	'loop.approve',
+	'loop.requestChanges',
+	'loop.comment',
+	'template.read',
+	'template.create',
+	'template.update',
+	'template.delete',
+	'bench.upload',
+	'audit.read',
+	'mail.readCaptured'
+] as const;
+export type Action = (typeof ACTIONS)[number];
+
+const READ: Action[] = ACTIONS.filter((a) => a.endsWith('.read'));
+
+/** Design work: everything an engineer edits (projects, rails, loops, templates, bench data). */
+const DESIGN_WRITE: Action[] = [
+	'project.create',
+	'project.update',
+	'rail.create',
+	'rail.update',
+	'rail.delete',
+	'loop.save',
+	'loop.requestReview',
+	'loop.comment',
+	'template.create',
+	'template.update',
+	'template.delete',
+	'bench.upload'
+];
+
+/** Sign-off: a reviewer reads everything, comments, approves or sends a loop back. */
+const REVIEW: Action[] = ['loop.approve', 'loop.requestChanges', 'loop.comment'];
+
+/**
+ * The matrix as implemented. Owner: everything, including members, roles and deleting a board.
+ * Engineer: design work, no sign-off, no member management, cannot delete a whole board.
+ * Reviewer: read everything plus sign-off and comments; cannot edit designs.
+ * Viewer: read only.
+ */
+export const PERMISSIONS: Readonly<Record<Role, ReadonlySet<Action>>> = {
+	owner: new Set<Action>(ACTIONS),
+	engineer: new Set<Action>([...READ, ...DESIGN_WRITE]),
+	reviewer: new Set<Action>([...READ, ...REVIEW]),
+	viewer: new Set<Action>(READ)
+};
+
+export function isRole(value: unknown): value is Role {
+	return typeof value === 'string' && (ROLES as readonly string[]).includes(value);
+}
+
+/** True when `role` may perform `action`. Unknown role strings (e.g. the plugin's `member`) may do nothing. */
+export function can(role: string | null | undefined, action: Action): boolean {
+	return isRole(role) && PERMISSIONS[role].has(action);
+}
+
+/** The matrix as rows for documentation and tests: one row per action with the roles allowed. */
+export function matrixRows(): { action: Action; roles: Role[] }[] {
+	return ACTIONS.map((action) => ({ action, roles: ROLES.filter((r) => PERMISSIONS[r].has(action)) }));
+}

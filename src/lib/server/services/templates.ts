@@ -1,0 +1,92 @@
+// Templates: workspace-shared compensator strategies (kind, placement target, part series)
+// that engineers start new loops from.
+import { randomUUID } from 'node:crypto';
+import { asc, count, eq } from 'drizzle-orm';
+import type { z } from 'zod';
+import type { Database } from '../db';
+import { template } from '../db/schema';
+import type { Page, PageQuery } from '../http/request';
+import type { templateSchema, templateUpdateSchema } from '../../schemas/workspace';
+import * as audit from './audit';
+import { uniqueOr409 } from './errors';
+import type { Actor } from './types';
+
+export type Template = typeof template.$inferSelect;
+const summary = (t: Template) => ({ name: t.name, description: t.description, topology: t.topology, compensator: t.compensator });
+const duplicate = 'a template with this name already exists in the workspace';
+
+export async function list(db: Database, workspaceId: string, page: PageQuery): Promise<Page<Template>> {
+	const [items, [{ total }]] = await Promise.all([
+		db.select().from(template).where(eq(template.workspaceId, workspaceId)).orderBy(asc(template.name)).limit(page.limit).offset(page.offset),
+		db.select({ total: count() }).from(template).where(eq(template.workspaceId, workspaceId))
+	]);
+	return { items, page: { ...page, total } };
+}
+
+export async function get(db: Database, id: string): Promise<Template | null> {
+	const [row] = await db.select().from(template).where(eq(template.id, id)).limit(1);
+	return row ?? null;
+}
+
+export async function create(db: Database, actor: Actor, workspaceId: string, input: z.infer<typeof templateSchema>): Promise<Template> {
+	const now = new Date();
+	const row: Template = {
+		id: randomUUID(),
+		workspaceId,
+		name: input.name,
+		description: input.description ?? null,
+		topology: input.topology,
+		compensator: input.compensator,
+		createdBy: actor.userId,
+		createdAt: now,
+		updatedAt: now
+	};
+	await uniqueOr409(
+		() =>
+			db.transaction(async (tx) => {
+				await tx.insert(template).values(row);
+				await audit.record(tx, { workspaceId, actor, action: 'template.create', entityType: 'template', entityId: row.id, after: summary(row) });
+			}),
+		'name',
+		duplicate
+	);
+	return row;
+}
+
+export async function update(db: Database, actor: Actor, existing: Template, patch: z.infer<typeof templateUpdateSchema>): Promise<Template> {
+	const next: Template = {
+		...existing,
+		name: patch.name ?? existing.name,
+		description: patch.description === undefined ? existing.description : (patch.description ?? null),
+		topology: patch.topology === undefined ? existing.topology : patch.topology,
+		compensator: patch.compensator ?? existing.compensator,
+		updatedAt: new Date()
+	};
+	await uniqueOr409(
+		() =>
+			db.transaction(async (tx) => {
+				await tx
+					.update(template)
+					.set({ name: next.name, description: next.description, topology: next.topology, compensator: next.compensator, updatedAt: next.updatedAt })
+					.where(eq(template.id, existing.id));
+				await audit.record(tx, {
+					workspaceId: existing.workspaceId,
+					actor,
+					action: 'template.update',
+					entityType: 'template',
+					entityId: existing.id,
+					...audit.diff(summary(existing), summary(next), ['name', 'description', 'topology', 'compensator'])
+				});
+			}),
+		'name',
+		duplicate
+	);
+	return next;
+}
+
+export async function remove(db: Database, actor: Actor, existing: Template): Promise<void> {
+	await db.transaction(async (tx) => {
+		await tx.delete(template).where(eq(template.id, existing.id));
+		await audit.record(tx, { workspaceId: existing.workspaceId, actor, action: 'template.delete', entityType: 'template', entityId: existing.id, before: summary(existing) });
+	});
+}

@@ -1,0 +1,31 @@
+// Shapes stored in JSON columns and shared by services, routes and the seed. The input
+// shapes come from the zod schemas in $lib/schemas so there is one definition of each.
+import type { z } from 'zod';
+import type { marginTargetsSchema, tolerancesSchema } from '../../schemas/workspace';
+import type { Database } from '../db';
+
+/** Minimum margins a loop must meet; a rail may override its workspace's defaults. */
+export type MarginTargets = z.infer<typeof marginTargetsSchema>;
+
+/** Part and input tolerances of a rail, in percent (±). */
+export type RailTolerances = z.infer<typeof tolerancesSchema>;
+
+/** One corner's analysis summary (Vin × Iout); `error` when the engine refused that corner. */
+export interface CornerMetrics {
+	corner: { vin: number; iout: number; label: string };
+	crossoverHz: number | null;
+	phaseMarginDeg: number | null;
+	gainMarginDb: number | null;
+	closedLoopStable: boolean | null;
+	warnings: string[];
+	error?: string;
+}
+
+/** Who performs a write; recorded in the audit log. */
+export interface Actor {
+	userId: string;
+	email: string;
+}
+
+/** The database handle or an open transaction on it. */
+export type Executor = Database | Parameters<Parameters<Database['transaction']>[0]>[0];

@@ -1,0 +1,24 @@
+// GET/PATCH/DELETE /api/v1/templates/{id}. Edit and delete: owner, engineer.
+import { db } from '$lib/server/db';
+import { authorizeRow } from '$lib/server/authz/guard';
+import { endpoint, noContent } from '$lib/server/http/endpoint';
+import { parseBody } from '$lib/server/http/request';
+import { templateUpdateSchema } from '$lib/schemas/workspace';
+import * as templates from '$lib/server/services/templates';
+import type { RequestHandler } from './$types';
+
+export const GET: RequestHandler = endpoint(async (event) => {
+	const { row } = await authorizeRow(event, await templates.get(db, event.params.id), 'template.read', 'template');
+	return row;
+});
+
+export const PATCH: RequestHandler = endpoint(async (event) => {
+	const { row, access } = await authorizeRow(event, await templates.get(db, event.params.id), 'template.update', 'template');
+	return templates.update(db, access.caller, row, await parseBody(event, templateUpdateSchema));
+});
+
+export const DELETE: RequestHandler = endpoint(async (event) => {
+	const { row, access } = await authorizeRow(event, await templates.get(db, event.params.id), 'template.delete', 'template');
+	await templates.remove(db, access.caller, row);
+	return noContent();
+});

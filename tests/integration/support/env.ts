@@ -1,0 +1,6 @@
+// Imported first by every integration test: points the server code at the test database
+// before any module opens a pool. Never the development database, whatever the shell says.
+process.env.DB_NAME = process.env.DB_NAME_TEST || 'loopwright_test';
+process.env.LOOPWRIGHT_ENV = process.env.LOOPWRIGHT_ENV || 'test';
+process.env.BETTER_AUTH_SECRET = process.env.BETTER_AUTH_SECRET || 'integration-test-secret-0123456789abcdef';
+export {};
