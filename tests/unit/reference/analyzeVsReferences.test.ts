@@ -6,7 +6,7 @@
  * 0.05 dB / 0.5° up to fsw/2 (issue 3, items 6(a) and 6(b)).
  */
 import { describe, expect, it } from 'vitest';
-import { analyzeDesign } from '$lib/engine/analyze';
+import { analyzeDesign } from '$lib/engine';
 import { caseNames, describeDeviation, loadCase, loadOutput, worstDeviation, type DesignDoc } from './referenceData';
 
 function analyzeOn(doc: DesignDoc, freqHz: number[], name: string) {

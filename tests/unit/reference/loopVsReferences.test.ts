@@ -8,11 +8,9 @@
  * loopMetrics.
  */
 import { describe, expect, it } from 'vitest';
-import { frequencyResponse, multiply } from '$lib/engine';
-import { powerStage, modulatorTf } from '$lib/engine/plants';
+import { frequencyResponse, loopMetrics, modulatorTf, multiply, powerStage } from '$lib/engine';
 import { compensatorTf } from '$lib/engine/compensators/transfer';
 import { bottomResistor, type NetworkParts } from '$lib/engine/synthesis/networks';
-import { loopMetrics } from '$lib/engine/analysis';
 import { caseNames, describeDeviation, loadCase, loadOutput, stageInput, worstDeviation, type DesignDoc } from './referenceData';
 
 function loopOf(doc: DesignDoc) {

@@ -6,8 +6,7 @@
  * fsw/2, where the averaged model is trusted (issue 3, 6(b); formulas §0).
  */
 import { describe, expect, it } from 'vitest';
-import { frequencyResponse } from '$lib/engine';
-import { powerStage } from '$lib/engine/plants';
+import { frequencyResponse, powerStage } from '$lib/engine';
 import { caseNames, describeDeviation, loadCase, loadOutput, stageInput, worstDeviation } from './referenceData';
 
 const MAG_TOL_DB = 0.05;

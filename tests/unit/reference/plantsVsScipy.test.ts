@@ -5,8 +5,7 @@
  * computed with scipy.signal, versions in each JSON]. Tolerance 0.01 dB / 0.1° (issue 3, 6(a)).
  */
 import { describe, expect, it } from 'vitest';
-import { frequencyResponse } from '$lib/engine';
-import { powerStage } from '$lib/engine/plants';
+import { frequencyResponse, powerStage } from '$lib/engine';
 import { caseNames, describeDeviation, loadCase, loadOutput, worstDeviation, stageInput } from './referenceData';
 
 const MAG_TOL_DB = 0.01;

@@ -6,7 +6,7 @@
 import { readdirSync, readFileSync } from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
-import type { PowerStageInput } from '$lib/engine/plants';
+import type { PowerStageInput } from '$lib/engine';
 
 export const REFERENCE_DIR = fileURLToPath(new URL('../../../reference', import.meta.url));
 
