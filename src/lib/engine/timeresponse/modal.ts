@@ -1,0 +1,104 @@
+/**
+ * Modal (partial-fraction) solution of a proper rational G(s) = D + Σ r_i/(s − p_i) driven by
+ * a step or a linear ramp, evaluated exactly at any instant [standard Laplace algebra]:
+ *   unit step:  y(t) = D + Σ r_i·t·φ1(p_i·t),      φ1(z) = (e^z − 1)/z
+ *   unit ramp:  y(t) = D·t + Σ r_i·t²·φ2(p_i·t),   φ2(z) = (e^z − 1 − z)/z²
+ * φ1, φ2 by their series near z = 0, so slow poles lose no digits; fast poles simply decay,
+ * so stiffness costs nothing. Residues r_i = k·Π(p_i − z)/Π_{j≠i}(p_i − p_j) need distinct
+ * poles: `modalForm` reports the smallest relative pole separation so callers can fall back.
+ */
+import type { Complex } from '../math/complex';
+import { toZpk } from '../tf/convert';
+import type { FactoredTf } from '../tf/types';
+
+export interface ModalForm {
+	poles: Complex[];
+	residues: Complex[];
+	/** Direct term D = G(∞). */
+	direct: number;
+	/** min over pole pairs of |p_i − p_j| / max(|p_i|, |p_j|). */
+	minSeparation: number;
+}
+
+const mul = (a: Complex, b: Complex): Complex => ({ re: a.re * b.re - a.im * b.im, im: a.re * b.im + a.im * b.re });
+const sub = (a: Complex, b: Complex): Complex => ({ re: a.re - b.re, im: a.im - b.im });
+function div(a: Complex, b: Complex): Complex {
+	const d = b.re * b.re + b.im * b.im;
+	return { re: (a.re * b.re + a.im * b.im) / d, im: (a.im * b.re - a.re * b.im) / d };
+}
+
+export function modalForm(tf: FactoredTf): ModalForm {
+	if (tf.delayS) throw new RangeError('modal form: replace the delay by a Padé approximant first');
+	const { zeros, poles, k } = toZpk(tf);
+	if (zeros.length > poles.length) throw new RangeError('modal form: improper transfer function');
+	const direct = zeros.length === poles.length ? k : 0;
+	let minSeparation = Infinity;
+	const residues = poles.map((p, i) => {
+		let num: Complex = { re: k, im: 0 };
+		for (const z of zeros) num = mul(num, sub(p, z));
+		let den: Complex = { re: 1, im: 0 };
+		poles.forEach((q, j) => {
+			if (j === i) return;
+			const d = sub(p, q);
+			const sep = Math.hypot(d.re, d.im) / Math.max(Math.hypot(p.re, p.im), Math.hypot(q.re, q.im));
+			minSeparation = Math.min(minSeparation, sep);
+			den = mul(den, d);
+		});
+		return div(num, den);
+	});
+	return { poles, residues, direct, minSeparation };
+}
+
+/** φ1(z) = (e^z − 1)/z and φ2(z) = (e^z − 1 − z)/z² for complex z. */
+export function phi12(z: Complex): { phi1: Complex; phi2: Complex } {
+	const r = Math.hypot(z.re, z.im);
+	if (r < 0.5) {
+		// Series: φ1 = Σ z^k/(k+1)!, φ2 = Σ z^k/(k+2)!; 20 terms reach rounding for |z| < 0.5.
+		let term: Complex = { re: 1, im: 0 };
+		let p1: Complex = { re: 0, im: 0 };
+		let p2: Complex = { re: 0, im: 0 };
+		let fact1 = 1; // (k+1)!
+		let fact2 = 2; // (k+2)!
+		for (let kk = 0; kk < 20; kk++) {
+			p1 = { re: p1.re + term.re / fact1, im: p1.im + term.im / fact1 };
+			p2 = { re: p2.re + term.re / fact2, im: p2.im + term.im / fact2 };
+			term = mul(term, z);
+			fact1 *= kk + 2;
+			fact2 *= kk + 3;
+		}
+		return { phi1: p1, phi2: p2 };
+	}
+	const ez = Math.exp(z.re);
+	const em1: Complex = { re: ez * Math.cos(z.im) - 1, im: ez * Math.sin(z.im) };
+	const phi1 = div(em1, z);
+	const phi2 = div(sub(em1, z), mul(z, z));
+	return { phi1, phi2 };
+}
+
+/** Unit-step and unit-ramp responses at time t ≥ 0 (t < 0 gives 0). */
+export function modalAt(m: ModalForm, t: number): { step: number; ramp: number } {
+	if (t <= 0) return { step: t === 0 ? m.direct : 0, ramp: 0 };
+	let step = m.direct;
+	let ramp = m.direct * t;
+	for (let i = 0; i < m.poles.length; i++) {
+		const p = m.poles[i];
+		const { phi1, phi2 } = phi12({ re: p.re * t, im: p.im * t });
+		const r = m.residues[i];
+		// Conjugate pairs give conjugate terms; the real part of the sum is exact.
+		step += t * (r.re * phi1.re - r.im * phi1.im);
+		ramp += t * t * (r.re * phi2.re - r.im * phi2.im);
+	}
+	return { step, ramp };
+}
+
+/**
+ * Response to an input that rises linearly from 0 to `amplitude` over riseTimeS (0 = ideal
+ * step at t = 0) and then holds: y = (A/tr)·[ramp(t) − ramp(t − tr)].
+ */
+export function modalEdgeResponse(m: ModalForm, amplitude: number, riseTimeS: number, timeS: readonly number[]): number[] {
+	return timeS.map((t) => {
+		if (riseTimeS === 0) return t < 0 ? 0 : amplitude * modalAt(m, t).step;
+		const slope = amplitude / riseTimeS;
+		return slope * (modalAt(m, t).ramp - modalAt(m, t - riseTimeS).ramp);
+	});
+}
