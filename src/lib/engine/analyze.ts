@@ -80,32 +80,61 @@ function run(d: DesignDocument, options: AnalyzeOptions): AnalysisDetail {
 	const loop = multiply(compensator.built, plantLoop);
 
 	// Plot grid: the document's sweep, or two decades below f0 to fsw/2 (400 points).
-	let freqHz: Float64Array;
+	const include = options.includeResponse ?? true;
 	const s = d.sweep;
-	if (s && 'freqHz' in s) freqHz = Float64Array.from(s.freqHz);
-	else if (s) freqHz = logGrid(s.startHz, s.stopHz, s.points);
-	else {
-		const r = defaultSweepRange(plant.features.f0Hz, p.fsw);
-		freqHz = logGrid(r.startHz, r.stopHz, DEFAULT_SWEEP_POINTS);
+	let lo: number;
+	let hi: number;
+	let freqHz: Float64Array | null = null;
+	if (s && 'freqHz' in s) {
+		freqHz = Float64Array.from(s.freqHz);
+		lo = Math.min(...s.freqHz);
+		hi = Math.max(...s.freqHz);
+	} else {
+		const r = s ?? { ...defaultSweepRange(plant.features.f0Hz, p.fsw), points: DEFAULT_SWEEP_POINTS };
+		lo = r.startHz;
+		hi = r.stopHz;
+		if (include) freqHz = logGrid(r.startHz, r.stopHz, r.points);
 	}
 
 	// Metrics range: the sweep widened to [f0/100, 10·fsw], so margins above fsw/2 are found
 	// (and flagged) rather than silently missed.
-	let lo = Infinity;
-	let hi = 0;
-	for (const f of freqHz) {
-		lo = Math.min(lo, f);
-		hi = Math.max(hi, f);
-	}
 	const range = { startHz: Math.min(lo, plant.features.f0Hz / 100), stopHz: Math.max(hi, 10 * p.fsw) };
 	const metrics = loopMetrics(loop, range);
 
-	const include = options.includeResponse ?? true;
-	const bode = (tf: FactoredTf) => {
-		if (!include) return { magDb: [], phaseDeg: [] };
-		const r = frequencyResponse(tf, freqHz);
-		return { magDb: Array.from(r.magDb, clampDb), phaseDeg: Array.from(r.phaseDeg, finiteOr0) };
-	};
+	// Bode data. The loop is the exact sum of compensator and plant-loop terms in dB and degrees
+	// (factored form), so it costs no extra evaluation.
+	const empty = { magDb: [] as number[], phaseDeg: [] as number[] };
+	let plantBode = empty;
+	let compBode = empty;
+	let loopBode = empty;
+	let freqList: number[] = [];
+	if (include && freqHz) {
+		const gp = frequencyResponse(plant.gvd, freqHz);
+		const gc = frequencyResponse(compensator.built, freqHz);
+		const fmDb = -20 * Math.log10(rampAmplitude(mod, p.vin));
+		const delayDegPerHz = -360 * mod.delayS;
+		const n = freqHz.length;
+		// Plain loops into plain arrays: Array.from(typedArray, fn) is slow in V8.
+		freqList = new Array<number>(n);
+		const pm = new Array<number>(n);
+		const pp = new Array<number>(n);
+		const cm = new Array<number>(n);
+		const cp = new Array<number>(n);
+		const lm = new Array<number>(n);
+		const lp = new Array<number>(n);
+		for (let i = 0; i < n; i++) {
+			freqList[i] = freqHz[i];
+			pm[i] = clampDb(gp.magDb[i]);
+			pp[i] = finiteOr0(gp.phaseDeg[i]);
+			cm[i] = clampDb(gc.magDb[i]);
+			cp[i] = finiteOr0(gc.phaseDeg[i]);
+			lm[i] = clampDb(gp.magDb[i] + gc.magDb[i] + fmDb);
+			lp[i] = finiteOr0(gp.phaseDeg[i] + gc.phaseDeg[i] + delayDegPerHz * freqHz[i]);
+		}
+		plantBode = { magDb: pm, phaseDeg: pp };
+		compBode = { magDb: cm, phaseDeg: cp };
+		loopBode = { magDb: lm, phaseDeg: lp };
+	}
 
 	const op = plant.operatingPoint;
 	const response: AnalysisResponse = {
@@ -140,10 +169,10 @@ function run(d: DesignDocument, options: AnalyzeOptions): AnalysisDetail {
 			placement: stripUndefined(compensator.placement)
 		},
 		response: {
-			freqHz: include ? Array.from(freqHz) : [],
-			plant: bode(plant.gvd),
-			compensator: bode(compensator.built),
-			loop: bode(loop)
+			freqHz: freqList,
+			plant: plantBode,
+			compensator: compBode,
+			loop: loopBode
 		},
 		metrics: {
 			crossoverHz: metrics.crossoverHz,

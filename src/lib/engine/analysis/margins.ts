@@ -90,7 +90,7 @@ export function loopMetrics(
 		lnMagPhaseAt(c, Math.exp(u), buf);
 		return buf[1];
 	};
-	const n = g.omega.length;
+	const n = g.n;
 
 	// Gain crossovers: sign changes of ln|T| (a value of exactly 0 counts as positive, and a
 	// last point of exactly 0 is a crossing at the edge).
@@ -100,7 +100,7 @@ export function loopMetrics(
 		const b = g.lnMag[i];
 		const atEdge = i === n - 1 && b === 0;
 		if ((a >= 0) === (b >= 0) && !atEdge) continue;
-		const u = atEdge ? Math.log(g.omega[i]) : brentRoot(lnMagAtLog, Math.log(g.omega[i - 1]), Math.log(g.omega[i]), a, b);
+		const u = atEdge ? Math.log(g.omega[i]) : brentRoot(lnMagAtLog, Math.log(g.omega[i - 1]), Math.log(g.omega[i]), a, b, 1e-12);
 		const w = Math.exp(u);
 		lnMagPhaseAt(c, w, buf);
 		const phaseDeg = buf[1] * RAD2DEG;
@@ -142,7 +142,7 @@ export function loopMetrics(
 			if (line === pa) continue; // counted at the previous point
 			const ua = Math.log(g.omega[i - 1]);
 			const ub = Math.log(g.omega[i]);
-			const u = brentRoot((x) => phaseAtLog(x) - line, ua, ub, pa - line, pb - line);
+			const u = brentRoot((x) => phaseAtLog(x) - line, ua, ub, pa - line, pb - line, 1e-12);
 			pushPhase(Math.exp(u), line, pb < pa ? 'falling' : 'rising');
 		}
 	}
@@ -173,14 +173,18 @@ export function loopMetrics(
 	if (!grm) unavailable.gainReductionMarginDb = 'no phase crossover with |T| > 1';
 
 	// Modulus margin: min |1 + T| on the grid, refined by golden-section search around it.
-	let iMin = 0;
-	let best = Infinity;
+	// |1 + T| ≥ |1 − |T||, so only samples with ln|T| in (ln(1 − best), ln(1 + best)) can win.
 	const dist = (lnM: number, ph: number) => {
 		const m = Math.exp(lnM);
-		return Math.hypot(1 + m * Math.cos(ph), m * Math.sin(ph));
+		return Math.sqrt(Math.max(0, 1 + 2 * m * Math.cos(ph) + m * m));
 	};
-	for (let i = 0; i < n; i++) {
-		const d = dist(g.lnMag[i], g.phase[i]);
+	let iMin = 0;
+	let best = dist(g.lnMag[0], g.phase[0]);
+	for (let i = 1; i < n; i++) {
+		const l = g.lnMag[i];
+		if (best < 1 && (l <= Math.log1p(-best) || l >= Math.log1p(best))) continue;
+		if (best >= 1 && l >= Math.log1p(best)) continue;
+		const d = dist(l, g.phase[i]);
 		if (d < best) {
 			best = d;
 			iMin = i;
@@ -196,7 +200,8 @@ export function loopMetrics(
 				return dist(buf[0], buf[1]);
 			},
 			ua,
-			ub
+			ub,
+			1e-9
 		);
 		if (r.fx < best) {
 			best = r.fx;
