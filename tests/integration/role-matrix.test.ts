@@ -1,0 +1,258 @@
+// Every /api/v1 route tried by every role: the answer must follow the permission table
+// (2xx where the role may, 403 where it may not), signed-out callers get 401, and a test
+// walks the route files so a new route without a row here fails.
+import './support/env';
+import { randomUUID } from 'node:crypto';
+import { readdirSync, readFileSync, statSync } from 'node:fs';
+import { join, relative } from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { can, ROLES, type Action, type Role } from '../../src/lib/server/authz/permissions';
+import { invitation, loopRevision, member, user, type LoopStatus } from '../../src/lib/server/db/schema';
+import { startApp, type RunningApp } from './support/app';
+import { Client } from './support/client';
+import { buckDesign } from './support/designs';
+import { buildTeam, railBody, testDb, type Team } from './support/fixtures';
+
+let app: RunningApp;
+let team: Team;
+const { db, pool } = testDb();
+let projectId: string;
+let railId: string;
+let loopId: string;
+let templateId: string;
+
+beforeAll(async () => {
+	app = await startApp();
+	team = await buildTeam(app.origin, db);
+	const owner = team.as.owner;
+	projectId = (await owner.post(`/api/v1/projects?workspace=${team.workspaceId}`, { name: 'Matrix board' })).body.id;
+	railId = (await owner.post(`/api/v1/projects/${projectId}/rails`, railBody())).body.id;
+	loopId = (await owner.post(`/api/v1/rails/${railId}/loops`, { baseRevision: null, design: buckDesign(), message: 'first cut' })).body.id;
+	templateId = (await owner.post(`/api/v1/templates?workspace=${team.workspaceId}`, { name: 'Matrix template', compensator: { kind: 'type2' } })).body.id;
+});
+
+afterAll(async () => {
+	await app?.stop();
+	await pool.end();
+});
+
+const owner = () => team.as.owner;
+const ws = () => team.workspaceId;
+const unique = (label: string) => `${label}-${randomUUID().slice(0, 6)}`;
+const railName = () => `R${randomUUID().slice(0, 6).toUpperCase().replace(/-/g, '')}_X`;
+
+async function freshProject() {
+	return (await owner().post(`/api/v1/projects?workspace=${ws()}`, { name: unique('board') })).body.id as string;
+}
+async function freshRail() {
+	return (await owner().post(`/api/v1/projects/${projectId}/rails`, railBody(railName()))).body.id as string;
+}
+/** A stored revision in a given status, written directly: set-up, not the behaviour under test. */
+async function loopInStatus(status: LoopStatus) {
+	const rail = await freshRail();
+	const id = randomUUID();
+	await db.insert(loopRevision).values({
+		id,
+		workspaceId: ws(),
+		railId: rail,
+		revision: 1,
+		schemaVersion: 1,
+		design: buckDesign(),
+		metrics: [],
+		message: 'set-up',
+		status,
+		authorId: team.as.owner.userId,
+		createdAt: new Date()
+	});
+	return id;
+}
+async function freshMember() {
+	const userId = randomUUID();
+	await db.insert(user).values({ id: userId, name: 'Extra member', email: `${unique('extra')}@example.test`, emailVerified: false });
+	const id = randomUUID();
+	await db.insert(member).values({ id, organizationId: ws(), userId, role: 'viewer', createdAt: new Date() });
+	return id;
+}
+async function freshInvitation() {
+	const id = randomUUID();
+	await db.insert(invitation).values({
+		id,
+		organizationId: ws(),
+		email: `${unique('invitee')}@example.test`,
+		role: 'viewer',
+		status: 'pending',
+		expiresAt: new Date(Date.now() + 86_400_000),
+		inviterId: team.as.owner.userId
+	});
+	return id;
+}
+
+interface RouteCase {
+	method: 'GET' | 'POST' | 'PATCH' | 'DELETE';
+	/** The route as its folder names it, e.g. /api/v1/projects/[id]. */
+	route: string;
+	action: Action;
+	/** Builds the concrete request; may create rows the request then consumes. */
+	prepare: () => Promise<{ path: string; body?: unknown }>;
+}
+
+const cases: RouteCase[] = [
+	{ method: 'GET', route: '/api/v1/workspaces/[id]', action: 'workspace.read', prepare: async () => ({ path: `/api/v1/workspaces/${ws()}` }) },
+	{
+		method: 'PATCH',
+		route: '/api/v1/workspaces/[id]',
+		action: 'workspace.update',
+		prepare: async () => ({ path: `/api/v1/workspaces/${ws()}`, body: { marginTargets: { phaseMarginDeg: 45, gainMarginDb: 10, maxCrossoverFraction: 0.2 } } })
+	},
+	{ method: 'GET', route: '/api/v1/workspaces/[id]/members', action: 'member.read', prepare: async () => ({ path: `/api/v1/workspaces/${ws()}/members` }) },
+	{
+		method: 'PATCH',
+		route: '/api/v1/workspaces/[id]/members/[memberId]',
+		action: 'member.updateRole',
+		prepare: async () => ({ path: `/api/v1/workspaces/${ws()}/members/${await freshMember()}`, body: { role: 'reviewer' } })
+	},
+	{
+		method: 'DELETE',
+		route: '/api/v1/workspaces/[id]/members/[memberId]',
+		action: 'member.remove',
+		prepare: async () => ({ path: `/api/v1/workspaces/${ws()}/members/${await freshMember()}` })
+	},
+	{ method: 'GET', route: '/api/v1/workspaces/[id]/invitations', action: 'member.read', prepare: async () => ({ path: `/api/v1/workspaces/${ws()}/invitations` }) },
+	{
+		method: 'POST',
+		route: '/api/v1/workspaces/[id]/invitations',
+		action: 'member.invite',
+		prepare: async () => ({ path: `/api/v1/workspaces/${ws()}/invitations`, body: { email: `${unique('invitee')}@example.test`, role: 'viewer' } })
+	},
+	{
+		method: 'DELETE',
+		route: '/api/v1/workspaces/[id]/invitations/[invitationId]',
+		action: 'member.invite',
+		prepare: async () => ({ path: `/api/v1/workspaces/${ws()}/invitations/${await freshInvitation()}` })
+	},
+	{ method: 'GET', route: '/api/v1/projects', action: 'project.read', prepare: async () => ({ path: `/api/v1/projects?workspace=${ws()}` }) },
+	{ method: 'POST', route: '/api/v1/projects', action: 'project.create', prepare: async () => ({ path: `/api/v1/projects?workspace=${ws()}`, body: { name: unique('board') } }) },
+	{ method: 'GET', route: '/api/v1/projects/[id]', action: 'project.read', prepare: async () => ({ path: `/api/v1/projects/${projectId}` }) },
+	{ method: 'PATCH', route: '/api/v1/projects/[id]', action: 'project.update', prepare: async () => ({ path: `/api/v1/projects/${projectId}`, body: { description: unique('d') } }) },
+	{ method: 'DELETE', route: '/api/v1/projects/[id]', action: 'project.delete', prepare: async () => ({ path: `/api/v1/projects/${await freshProject()}` }) },
+	{ method: 'GET', route: '/api/v1/projects/[id]/rails', action: 'rail.read', prepare: async () => ({ path: `/api/v1/projects/${projectId}/rails` }) },
+	{ method: 'POST', route: '/api/v1/projects/[id]/rails', action: 'rail.create', prepare: async () => ({ path: `/api/v1/projects/${projectId}/rails`, body: railBody(railName()) }) },
+	{ method: 'GET', route: '/api/v1/rails/[id]', action: 'rail.read', prepare: async () => ({ path: `/api/v1/rails/${railId}` }) },
+	{ method: 'PATCH', route: '/api/v1/rails/[id]', action: 'rail.update', prepare: async () => ({ path: `/api/v1/rails/${railId}`, body: { notes: unique('n') } }) },
+	{ method: 'DELETE', route: '/api/v1/rails/[id]', action: 'rail.delete', prepare: async () => ({ path: `/api/v1/rails/${await freshRail()}` }) },
+	{ method: 'GET', route: '/api/v1/rails/[id]/loops', action: 'loop.read', prepare: async () => ({ path: `/api/v1/rails/${railId}/loops` }) },
+	{
+		method: 'POST',
+		route: '/api/v1/rails/[id]/loops',
+		action: 'loop.save',
+		prepare: async () => ({ path: `/api/v1/rails/${await freshRail()}/loops`, body: { baseRevision: null, design: buckDesign(), message: 'try' } })
+	},
+	{ method: 'GET', route: '/api/v1/loops/[id]', action: 'loop.read', prepare: async () => ({ path: `/api/v1/loops/${loopId}` }) },
+	{
+		method: 'POST',
+		route: '/api/v1/loops/[id]/review',
+		action: 'loop.requestReview',
+		prepare: async () => ({ path: `/api/v1/loops/${await loopInStatus('draft')}/review`, body: { action: 'request-review' } })
+	},
+	{
+		method: 'POST',
+		route: '/api/v1/loops/[id]/review',
+		action: 'loop.approve',
+		prepare: async () => ({ path: `/api/v1/loops/${await loopInStatus('in-review')}/review`, body: { action: 'approve', comment: 'margins fine at all corners' } })
+	},
+	{
+		method: 'POST',
+		route: '/api/v1/loops/[id]/review',
+		action: 'loop.requestChanges',
+		prepare: async () => ({ path: `/api/v1/loops/${await loopInStatus('in-review')}/review`, body: { action: 'request-changes' } })
+	},
+	{ method: 'GET', route: '/api/v1/loops/[id]/comments', action: 'loop.read', prepare: async () => ({ path: `/api/v1/loops/${loopId}/comments` }) },
+	{ method: 'POST', route: '/api/v1/loops/[id]/comments', action: 'loop.comment', prepare: async () => ({ path: `/api/v1/loops/${loopId}/comments`, body: { body: 'check Vin max' } }) },
+	{ method: 'GET', route: '/api/v1/templates', action: 'template.read', prepare: async () => ({ path: `/api/v1/templates?workspace=${ws()}` }) },
+	{
+		method: 'POST',
+		route: '/api/v1/templates',
+		action: 'template.create',
+		prepare: async () => ({ path: `/api/v1/templates?workspace=${ws()}`, body: { name: unique('tpl'), compensator: { kind: 'type3', target: { method: 'k-factor', phaseMarginDeg: 55 } } } })
+	},
+	{ method: 'GET', route: '/api/v1/templates/[id]', action: 'template.read', prepare: async () => ({ path: `/api/v1/templates/${templateId}` }) },
+	{ method: 'PATCH', route: '/api/v1/templates/[id]', action: 'template.update', prepare: async () => ({ path: `/api/v1/templates/${templateId}`, body: { description: unique('d') } }) },
+	{
+		method: 'DELETE',
+		route: '/api/v1/templates/[id]',
+		action: 'template.delete',
+		prepare: async () => ({
+			path: `/api/v1/templates/${(await owner().post(`/api/v1/templates?workspace=${ws()}`, { name: unique('tpl'), compensator: { kind: 'type2' } })).body.id}`
+		})
+	},
+	{ method: 'GET', route: '/api/v1/audit', action: 'audit.read', prepare: async () => ({ path: `/api/v1/audit?workspace=${ws()}` }) }
+];
+
+/** Routes that need only a signed-in caller (no workspace role): personal or stateless. */
+const personal: { method: RouteCase['method']; route: string; path: () => string; body?: () => unknown }[] = [
+	{ method: 'GET', route: '/api/v1/me', path: () => '/api/v1/me' },
+	{ method: 'GET', route: '/api/v1/workspaces', path: () => '/api/v1/workspaces' },
+	{ method: 'POST', route: '/api/v1/workspaces', path: () => '/api/v1/workspaces', body: () => ({ name: 'Side project', slug: unique('side') }) },
+	{ method: 'GET', route: '/api/v1/tokens', path: () => '/api/v1/tokens' },
+	{ method: 'POST', route: '/api/v1/tokens', path: () => '/api/v1/tokens', body: () => ({ name: 'ci' }) },
+	{ method: 'POST', route: '/api/v1/analyze', path: () => '/api/v1/analyze', body: () => buckDesign() }
+];
+/** Personal routes whose id must belong to the caller; checked in their own test. */
+const personalWithId = ['DELETE /api/v1/tokens/[id]'];
+
+describe('role × route matrix', () => {
+	for (const c of cases) {
+		it(`${c.method} ${c.route} (${c.action}) follows the table for every role`, async () => {
+			for (const role of ROLES) {
+				const { path, body } = await c.prepare();
+				const reply = await team.as[role as Role].request(c.method, path, body);
+				const expected = can(role, c.action);
+				if (expected) expect(reply.status, `${role} should be allowed: ${JSON.stringify(reply.body)}`).toBeLessThan(300);
+				else {
+					expect(reply.status, `${role} should be refused`).toBe(403);
+					expect(reply.body.error.code).toBe('forbidden');
+				}
+			}
+		});
+	}
+
+	it('answers 401 to a signed-out caller on every route', async () => {
+		const anonymous = new Client(app.origin);
+		for (const c of cases) {
+			const { path, body } = await c.prepare();
+			const reply = await anonymous.request(c.method, path, body);
+			expect(reply.status, `${c.method} ${path}`).toBe(401);
+		}
+		for (const p of personal) {
+			expect((await anonymous.request(p.method, p.path(), p.body?.())).status, p.route).toBe(401);
+		}
+	});
+
+	it('serves personal routes to any signed-in role', async () => {
+		for (const role of ROLES) {
+			for (const p of personal) {
+				const reply = await team.as[role as Role].request(p.method, p.path(), p.body?.());
+				expect(reply.status, `${role} ${p.method} ${p.route}: ${JSON.stringify(reply.body).slice(0, 200)}`).toBeLessThan(300);
+			}
+		}
+	});
+
+	it('has a row for every handler in src/routes/api/v1', () => {
+		const root = 'src/routes';
+		const found: string[] = [];
+		const walk = (dir: string) => {
+			for (const name of readdirSync(dir)) {
+				const full = join(dir, name);
+				if (statSync(full).isDirectory()) walk(full);
+				else if (name === '+server.ts') {
+					const route = '/' + relative(root, dir).split('\\').join('/');
+					for (const m of readFileSync(full, 'utf8').matchAll(/export const (GET|POST|PATCH|PUT|DELETE)\b/g)) found.push(`${m[1]} ${route}`);
+				}
+			}
+		};
+		walk(join(root, 'api', 'v1'));
+		const covered = new Set([...cases.map((c) => `${c.method} ${c.route}`), ...personal.map((p) => `${p.method} ${p.route}`), ...personalWithId]);
+		expect(found.filter((r) => !covered.has(r))).toEqual([]);
+		expect(found.length).toBeGreaterThan(25);
+	});
+});
