@@ -1,0 +1,54 @@
+/**
+ * Data the Bode plot draws. The plot only draws: callers compute every number (engine) and
+ * hand it over here. Arrays are in the order of `freqHz` (ascending, Hz); magnitudes in dB,
+ * phases in degrees (unwrapped). Non-finite samples are skipped, never drawn.
+ */
+
+export type TraceKind = 'plant' | 'compensator' | 'loop';
+
+export interface BodeTrace {
+	id: string;
+	kind: TraceKind;
+	/** "Loop", "Vin max, Iout min" … shown in the hover readout. */
+	label: string;
+	/** The nominal case is drawn bold; corners thin and faint. */
+	nominal: boolean;
+	magDb: ArrayLike<number>;
+	phaseDeg: ArrayLike<number>;
+}
+
+export interface PlotRoot {
+	id: string;
+	type: 'pole' | 'zero';
+	freqHz: number;
+	/** 2 for a double zero/pole drawn as one marker. */
+	multiplicity: number;
+	/** Only compensator corners the user may move are draggable. */
+	draggable: boolean;
+	/** "fz1", "fp2" … for the accessible name and the lane label. */
+	label: string;
+}
+
+export interface BodeData {
+	freqHz: ArrayLike<number>;
+	traces: BodeTrace[];
+	/** The governing gain crossover of the nominal loop. */
+	crossover: { freqHz: number; phaseMarginDeg: number } | null;
+	/** The nominal loop's gain margin point (phase at −180°). */
+	gainMargin: { freqHz: number; gainMarginDb: number } | null;
+	/** fsw/2: above it the averaged model is not trusted; shaded. */
+	modelLimitHz: number | null;
+	roots: PlotRoot[];
+}
+
+export type TraceVisibility = Record<TraceKind, boolean>;
+
+/** One line of the hover readout. */
+export interface ReadoutRow {
+	kind: TraceKind;
+	magDb: number | null;
+	phaseDeg: number | null;
+	/** Across the corners: [min, max]; null when the kind has no corners shown. */
+	magSpread: [number, number] | null;
+	phaseSpread: [number, number] | null;
+}

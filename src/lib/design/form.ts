@@ -1,0 +1,341 @@
+/**
+ * The design screen's form: every number as the text the user typed, the rule each field
+ * follows, and the conversion to a contract-v1 design document (SI units) plus the rail's
+ * corners and targets. Field errors are keyed by form field, so they show at the input.
+ */
+import type { DesignDocumentInput } from '$lib/engine';
+import { parseQuantity, formatForInput, type QuantityRule, type UnitSymbol } from '$lib/units';
+
+export type CompensatorKind = 'type1' | 'type2' | 'type3' | 'type2-ota';
+export type PlacementMethod = 'k-factor' | 'features' | 'manual' | 'parts';
+export type SeriesName = 'E3' | 'E6' | 'E12' | 'E24' | 'E48' | 'E96' | 'E192';
+export const SERIES_NAMES: SeriesName[] = ['E3', 'E6', 'E12', 'E24', 'E48', 'E96', 'E192'];
+export const PART_NAMES = ['r2', 'r3', 'c1', 'c2', 'c3', 'gm', 'ro'] as const;
+export type PartName = (typeof PART_NAMES)[number];
+
+export interface CapacitorRow {
+	/** Stable key for keyed lists (not part of the document). */
+	key: number;
+	c: string;
+	esr: string;
+	esl: string;
+	count: string;
+}
+
+export interface DesignForm {
+	name: string;
+	topology: 'buck' | 'boost';
+	vin: string;
+	vinMin: string;
+	vinMax: string;
+	vout: string;
+	iout: string;
+	ioutMin: string;
+	ioutMax: string;
+	fsw: string;
+	l: string;
+	dcr: string;
+	rdsOn: string;
+	capacitors: CapacitorRow[];
+	vramp: string;
+	feedForward: boolean;
+	delay: string;
+	vref: string;
+	r1: string;
+	fcTarget: string;
+	pmTarget: string;
+	gmTarget: string;
+	kind: CompensatorKind;
+	method: PlacementMethod;
+	/** Manual placement: the network's finite zeros and poles, and its mid-band gain. */
+	zeros: string[];
+	poles: string[];
+	midbandDb: string;
+	parts: Record<PartName, string>;
+	seriesR: SeriesName | 'none';
+	seriesC: SeriesName | 'none';
+	opamp: boolean;
+	a0Db: string;
+	gbw: string;
+}
+
+export interface FieldSpec extends QuantityRule {
+	label: string;
+	unit: UnitSymbol;
+	/** Display unit when it is not an SI symbol (dB, °, parts). */
+	suffix?: string;
+	hint?: string;
+}
+
+const pos = (label: string, unit: UnitSymbol, extra: Partial<FieldSpec> = {}): FieldSpec => ({ label, unit, positive: true, ...extra });
+
+/** Rules of the scalar fields (capacitor rows, zeros/poles and parts have their own below). */
+export const FIELDS: Record<string, FieldSpec> = {
+	vin: pos('Vin (nominal)', 'V'),
+	vinMin: pos('Vin min', 'V'),
+	vinMax: pos('Vin max', 'V'),
+	vout: pos('Vout', 'V'),
+	iout: pos('Iout (nominal)', 'A'),
+	ioutMin: pos('Iout min', 'A'),
+	ioutMax: pos('Iout max', 'A'),
+	fsw: pos('fsw', 'Hz'),
+	l: pos('L', 'H'),
+	dcr: pos('DCR', 'Ω', { allowZero: true }),
+	rdsOn: pos('RDS(on)', 'Ω', { allowZero: true }),
+	vramp: pos('Ramp Vpp', 'V'),
+	delay: pos('Loop delay', 's', { allowZero: true, max: 1 }),
+	vref: pos('Vref', 'V'),
+	r1: pos('R1 (divider top)', 'Ω'),
+	fcTarget: pos('Crossover fc', 'Hz'),
+	pmTarget: { label: 'Phase margin', unit: '', suffix: '°', min: 1, max: 179 },
+	gmTarget: { label: 'Gain margin', unit: '', suffix: 'dB', min: 0, max: 60 },
+	midbandDb: { label: 'Mid-band gain', unit: '', suffix: 'dB', min: -60, max: 100 },
+	a0Db: { label: 'Open-loop gain A0', unit: '', suffix: 'dB', min: 1, max: 200 },
+	gbw: pos('Gain-bandwidth', 'Hz')
+};
+
+export const CAPACITOR_FIELDS: Record<'c' | 'esr' | 'esl' | 'count', FieldSpec> = {
+	c: pos('C', 'F'),
+	esr: pos('ESR', 'Ω', { allowZero: true }),
+	esl: pos('ESL', 'H', { allowZero: true }),
+	count: { label: 'Count', unit: '', suffix: '×', integer: true, min: 1, max: 1000 }
+};
+
+export const PART_FIELDS: Record<PartName, FieldSpec> = {
+	r2: pos('R2', 'Ω'),
+	r3: pos('R3', 'Ω'),
+	c1: pos('C1', 'F'),
+	c2: pos('C2', 'F'),
+	c3: pos('C3', 'F'),
+	gm: pos('gm (OTA)', 'S'),
+	ro: pos('Ro (OTA)', 'Ω')
+};
+
+/** Which parts each kind needs when the parts are given directly (ro optional for the OTA). */
+export const KIND_PARTS: Record<CompensatorKind, PartName[]> = {
+	type1: ['c1'],
+	type2: ['r2', 'c1', 'c2'],
+	type3: ['r2', 'r3', 'c1', 'c2', 'c3'],
+	'type2-ota': ['gm', 'r2', 'c1', 'c2']
+};
+
+/** Finite zeros (= poles) of each kind's network. */
+export const KIND_CORNERS: Record<CompensatorKind, number> = { type1: 0, type2: 1, type3: 2, 'type2-ota': 1 };
+
+export const KIND_LABEL: Record<CompensatorKind, string> = {
+	type1: 'Type I (integrator)',
+	type2: 'Type II',
+	type3: 'Type III',
+	'type2-ota': 'Type II, OTA'
+};
+export const METHOD_LABEL: Record<PlacementMethod, string> = {
+	'k-factor': 'K-factor',
+	features: 'At the plant features',
+	manual: 'Manual corners',
+	parts: 'Fixed parts'
+};
+
+/** The rule for a field key: scalar names, `capacitors.i.c`, `zeros.i`, `poles.i`, `parts.r2`. */
+export function specFor(key: string): FieldSpec {
+	if (FIELDS[key]) return FIELDS[key];
+	const cap = /^capacitors\.\d+\.(c|esr|esl|count)$/.exec(key);
+	if (cap) return CAPACITOR_FIELDS[cap[1] as keyof typeof CAPACITOR_FIELDS];
+	const corner = /^(zeros|poles)\.(\d+)$/.exec(key);
+	if (corner) return pos(`${corner[1] === 'zeros' ? 'fz' : 'fp'}${Number(corner[2]) + 1}`, 'Hz');
+	const part = /^parts\.(\w+)$/.exec(key);
+	if (part && part[1] in PART_FIELDS) return PART_FIELDS[part[1] as PartName];
+	return { label: key, unit: '' };
+}
+
+export interface FormTargets {
+	crossoverHz: number;
+	phaseMarginDeg: number;
+	gainMarginDb: number;
+}
+
+export interface OperatingRange {
+	vin: [min: number, nom: number, max: number];
+	iout: [min: number, nom: number, max: number];
+}
+
+export interface FormResult {
+	/** Field key → message; empty when the form reads cleanly. */
+	errors: Record<string, string>;
+	/** The nominal design document, when every field reads. */
+	document: DesignDocumentInput | null;
+	range: OperatingRange | null;
+	targets: FormTargets | null;
+}
+
+/** Read every field; cross-field rules of the corners are checked here, the rest by the engine's schema. */
+export function readForm(form: DesignForm): FormResult {
+	const errors: Record<string, string> = {};
+	const num = (key: string, text: string): number => {
+		const r = parseQuantity(text, specFor(key));
+		if (r.ok) return r.value;
+		errors[key] = r.error;
+		return Number.NaN;
+	};
+	const v = (key: keyof DesignForm) => num(key, form[key] as string);
+
+	const vin = v('vin');
+	const vinMin = v('vinMin');
+	const vinMax = v('vinMax');
+	const vout = v('vout');
+	const iout = v('iout');
+	const ioutMin = v('ioutMin');
+	const ioutMax = v('ioutMax');
+	const capacitors = form.capacitors.map((row, i) => ({
+		c: num(`capacitors.${i}.c`, row.c),
+		esr: num(`capacitors.${i}.esr`, row.esr),
+		esl: num(`capacitors.${i}.esl`, row.esl),
+		count: num(`capacitors.${i}.count`, row.count)
+	}));
+	if (form.capacitors.length === 0) errors.capacitors = 'add at least one capacitor branch';
+
+	const set = (key: string, message: string) => {
+		if (!errors[key]) errors[key] = message;
+	};
+	if (vinMin > vin) set('vinMin', 'must be ≤ Vin nominal');
+	if (vinMax < vin) set('vinMax', 'must be ≥ Vin nominal');
+	if (ioutMin > iout) set('ioutMin', 'must be ≤ Iout nominal');
+	if (ioutMax < iout) set('ioutMax', 'must be ≥ Iout nominal');
+	if (form.topology === 'buck' && vinMin <= vout) set('vinMin', 'a buck needs Vin min > Vout');
+	if (form.topology === 'boost' && vinMax >= vout) set('vinMax', 'a boost needs Vin max < Vout');
+
+	const targets = { crossoverHz: v('fcTarget'), phaseMarginDeg: v('pmTarget'), gainMarginDb: v('gmTarget') };
+	const compensator: Record<string, unknown> = { kind: form.kind };
+	const series =
+		form.seriesR === 'none' && form.seriesC === 'none'
+			? null
+			: { resistors: form.seriesR === 'none' ? null : form.seriesR, capacitors: form.seriesC === 'none' ? null : form.seriesC };
+	compensator.series = series;
+	const goal = { crossoverHz: targets.crossoverHz, phaseMarginDeg: targets.phaseMarginDeg };
+	if (form.method === 'k-factor') compensator.target = { method: 'k-factor', ...goal };
+	else if (form.method === 'features') compensator.target = { method: 'features', ...goal };
+	else if (form.method === 'manual') {
+		const n = KIND_CORNERS[form.kind];
+		const zerosHz = form.zeros.slice(0, n).map((t, i) => num(`zeros.${i}`, t));
+		const polesHz = form.poles.slice(0, n).map((t, i) => num(`poles.${i}`, t));
+		const target: Record<string, unknown> = { method: 'manual', zerosHz, polesHz, phaseMarginDeg: targets.phaseMarginDeg };
+		// A Type I has no mid-band: its gain is set by the crossover target instead.
+		if (n === 0) target.crossoverHz = targets.crossoverHz;
+		else target.midbandGainDb = v('midbandDb');
+		compensator.target = target;
+	} else {
+		const parts: Record<string, number> = {};
+		for (const name of KIND_PARTS[form.kind]) parts[name] = num(`parts.${name}`, form.parts[name]);
+		if (form.kind === 'type2-ota' && form.parts.ro.trim() !== '') parts.ro = num('parts.ro', form.parts.ro);
+		compensator.parts = parts;
+		compensator.target = { method: 'k-factor', ...goal };
+	}
+	// The OTA's gm is needed to place it too.
+	if (form.kind === 'type2-ota' && form.method !== 'parts') {
+		const parts: Record<string, number> = { gm: num('parts.gm', form.parts.gm) };
+		if (form.parts.ro.trim() !== '') parts.ro = num('parts.ro', form.parts.ro);
+		compensator.parts = parts;
+	}
+	if (form.opamp && form.kind !== 'type2-ota') compensator.opamp = { a0Db: v('a0Db'), gbw: v('gbw') };
+
+	const fsw = v('fsw');
+	const document: DesignDocumentInput = {
+		schemaVersion: 1,
+		name: form.name || undefined,
+		plant: {
+			topology: form.topology,
+			vin,
+			vout,
+			iout,
+			fsw,
+			inductor: { l: v('l'), dcr: v('dcr') },
+			capacitors,
+			rdsOn: v('rdsOn')
+		},
+		modulator: { vramp: v('vramp'), feedForward: form.feedForward, delay: v('delay') },
+		feedback: { vref: v('vref'), r1: v('r1') },
+		compensator: compensator as DesignDocumentInput['compensator']
+	};
+	const ok = Object.keys(errors).length === 0;
+	return {
+		errors,
+		document: ok ? document : null,
+		range: ok ? { vin: [vinMin, vin, vinMax], iout: [ioutMin, iout, ioutMax] } : null,
+		targets: ok ? targets : null
+	};
+}
+
+/** Contract error paths (plant.inductor.l …) → the form field that shows them. */
+export function fieldForPath(path: string): string | null {
+	const direct: Record<string, string> = {
+		'plant.vin': 'vin',
+		'plant.vout': 'vout',
+		'plant.iout': 'iout',
+		'plant.fsw': 'fsw',
+		'plant.inductor.l': 'l',
+		'plant.inductor.dcr': 'dcr',
+		'plant.rdsOn': 'rdsOn',
+		'plant.capacitors': 'capacitors',
+		'modulator.vramp': 'vramp',
+		'modulator.delay': 'delay',
+		'feedback.vref': 'vref',
+		'feedback.r1': 'r1',
+		'compensator.target.crossoverHz': 'fcTarget',
+		'compensator.target.phaseMarginDeg': 'pmTarget',
+		'compensator.target.midbandGainDb': 'midbandDb',
+		'compensator.opamp.a0Db': 'a0Db',
+		'compensator.opamp.gbw': 'gbw'
+	};
+	if (direct[path]) return direct[path];
+	let m = /^plant\.capacitors\.(\d+)\.(c|esr|esl|count)$/.exec(path);
+	if (m) return `capacitors.${m[1]}.${m[2]}`;
+	m = /^compensator\.target\.(zeros|poles)Hz(?:\.(\d+))?$/.exec(path);
+	if (m) return `${m[1]}.${m[2] ?? 0}`;
+	m = /^compensator\.parts\.(\w+)$/.exec(path);
+	if (m) return `parts.${m[1]}`;
+	return null;
+}
+
+let nextKey = 1;
+export const capacitorRow = (c = '22u', esr = '3m', esl = '0', count = '1'): CapacitorRow => ({ key: nextKey++, c, esr, esl, count });
+
+/** The sandbox's demo rail: a 12 V → 1.2 V, 8 A synchronous buck at 600 kHz with ceramics. */
+export function demoForm(): DesignForm {
+	return {
+		name: 'Demo: VDD_1V2 core rail',
+		topology: 'buck',
+		vin: '12',
+		vinMin: '10.8',
+		vinMax: '13.2',
+		vout: '1.2',
+		iout: '8',
+		ioutMin: '0.8',
+		ioutMax: '10',
+		fsw: '600k',
+		l: '1u',
+		dcr: '4m',
+		rdsOn: '6m',
+		capacitors: [capacitorRow('47u', '2m', '0', '3'), capacitorRow('330u', '15m', '0', '1')],
+		vramp: '1',
+		feedForward: false,
+		delay: '0',
+		vref: '0.6',
+		r1: '10k',
+		fcTarget: '60k',
+		pmTarget: '55',
+		gmTarget: '10',
+		kind: 'type3',
+		method: 'k-factor',
+		zeros: ['', ''],
+		poles: ['', ''],
+		midbandDb: '',
+		parts: { r2: '', r3: '', c1: '', c2: '', c3: '', gm: '', ro: '' },
+		seriesR: 'E96',
+		seriesC: 'E12',
+		opamp: false,
+		a0Db: '100',
+		gbw: '10MEG'
+	};
+}
+
+/** Writes engine numbers back into fields in engineering notation (after a drag or a placement switch). */
+export const toField = (value: number, unit: UnitSymbol = '', digits = 4) => formatForInput(value, unit, digits);

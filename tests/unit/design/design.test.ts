@@ -1,0 +1,129 @@
+// The design screen's logic: reading the form, the nine corners, the drag preview and its
+// hand-off to the engine, and the coarse grid margins used while dragging.
+import { describe, expect, it } from 'vitest';
+import { analyzeDesignDetailed, logGrid } from '$lib/engine';
+import { analyzeForm } from '$lib/design/analysis';
+import { demoForm, readForm } from '$lib/design/form';
+import { gridMargins } from '$lib/design/gridMargins';
+import { builtNetwork, manualPlacement, moveCorner, previewFrame, startDrag } from '$lib/design/preview';
+import { verdictOf } from '$lib/design/verdict';
+
+function demoAnalysis() {
+	const outcome = analyzeForm(readForm(demoForm()));
+	if (!outcome.ok) throw new Error(outcome.message);
+	return outcome.analysis;
+}
+
+describe('readForm', () => {
+	it('reads engineering notation into SI numbers', () => {
+		const r = readForm({ ...demoForm(), l: '4.7uH', fsw: '1.2MEG' });
+		expect(r.errors).toEqual({});
+		expect(r.document!.plant.inductor.l).toBeCloseTo(4.7e-6, 15);
+		expect(r.document!.plant.fsw).toBe(1.2e6);
+	});
+	it('marks the field with the rule it breaks and gives no document', () => {
+		const r = readForm({ ...demoForm(), l: '4.7x', vinMin: '1' });
+		expect(r.errors.l).toMatch(/unknown prefix/);
+		expect(r.errors.vinMin).toBe('a buck needs Vin min > Vout');
+		expect(r.document).toBeNull();
+	});
+	it('refuses a zero inductance', () => expect(readForm({ ...demoForm(), l: '0' }).errors.l).toBe('must be > 0'));
+});
+
+describe('analyzeForm', () => {
+	const a = demoAnalysis();
+	it('analyses nine corners, nominal first, on one 400-point grid', () => {
+		expect(a.corners).toHaveLength(9);
+		expect(a.corners[0].corner.nominal).toBe(true);
+		expect(a.freqHz).toHaveLength(400);
+		for (const c of a.corners) expect(c.detail!.response.response.loop.magDb).toHaveLength(400);
+	});
+	it('meets the K-factor target at the nominal corner before rounding', () => {
+		// K-factor placement makes PM at fc equal the target for the ideal network (domain sheet §6.2).
+		const ideal = a.nominal.compensator.achieved.ideal;
+		expect(ideal.crossoverHz! / 60e3).toBeCloseTo(1, 3);
+		expect(ideal.phaseMarginDeg!).toBeCloseTo(55, 1);
+	});
+	it('a verdict names the worst corner', () => {
+		const v = verdictOf(a);
+		const pm = v.rows.find((r) => r.metric === 'pm')!;
+		expect(pm.corner).toMatch(/^Vin (min|nom|max), Iout (min|nom|max)$/);
+		expect(pm.reason).toContain(pm.corner!);
+	});
+});
+
+describe('drag preview', () => {
+	const a = demoAnalysis();
+	it('with nothing moved, reproduces the engine loop at every corner', () => {
+		const s = startDrag(a);
+		const frame = previewFrame(s, s.shape);
+		if ('problem' in frame) throw new Error(frame.problem);
+		a.corners.forEach((c, i) => {
+			const engine = c.detail!.response.response.loop;
+			for (const k of [0, 133, 266, 399]) {
+				expect(frame.override.loops[i].magDb[k]).toBeCloseTo(engine.magDb[k], 6);
+				expect(frame.override.loops[i].phaseDeg[k]).toBeCloseTo(engine.phaseDeg[k], 6);
+			}
+		});
+	});
+	it('moving a zero down raises the phase at crossover (a zero adds phase lead below fc)', () => {
+		// A zero's phase lead atan(f/fz) grows as fz falls [common practice].
+		const s = startDrag(a);
+		const key = s.shape.kind === 'type3' ? 'zero1Hz' : 'zeroHz';
+		const f0 = (s.shape as unknown as Record<string, number>)[key];
+		const before = previewFrame(s, s.shape);
+		const after = previewFrame(s, moveCorner(s.shape, key, f0 / 2));
+		if ('problem' in before || 'problem' in after) throw new Error('unbuildable');
+		const at = (fr: typeof before, i: number) => fr.override.compensator.phaseDeg[i];
+		expect(at(after, 250)).toBeGreaterThan(at(before, 250));
+	});
+	it('refuses a zero dragged above its pole, with the reason', () => {
+		const s = startDrag(a);
+		const r = previewFrame(s, moveCorner(s.shape, s.shape.kind === 'type3' ? 'zero1Hz' : 'zeroHz', 1e7));
+		expect('problem' in r && r.problem).toMatch(/below/);
+	});
+	it('hands the moved network to the engine as a manual placement that rebuilds it', () => {
+		const s = startDrag(a);
+		const moved = moveCorner(s.shape, s.shape.kind === 'type3' ? 'pole2Hz' : 'poleHz', 250e3);
+		const m = manualPlacement(moved);
+		const doc = structuredClone(a.document) as Record<string, any>;
+		doc.compensator = { kind: moved.kind, target: { method: 'manual', zerosHz: m.zerosHz, polesHz: m.polesHz, midbandGainDb: m.midbandGainDb }, series: null };
+		const r = analyzeDesignDetailed(doc);
+		if ('error' in r) throw new Error(r.error.message);
+		const frame = previewFrame(s, moved);
+		if ('problem' in frame) throw new Error(frame.problem);
+		for (const k of [0, 200, 399]) expect(r.response.response.compensator.magDb[k]).toBeCloseTo(frame.override.compensator.magDb[k], 6);
+		expect(builtNetwork(a).shape.kind).toBe('type3');
+	});
+});
+
+describe('gridMargins', () => {
+	const f = logGrid(10, 1e7, 2000);
+	it('an integrator ωc/s crosses at fc with PM 90° and has no gain margin', () => {
+		// |T| = fc/f, ∠T = −90° everywhere [hand-derivable].
+		const mag = f.map((x) => 20 * Math.log10(1e4 / x));
+		const ph = f.map(() => -90);
+		const m = gridMargins(f, mag, ph);
+		expect(m.crossoverHz! / 1e4).toBeCloseTo(1, 3);
+		expect(m.phaseMarginDeg).toBeCloseTo(90, 6);
+		expect(m.gainMarginDb).toBeNull();
+	});
+	it('an integrator with a pole: PM = 90° − atan(fc/fp), GM from the −180° crossing', () => {
+		// T = (ωI/s)·1/(1 + s/ωp)³ has its phase at −180° where 3·atan(f/fp) = 90° → f = fp·tan 30° [hand-derivable].
+		const fI = 1e3;
+		const fp = 1e5;
+		const mag = f.map((x) => 20 * Math.log10(fI / x) - 30 * Math.log10(1 + (x / fp) ** 2));
+		const ph = f.map((x) => -90 - 3 * (Math.atan(x / fp) * 180) / Math.PI);
+		const m = gridMargins(f, mag, ph);
+		const fc = m.crossoverHz!;
+		expect(m.phaseMarginDeg!).toBeCloseTo(90 - 3 * (Math.atan(fc / fp) * 180) / Math.PI, 1);
+		const fpc = fp * Math.tan(Math.PI / 6);
+		expect(m.phaseCrossoverHz! / fpc).toBeCloseTo(1, 2);
+		expect(m.gainMarginDb!).toBeCloseTo(-(20 * Math.log10(fI / fpc) - 30 * Math.log10(1 + (fpc / fp) ** 2)), 1);
+	});
+	it('skips non-finite samples instead of producing NaN', () => {
+		const mag = f.map((x, i) => (i === 10 ? Number.NaN : 20 * Math.log10(1e4 / x)));
+		const m = gridMargins(f, mag, f.map(() => -90));
+		expect(Number.isFinite(m.crossoverHz!)).toBe(true);
+	});
+});
