@@ -50,7 +50,9 @@ export function analyzeDesignDetailed(doc: unknown, options: AnalyzeOptions = {}
 	} catch (e) {
 		if (e instanceof DesignInputError) return contractError(e.fields);
 		if (e instanceof CompensatorDesignError) return contractError(e.fields, e.code, e.message);
-		throw e;
+		// Never crash a caller: an unexpected numerical failure is reported, not thrown.
+		const message = e instanceof Error ? e.message : String(e);
+		return contractError({ '(engine)': message }, 'analysis-failed', `The engine could not analyse this design: ${message}`);
 	}
 }
 

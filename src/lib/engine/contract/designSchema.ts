@@ -15,27 +15,41 @@ export const DEFAULT_SWEEP_POINTS = 400;
 const num = (unit: string) => z.number({ error: `must be a number (${unit})` });
 const positive = (unit: string) => num(unit).positive({ error: 'must be > 0' });
 const nonNegative = (unit: string) => num(unit).nonnegative({ error: 'must be ≥ 0' });
+/** > 0 and inside a sane physical range, so the arithmetic never under- or overflows. */
+const inRange = (unit: string, min: number, max: number) =>
+	positive(unit)
+		.min(min, { error: `must be ≥ ${min} ${unit}` })
+		.max(max, { error: `must be ≤ ${max} ${unit}` });
 
 export const capacitorBranchSchema = z.object({
-	c: positive('F'),
-	esr: nonNegative('Ω').default(0),
-	esl: nonNegative('H').default(0),
+	c: inRange('F', 1e-12, 100),
+	esr: nonNegative('Ω')
+		.max(1e3, { error: 'must be ≤ 1000 Ω' })
+		.refine((x) => x === 0 || x >= 1e-9, { error: 'must be 0 or ≥ 1e-9 Ω' })
+		.default(0),
+	esl: nonNegative('H')
+		.max(1e-3, { error: 'must be ≤ 0.001 H' })
+		.refine((x) => x === 0 || x >= 1e-15, { error: 'must be 0 or ≥ 1e-15 H' })
+		.default(0),
 	count: num('parts').int({ error: 'must be a whole number' }).min(1, { error: 'must be ≥ 1' }).max(1000, { error: 'must be ≤ 1000' }).default(1)
 });
 
 export const plantSchema = z
 	.object({
 		topology: z.enum(['buck', 'boost'], { error: 'must be "buck" or "boost"' }),
-		vin: positive('V'),
-		vout: positive('V'),
-		iout: positive('A'),
-		fsw: positive('Hz'),
-		inductor: z.object({ l: positive('H'), dcr: nonNegative('Ω').default(0) }, { error: 'must be an object { l, dcr }' }),
+		vin: inRange('V', 1e-3, 1e5),
+		vout: inRange('V', 1e-3, 1e5),
+		iout: inRange('A', 1e-6, 1e5),
+		fsw: inRange('Hz', 1, 1e9),
+		inductor: z.object(
+			{ l: inRange('H', 1e-12, 100), dcr: nonNegative('Ω').max(1e3, { error: 'must be ≤ 1000 Ω' }).default(0) },
+			{ error: 'must be an object { l, dcr }' }
+		),
 		capacitors: z
 			.array(capacitorBranchSchema, { error: 'must be a list of capacitor branches' })
 			.min(1, { error: 'needs at least one capacitor branch' })
 			.max(8, { error: 'at most 8 capacitor branches' }),
-		rdsOn: nonNegative('Ω').default(0)
+		rdsOn: nonNegative('Ω').max(1e3, { error: 'must be ≤ 1000 Ω' }).default(0)
 	})
 	.superRefine((p, ctx) => {
 		if (p.topology === 'buck' && !(p.vout < p.vin)) {
@@ -47,20 +61,20 @@ export const plantSchema = z
 	});
 
 export const modulatorSchema = z.object({
-	vramp: positive('V'),
+	vramp: inRange('V', 1e-6, 1e4),
 	feedForward: z.boolean({ error: 'must be true or false' }).default(false),
 	delay: nonNegative('s').max(1, { error: 'must be ≤ 1 s' }).default(0)
 });
 
 export const feedbackSchema = z.object({
-	vref: positive('V'),
-	r1: positive('Ω')
+	vref: inRange('V', 1e-3, 1e5),
+	r1: inRange('Ω', 1e-3, 1e9)
 });
 
 const rangeSweepSchema = z
 	.object({
-		startHz: positive('Hz'),
-		stopHz: positive('Hz'),
+		startHz: inRange('Hz', 1e-6, 1e12),
+		stopHz: inRange('Hz', 1e-6, 1e12),
 		points: num('points')
 			.int({ error: 'must be a whole number' })
 			.min(2, { error: 'must be ≥ 2' })
@@ -75,7 +89,7 @@ const rangeSweepSchema = z
 const listSweepSchema = z
 	.object({
 		freqHz: z
-			.array(positive('Hz'), { error: 'must be a list of frequencies (Hz)' })
+			.array(inRange('Hz', 1e-6, 1e12), { error: 'must be a list of frequencies (Hz)' })
 			.min(1, { error: 'needs at least one frequency' })
 			.max(MAX_SWEEP_POINTS, { error: `at most ${MAX_SWEEP_POINTS} frequencies` })
 	})

@@ -8,8 +8,9 @@ import type { ZodError } from 'zod';
 export interface ContractError {
 	error: {
 		/** 'invalid-design' for a document that breaks a rule; 'compensator-infeasible' when the
-		 * requested compensator cannot be built for this plant. */
-		code: 'invalid-design' | 'compensator-infeasible';
+		 * requested compensator cannot be built for this plant; 'analysis-failed' for an
+		 * unexpected numerical failure inside the engine (a bug to report, never a crash). */
+		code: 'invalid-design' | 'compensator-infeasible' | 'analysis-failed';
 		message: string;
 		fields: Record<string, string>;
 	};

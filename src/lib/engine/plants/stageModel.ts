@@ -105,10 +105,12 @@ export function stageFeatures(p: StageParameters, t: StageTransferFunctions): Pl
 	const esrZeroHz = t.network.branches
 		.filter((b) => b.esr > 0)
 		.map((b) => 1 / (2 * Math.PI * b.esr * b.c))
+		.filter(Number.isFinite)
 		.sort((a, b) => a - b);
 	const selfResonanceHz = t.network.branches
 		.filter((b) => b.esl > 0)
 		.map((b) => 1 / (2 * Math.PI * Math.sqrt(b.esl * b.c)))
+		.filter(Number.isFinite)
 		.sort((a, b) => a - b);
 	const dc = 1 - p.duty;
 	const rhpZeroHz = p.topology === 'boost' ? (dc * dc * p.rLoad - p.rSeries) / (2 * Math.PI * p.l) : null;
