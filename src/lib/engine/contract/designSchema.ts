@@ -12,7 +12,8 @@ export const SCHEMA_VERSION = 1;
 export const MAX_SWEEP_POINTS = 20000;
 export const DEFAULT_SWEEP_POINTS = 400;
 
-const num = (unit: string) => z.number({ error: `must be a number (${unit})` });
+const missingOr = (message: string) => (issue: { input?: unknown }) => (issue.input === undefined ? 'is required' : message);
+const num = (unit: string) => z.number({ error: missingOr(`must be a number (${unit})`) });
 const positive = (unit: string) => num(unit).positive({ error: 'must be > 0' });
 const nonNegative = (unit: string) => num(unit).nonnegative({ error: 'must be ≥ 0' });
 /** > 0 and inside a sane physical range, so the arithmetic never under- or overflows. */
@@ -21,7 +22,8 @@ const inRange = (unit: string, min: number, max: number) =>
 		.min(min, { error: `must be ≥ ${min} ${unit}` })
 		.max(max, { error: `must be ≤ ${max} ${unit}` });
 
-export const capacitorBranchSchema = z.object({
+export const capacitorBranchSchema = z.object(
+	{
 	c: inRange('F', 1e-12, 100),
 	esr: nonNegative('Ω')
 		.max(1e3, { error: 'must be ≤ 1000 Ω' })
@@ -32,25 +34,27 @@ export const capacitorBranchSchema = z.object({
 		.refine((x) => x === 0 || x >= 1e-15, { error: 'must be 0 or ≥ 1e-15 H' })
 		.default(0),
 	count: num('parts').int({ error: 'must be a whole number' }).min(1, { error: 'must be ≥ 1' }).max(1000, { error: 'must be ≤ 1000' }).default(1)
-});
+	},
+	{ error: missingOr('must be an object { c, esr, esl, count }') }
+);
 
 export const plantSchema = z
 	.object({
-		topology: z.enum(['buck', 'boost'], { error: 'must be "buck" or "boost"' }),
+		topology: z.enum(['buck', 'boost'], { error: missingOr('must be "buck" or "boost"') }),
 		vin: inRange('V', 1e-3, 1e5),
 		vout: inRange('V', 1e-3, 1e5),
 		iout: inRange('A', 1e-6, 1e5),
 		fsw: inRange('Hz', 1, 1e9),
 		inductor: z.object(
 			{ l: inRange('H', 1e-12, 100), dcr: nonNegative('Ω').max(1e3, { error: 'must be ≤ 1000 Ω' }).default(0) },
-			{ error: 'must be an object { l, dcr }' }
+			{ error: missingOr('must be an object { l, dcr }') }
 		),
 		capacitors: z
 			.array(capacitorBranchSchema, { error: 'must be a list of capacitor branches' })
 			.min(1, { error: 'needs at least one capacitor branch' })
 			.max(8, { error: 'at most 8 capacitor branches' }),
 		rdsOn: nonNegative('Ω').max(1e3, { error: 'must be ≤ 1000 Ω' }).default(0)
-	})
+	}, { error: missingOr('must be an object') })
 	.superRefine((p, ctx) => {
 		if (p.topology === 'buck' && !(p.vout < p.vin)) {
 			ctx.addIssue({ code: 'custom', path: ['vout'], message: 'must be < vin for a buck' });
@@ -64,12 +68,12 @@ export const modulatorSchema = z.object({
 	vramp: inRange('V', 1e-6, 1e4),
 	feedForward: z.boolean({ error: 'must be true or false' }).default(false),
 	delay: nonNegative('s').max(1, { error: 'must be ≤ 1 s' }).default(0)
-});
+}, { error: missingOr('must be an object { vramp, feedForward, delay }') });
 
 export const feedbackSchema = z.object({
 	vref: inRange('V', 1e-3, 1e5),
 	r1: inRange('Ω', 1e-3, 1e9)
-});
+}, { error: missingOr('must be an object { vref, r1 }') });
 
 const rangeSweepSchema = z
 	.object({
@@ -101,12 +105,12 @@ export const sweepSchema = z.union([rangeSweepSchema, listSweepSchema], {
 
 export const designDocumentSchema = z
 	.object({
-		schemaVersion: z.literal(SCHEMA_VERSION, { error: `must be ${SCHEMA_VERSION}` }),
+		schemaVersion: z.literal(SCHEMA_VERSION, { error: missingOr(`must be ${SCHEMA_VERSION}`) }),
 		name: z.string().max(200).optional(),
 		plant: plantSchema,
 		modulator: modulatorSchema,
 		feedback: feedbackSchema,
-		compensator: compensatorSchema,
+		compensator: z.custom<unknown>((v) => v !== undefined, { error: 'is required' }).pipe(compensatorSchema),
 		sweep: sweepSchema.optional()
 	})
 	.superRefine((d, ctx) => {
