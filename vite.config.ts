@@ -25,6 +25,8 @@ export default defineConfig({
 					name: 'integration',
 					include: ['tests/integration/**/*.test.ts'],
 					environment: 'node',
+					// Migrates the test database and serves the app once for every integration file.
+					globalSetup: ['./tests/integration/support/global-setup.ts'],
 					// One MariaDB, shared tables: run files one after another.
 					fileParallelism: false,
 					testTimeout: 30_000,

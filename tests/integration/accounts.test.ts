@@ -3,22 +3,20 @@
 // personal API tokens that act with their owner's role until revoked.
 import './support/env';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { startApp, type RunningApp } from './support/app';
+import { servedApp } from './support/app';
 import { Client, PASSWORD, signUp, uniqueEmail } from './support/client';
 import { buildTeam, testDb, type Team } from './support/fixtures';
 import { firstLink, waitForMail } from './support/mail';
 
-let app: RunningApp;
+const app = servedApp();
 let team: Team;
 const { db, pool } = testDb();
 
 beforeAll(async () => {
-	app = await startApp();
 	team = await buildTeam(app.origin, db);
 });
 
 afterAll(async () => {
-	await app?.stop();
 	await pool.end();
 });
 

@@ -2,24 +2,22 @@
 // engine-validated design documents, metrics at every corner, and the sign-off flow.
 import './support/env';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { startApp, type RunningApp } from './support/app';
+import { servedApp } from './support/app';
 import { buckDesign } from './support/designs';
 import { buildTeam, railBody, testDb, type Team } from './support/fixtures';
 
-let app: RunningApp;
+const app = servedApp();
 let team: Team;
 const { db, pool } = testDb();
 let railId: string;
 
 beforeAll(async () => {
-	app = await startApp();
 	team = await buildTeam(app.origin, db);
 	const project = await team.as.engineer.post(`/api/v1/projects?workspace=${team.workspaceId}`, { name: 'Loop board' });
 	railId = (await team.as.engineer.post(`/api/v1/projects/${project.body.id}/rails`, railBody())).body.id;
 });
 
 afterAll(async () => {
-	await app?.stop();
 	await pool.end();
 });
 

@@ -8,12 +8,12 @@ import { join, relative } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { can, ROLES, type Action, type Role } from '../../src/lib/server/authz/permissions';
 import { invitation, loopRevision, member, user, type LoopStatus } from '../../src/lib/server/db/schema';
-import { startApp, type RunningApp } from './support/app';
+import { servedApp } from './support/app';
 import { Client } from './support/client';
 import { buckDesign } from './support/designs';
 import { buildTeam, railBody, testDb, type Team } from './support/fixtures';
 
-let app: RunningApp;
+const app = servedApp();
 let team: Team;
 const { db, pool } = testDb();
 let projectId: string;
@@ -22,7 +22,6 @@ let loopId: string;
 let templateId: string;
 
 beforeAll(async () => {
-	app = await startApp();
 	team = await buildTeam(app.origin, db);
 	const owner = team.as.owner;
 	projectId = (await owner.post(`/api/v1/projects?workspace=${team.workspaceId}`, { name: 'Matrix board' })).body.id;
@@ -32,7 +31,6 @@ beforeAll(async () => {
 });
 
 afterAll(async () => {
-	await app?.stop();
 	await pool.end();
 });
 

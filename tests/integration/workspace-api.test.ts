@@ -2,21 +2,19 @@
 // access, cross-workspace isolation and the audit trail.
 import './support/env';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { startApp, type RunningApp } from './support/app';
+import { servedApp } from './support/app';
 import { Client } from './support/client';
 import { buildTeam, railBody, testDb, type Team } from './support/fixtures';
 
-let app: RunningApp;
+const app = servedApp();
 let team: Team;
 const { db, pool } = testDb();
 
 beforeAll(async () => {
-	app = await startApp();
 	team = await buildTeam(app.origin, db);
 });
 
 afterAll(async () => {
-	await app?.stop();
 	await pool.end();
 });
 

@@ -8,6 +8,7 @@ import { createConnection, createServer as createNetServer } from 'node:net';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { createServer, type ViteDevServer } from 'vite';
+import { inject } from 'vitest';
 
 export interface RunningApp {
 	origin: string;
@@ -73,7 +74,19 @@ export async function startApp(): Promise<RunningApp> {
 		mailDir: process.env.MAIL_DIR!,
 		async stop() {
 			await server.close();
+			// The app's database pool closes on adapter-node's shutdown event (db/index.ts);
+			// without it the open pool keeps vitest from exiting.
+			(process.emit as (event: string, ...args: unknown[]) => boolean)('sveltekit:shutdown', 'SIGTERM');
 			mailer?.kill('SIGTERM');
 		}
 	};
+}
+
+/** The app served by global-setup.ts, as seen from a test file. */
+export function servedApp(): { origin: string; mailDir: string } {
+	const origin = inject('appOrigin');
+	const mailDir = inject('mailDir');
+	// The captured-mail reader in the test process looks in the same folder as the server.
+	process.env.MAIL_DIR = mailDir;
+	return { origin, mailDir };
 }
