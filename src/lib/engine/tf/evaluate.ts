@@ -63,29 +63,44 @@ export function lnMagPhaseAt(c: CompiledTf, omega: number, out: Float64Array | n
 	let ph = c.phase0 + c.originPower * (Math.PI / 2) - omega * c.delayS;
 	// Running product of squared magnitudes; folded into ln when it leaves a safe range.
 	let prod = 1;
+	// Real factors two at a time: arg((1 + jx1)(1 + jx2)) = atan2(x1 + x2, 1 − x1·x2) exactly,
+	// because each term lies in (−90°, 90°), so their sum lies in (−180°, 180°): one atan2, no wrap.
 	const zr = c.zReal;
-	for (let i = 0; i < zr.length; i++) {
-		const x = omega * zr[i];
-		prod *= 1 + x * x;
-		ph += Math.atan(x);
+	let i = 0;
+	for (; i + 1 < zr.length; i += 2) {
+		const x1 = omega * zr[i];
+		const x2 = omega * zr[i + 1];
+		prod *= (1 + x1 * x1) * (1 + x2 * x2);
+		ph += Math.atan2(x1 + x2, 1 - x1 * x2);
 		if (prod > 1e200) {
 			ln += 0.5 * Math.log(prod);
 			prod = 1;
 		}
 	}
+	if (i < zr.length) {
+		const x = omega * zr[i];
+		prod *= 1 + x * x;
+		ph += Math.atan(x);
+	}
 	const pr = c.pReal;
-	for (let i = 0; i < pr.length; i++) {
-		const x = omega * pr[i];
-		prod /= 1 + x * x;
-		ph -= Math.atan(x);
+	for (i = 0; i + 1 < pr.length; i += 2) {
+		const x1 = omega * pr[i];
+		const x2 = omega * pr[i + 1];
+		prod /= (1 + x1 * x1) * (1 + x2 * x2);
+		ph -= Math.atan2(x1 + x2, 1 - x1 * x2);
 		if (prod > 1e200 || prod < 1e-200) {
 			ln += 0.5 * Math.log(prod);
 			prod = 1;
 		}
 	}
+	if (i < pr.length) {
+		const x = omega * pr[i];
+		prod /= 1 + x * x;
+		ph -= Math.atan(x);
+	}
 	const zw = c.zPairInvW;
 	const zq = c.zPairInvQ;
-	for (let i = 0; i < zw.length; i++) {
+	for (i = 0; i < zw.length; i++) {
 		const x = omega * zw[i];
 		const re = 1 - x * x;
 		const im = x * zq[i];
@@ -98,7 +113,7 @@ export function lnMagPhaseAt(c: CompiledTf, omega: number, out: Float64Array | n
 	}
 	const pw = c.pPairInvW;
 	const pq = c.pPairInvQ;
-	for (let i = 0; i < pw.length; i++) {
+	for (i = 0; i < pw.length; i++) {
 		const x = omega * pw[i];
 		const re = 1 - x * x;
 		const im = x * pq[i];
