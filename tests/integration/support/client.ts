@@ -38,6 +38,19 @@ export class Client {
 		return { status: response.status, body: parsed as T };
 	}
 
+	/** Posts an HTML form (urlencoded), as a browser without JavaScript would. */
+	async form(path: string, fields: Record<string, string>): Promise<Reply<string> & { location: string | null }> {
+		const response = await fetch(this.origin + path, {
+			method: 'POST',
+			redirect: 'manual',
+			headers: { origin: this.origin, accept: 'text/html', 'content-type': 'application/x-www-form-urlencoded', ...(this.cookie ? { cookie: this.cookie } : {}) },
+			body: new URLSearchParams(fields).toString()
+		});
+		const cookies = response.headers.getSetCookie();
+		if (cookies.length) this.cookie = mergeCookies(this.cookie, cookies);
+		return { status: response.status, body: await response.text(), location: response.headers.get('location') };
+	}
+
 	get = <T = any>(path: string) => this.request<T>('GET', path);
 	post = <T = any>(path: string, body?: unknown) => this.request<T>('POST', path, body ?? {});
 	patch = <T = any>(path: string, body?: unknown) => this.request<T>('PATCH', path, body ?? {});

@@ -1,0 +1,94 @@
+// The account pages as a browser without JavaScript uses them (HTML forms, 303 redirects,
+// session cookies), the signed-in area's redirect, and the development-only mail page.
+import './support/env';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { servedApp } from './support/app';
+import { Client, PASSWORD, uniqueEmail } from './support/client';
+import { buildTeam, testDb, type Team } from './support/fixtures';
+import { waitForMail } from './support/mail';
+
+const app = servedApp();
+let team: Team;
+const { db, pool } = testDb();
+
+beforeAll(async () => {
+	team = await buildTeam(app.origin, db);
+});
+
+afterAll(async () => {
+	await pool.end();
+});
+
+describe('account pages', () => {
+	it('signs up, signs out and signs in through the forms', async () => {
+		const browser = new Client(app.origin);
+		const email = uniqueEmail('form');
+		const tooShort = await browser.form('/sign-up', { name: 'Form User', email, password: 'short' });
+		expect(tooShort.status).toBe(400);
+		expect(tooShort.body).toContain('at least 10 characters');
+
+		const made = await browser.form('/sign-up?redirectTo=/app/boards', { name: 'Form User', email, password: PASSWORD });
+		expect(made.status).toBe(303);
+		expect(made.location).toBe('/app/boards');
+		expect((await browser.get('/api/v1/me')).body.user.email).toBe(email);
+
+		const out = await browser.form('/sign-out', {});
+		expect(out.status).toBe(303);
+		expect((await browser.get('/api/v1/me')).status).toBe(401);
+
+		const wrong = await browser.form('/sign-in', { email, password: 'not-the-password' });
+		expect(wrong.status).toBe(401);
+		expect(wrong.body).toContain('do not match an account');
+
+		const back = await browser.form('/sign-in?redirectTo=//evil.example/x', { email, password: PASSWORD });
+		expect(back.status).toBe(303);
+		// An off-site redirectTo is ignored.
+		expect(back.location).toBe('/app');
+		expect((await browser.get('/api/v1/me')).status).toBe(200);
+	});
+
+	it('sends signed-out visitors of /app to the sign-in page', async () => {
+		const reply = await fetch(`${app.origin}/app/boards?x=1`, { redirect: 'manual' });
+		expect(reply.status).toBe(303);
+		expect(reply.headers.get('location')).toBe('/sign-in?redirectTo=%2Fapp%2Fboards%3Fx%3D1');
+	});
+
+	it('mails a reset link from the forgot-password form without telling whether the address exists', async () => {
+		const anonymous = new Client(app.origin);
+		const unknown = await anonymous.form('/forgot-password', { email: uniqueEmail('nobody') });
+		const known = await anonymous.form('/forgot-password', { email: team.as.viewer.email });
+		expect(unknown.status).toBe(200);
+		expect(known.status).toBe(200);
+		const text = (html: string) => html.replace(/nobody-[^@]+@example\.test|viewer-[^@]+@example\.test/g, '<email>').replace(/<!--[\s\S]*?-->/g, '');
+		expect(text(unknown.body)).toContain('a link to set a new password is on its way');
+		expect(text(known.body)).toContain('a link to set a new password is on its way');
+		expect((await waitForMail(team.as.viewer.email)).subject).toBe('Reset your Loopwright password');
+	});
+});
+
+describe('invitation page', () => {
+	it('shows the invitation and accepts it for the invited address', async () => {
+		const email = uniqueEmail('page-invitee');
+		const sent = await team.as.owner.post(`/api/v1/workspaces/${team.workspaceId}/invitations`, { email, role: 'engineer' });
+		const invitee = new Client(app.origin);
+		const page = await invitee.request('GET', `/invitations/${sent.body.id}`);
+		expect(page.status).toBe(200);
+		expect(page.body).toContain('Workspace team');
+		await invitee.form(`/sign-up?redirectTo=/invitations/${sent.body.id}`, { name: 'Page Invitee', email, password: PASSWORD });
+		const accepted = await invitee.form(`/invitations/${sent.body.id}?/accept`, {});
+		expect(accepted.status).toBe(303);
+		expect((await invitee.get('/api/v1/me')).body.workspaces).toEqual([expect.objectContaining({ id: team.workspaceId, role: 'engineer' })]);
+		expect((await invitee.request('GET', '/invitations/00000000-0000-0000-0000-000000000000')).status).toBe(404);
+	});
+});
+
+describe('captured mail page (development)', () => {
+	it('lists captured messages for owners and refuses other roles', async () => {
+		await team.as.owner.post(`/api/v1/workspaces/${team.workspaceId}/invitations`, { email: uniqueEmail('listed'), role: 'viewer' });
+		const owner = await team.as.owner.request('GET', '/dev/mail');
+		expect(owner.status).toBe(200);
+		expect(owner.body).toContain('invited you to Workspace team');
+		expect((await team.as.viewer.request('GET', '/dev/mail')).status).toBe(403);
+		expect((await team.as.engineer.request('GET', '/dev/mail')).status).toBe(403);
+	});
+});
