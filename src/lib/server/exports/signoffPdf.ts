@@ -129,7 +129,7 @@ export function buildSignoffPdf(input: SignoffReportInput, options: PdfOptions =
 		input.plotPng ??
 		renderBodePng(
 			plotFromResponse(input.response, { fswHz: p.fsw, corners: (input.corners ?? []).map((c) => ({ label: c.label, response: c.response })) }),
-			{ width: 900, pixelWidth: 1800, roots: networkRoots(input.response) }
+			{ width: 900, pixelWidth: 1500, roots: networkRoots(input.response) }
 		);
 	const imgH = w * (530 / 900);
 	if (doc.y + imgH > doc.page.height - doc.page.margins.bottom) doc.addPage();

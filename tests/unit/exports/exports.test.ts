@@ -1,0 +1,202 @@
+/**
+ * Exports of a loop revision: CSV sweep, SVG and PNG plot, sign-off PDF, design JSON. Checks against outside facts:
+ * the PNG signature and IHDR layout [published: PNG specification, W3C/ISO 15948], the PDF header and trailer
+ * [published: ISO 32000-1 §7.5], CSV read back with papaparse and with our bench parser, JSON via the zod contract.
+ */
+import { readFileSync } from 'node:fs';
+import path from 'node:path';
+import Papa from 'papaparse';
+import { Resvg } from '@resvg/resvg-js';
+import { describe, expect, it } from 'vitest';
+import { parseBenchFile } from '$lib/bench';
+import { analyzeDesign, type AnalysisResponse } from '$lib/engine';
+import {
+	buildSignoffPdf,
+	exportDesignJson,
+	importDesignJson,
+	networkRoots,
+	plotFromResponse,
+	renderBodePng,
+	renderBodeSvg,
+	REPORT_CAUTION,
+	SWEEP_CSV_COLUMNS,
+	sweepCsv
+} from '$lib/server/exports';
+import { jetBrainsMonoTtf } from '$lib/server/exports/fonts';
+import { pdfText } from './pdfText';
+
+const load = (name: string) => JSON.parse(readFileSync(path.resolve('reference/cases', name), 'utf8'));
+function analyse(doc: unknown): AnalysisResponse {
+	const r = analyzeDesign(doc);
+	if ('error' in r) throw new Error(r.error.message);
+	return r;
+}
+const buckDoc = load('buck-ceramic-1v2.json');
+const buck = analyse(buckDoc);
+
+describe('sweepCsv', () => {
+	it('one row per frequency under a header with units; papaparse reads the numbers back', () => {
+		const csv = sweepCsv(buck);
+		const parsed = Papa.parse<string[]>(csv.trim(), { header: false });
+		expect(parsed.errors).toEqual([]);
+		expect(parsed.data[0]).toEqual([...SWEEP_CSV_COLUMNS]);
+		expect(parsed.data).toHaveLength(buck.response.freqHz.length + 1);
+		const i = 123;
+		const row = parsed.data[i + 1].map(Number);
+		expect(row[0] / buck.response.freqHz[i]).toBeCloseTo(1, 9);
+		expect(row[1]).toBeCloseTo(buck.response.loop.magDb[i], 7);
+		expect(row[6]).toBeCloseTo(buck.response.compensator.phaseDeg[i], 7);
+	});
+
+	it('reads back through the bench parser as a loop gain with the same crossover', () => {
+		const r = parseBenchFile(sweepCsv(buck));
+		if (!r.ok) throw new Error(JSON.stringify(r.errors));
+		expect(r.data.format.columns.gain.name).toBe('Loop gain (dB)');
+		expect(r.data.magDb).toHaveLength(buck.response.freqHz.length);
+		r.data.phaseDeg.forEach((p, i) => expect(p).toBeCloseTo(buck.response.loop.phaseDeg[i], 6));
+	});
+});
+
+describe('renderBodeSvg', () => {
+	const plot = plotFromResponse(buck, { fswHz: buckDoc.plant.fsw, title: 'buck-ceramic-1v2' });
+
+	it('draws every trace as a path, in the palette and JetBrains Mono, with the chips, and no NaN', () => {
+		const svg = renderBodeSvg(plot, { roots: networkRoots(buck) });
+		expect(svg.startsWith('<svg xmlns="http://www.w3.org/2000/svg"')).toBe(true);
+		expect(svg).not.toMatch(/NaN|Infinity|undefined/);
+		const traces = svg.match(/<path d="M[^"]+" fill="none"/g) ?? [];
+		expect(traces.length).toBe(6); // loop, plant, network × magnitude, phase
+		expect(svg).toContain('font-family="JetBrains Mono, monospace"');
+		expect(svg).toContain('#0e6f68'); // magnitude teal [identity sheet]
+		expect(svg).toContain('#b4531a'); // phase orange [identity sheet]
+		expect(svg).toMatch(/fc [\d.]+ kHz · PM [\d.]+°/);
+		expect(svg).toMatch(/GM [\d.]+ dB at/);
+		expect(svg).toContain('url(#hatch)'); // the band above fsw/2
+	});
+
+	it('non-finite samples become gaps, never NaN coordinates; the dark theme swaps the palette', () => {
+		const broken = {
+			...plot,
+			traces: plot.traces.map((t) => ({ ...t, magDb: Array.from(t.magDb, (v, i) => (i % 7 === 0 ? NaN : i % 11 === 0 ? Infinity : v)) }))
+		};
+		const svg = renderBodeSvg(broken, { theme: 'dark' });
+		expect(svg).not.toMatch(/NaN|Infinity/);
+		expect(svg).toContain('#33c2b5');
+		expect(svg).not.toContain('#0e6f68');
+	});
+
+	it('an empty plot still renders a valid frame', () => {
+		const svg = renderBodeSvg({ freqHz: [], traces: [], crossover: null, gainMargin: null, modelLimitHz: null });
+		expect(svg).not.toMatch(/NaN|Infinity/);
+		expect(() => new Resvg(svg, { font: { loadSystemFonts: false } }).render()).not.toThrow();
+	});
+});
+
+describe('renderBodePng', () => {
+	it('PNG signature, IHDR chunk and the requested width; height keeps the aspect ratio', () => {
+		const png = renderBodePng(plotFromResponse(buck, { fswHz: buckDoc.plant.fsw }), { width: 900, pixelWidth: 1200 });
+		// [published: PNG spec §5.2 signature 89 50 4E 47 0D 0A 1A 0A; §11.2.2 IHDR first, width then height, big-endian]
+		expect([...png.subarray(0, 8)]).toEqual([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]);
+		expect(png.subarray(12, 16).toString('ascii')).toBe('IHDR');
+		expect(png.readUInt32BE(16)).toBe(1200);
+		const svg = renderBodeSvg(plotFromResponse(buck), { width: 900 });
+		const h = Number(/height="(\d+)"/.exec(svg)![1]);
+		expect(png.readUInt32BE(20)).toBe(Math.round((h * 1200) / 900));
+	});
+
+	it('the npm TTF draws text: a label renders ink pixels with the bundled font and none without fonts', () => {
+		const svg = '<svg xmlns="http://www.w3.org/2000/svg" width="120" height="30"><text x="4" y="20" font-family="JetBrains Mono" font-size="16" fill="#000">fc 60k</text></svg>';
+		const ink = (fontFiles: string[]) => {
+			const px = new Resvg(svg, { font: { loadSystemFonts: false, fontFiles, defaultFontFamily: 'JetBrains Mono' } }).render().pixels;
+			let n = 0;
+			for (let i = 3; i < px.length; i += 4) if (px[i] > 0) n++;
+			return n;
+		};
+		expect(ink([jetBrainsMonoTtf()])).toBeGreaterThan(50);
+		expect(ink([])).toBe(0);
+	});
+});
+
+// pdfkit splits the PNG's alpha channel in JavaScript: about a second per report on 2 cores.
+describe('buildSignoffPdf', { timeout: 30_000 }, () => {
+	const corners = [
+		{ label: 'Vin max, Iout min', doc: { ...buckDoc, plant: { ...buckDoc.plant, vin: buckDoc.plant.vin * 1.1, iout: buckDoc.plant.iout * 0.5 } } },
+		{ label: 'Vin min, Iout max', doc: { ...buckDoc, plant: { ...buckDoc.plant, vin: buckDoc.plant.vin * 0.9 } } }
+	].map((c) => ({ label: c.label, vin: c.doc.plant.vin, iout: c.doc.plant.iout, response: analyse(c.doc) }));
+
+	it('a PDF with header and trailer, the plot image, the embedded mono font, and every section in its text', async () => {
+		const pdf = await buildSignoffPdf({
+			rail: { name: '1V2_CORE', board: 'Demo board' },
+			revision: { label: 'r3', author: 'Ada Engineer', createdAt: '2026-11-30T10:00:00Z', status: 'approved' },
+			document: buckDoc,
+			response: buck,
+			corners,
+			review: [
+				{ at: '2026-11-30T11:00:00Z', who: 'Ada Engineer', action: 'requested review' },
+				{ at: '2026-11-30T12:00:00Z', who: 'Bo Reviewer', action: 'approved', note: 'Margins fine at both corners', freqHz: 58000 }
+			],
+			generatedAt: new Date('2026-12-01T09:00:00Z')
+		});
+		// [published: ISO 32000-1 §7.5.2 header "%PDF-1.n", §7.5.5 file ends with %%EOF]
+		expect(pdf.subarray(0, 5).toString('latin1')).toBe('%PDF-');
+		expect(pdf.subarray(-6).toString('latin1')).toMatch(/%%EOF\s*$/);
+		const raw = pdf.toString('latin1');
+		expect(raw).toMatch(/\/Subtype \/Image/);
+		expect(raw).toMatch(/\/FontFile2/);
+		const t = pdfText(pdf);
+		const text = t.standardText.replace(/\s+/g, ' ');
+		for (const s of ['Loop sign-off report', 'Rail 1V2_CORE on board Demo board', 'Design', 'Margins', 'Parts list', 'Review trail', 'Cautions']) {
+			expect(text).toContain(s);
+		}
+		expect(text).toContain('Small-signal estimate; confirm margins and transients on hardware');
+		expect(text).toContain('above 60 V DC or at mains follow the applicable safety standards and licensed practice');
+		expect(t.embeddedRuns).toBeGreaterThan(30); // values, table cells, parts in JetBrains Mono
+		expect(t.pages).toBeGreaterThanOrEqual(2);
+		// the caution footer on every page
+		expect(t.standardText.split(`Page `).length - 1).toBe(t.pages);
+	});
+
+	it('above 60 V the caution box says so prominently', async () => {
+		const doc = load('boost-bank-12v-24v.json');
+		doc.plant.vin = 48;
+		doc.plant.vout = 72;
+		const pdf = await buildSignoffPdf({ rail: { name: '72V_BUS' }, revision: { label: 'r1' }, document: doc, response: analyse(doc) });
+		const text = pdfText(pdf).standardText.replace(/\s+/g, ' ');
+		expect(text).toContain('HIGH VOLTAGE: this rail works at 72 V, above 60 V DC.');
+		expect(text).toContain('No review steps recorded');
+		expect(REPORT_CAUTION).toMatch(/licensed practice\.$/);
+	});
+});
+
+describe('design JSON export and import', () => {
+	it('round trip: export then import gives the same validated document', () => {
+		const out = exportDesignJson(buckDoc);
+		if (!out.ok) throw new Error(out.error.message);
+		const back = importDesignJson(out.json);
+		if (!back.ok) throw new Error(back.error.message);
+		expect(back.document).toEqual(JSON.parse(out.json));
+		expect(analyse(back.document).metrics).toEqual(buck.metrics);
+	});
+
+	it('import names the broken field', () => {
+		const doc = structuredClone(buckDoc);
+		doc.plant.capacitors[0].c = -1;
+		delete doc.feedback.vref;
+		const r = importDesignJson(JSON.stringify(doc));
+		expect(r.ok).toBe(false);
+		if (!r.ok) {
+			expect(r.error.code).toBe('invalid-design');
+			expect(r.error.fields['plant.capacitors.0.c']).toBe('must be > 0');
+			expect(r.error.fields['feedback.vref']).toBeDefined();
+		}
+	});
+
+	it('text that is not JSON, a newer schema version, and an oversized file are field errors, not throws', () => {
+		const bad = importDesignJson('{"plant": ');
+		expect(!bad.ok && bad.error.fields['(document)']).toMatch(/not valid JSON/);
+		const newer = importDesignJson(JSON.stringify({ ...buckDoc, schemaVersion: 2 }));
+		expect(!newer.ok && newer.error.fields.schemaVersion).toMatch(/reads up to 1/);
+		const big = importDesignJson(' '.repeat(1024 * 1024 + 1));
+		expect(!big.ok && big.error.fields['(document)']).toMatch(/larger than/);
+	});
+});
