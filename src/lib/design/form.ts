@@ -308,7 +308,7 @@ export function demoForm(): DesignForm {
 		vinMax: '13.2',
 		vout: '1.2',
 		iout: '8',
-		ioutMin: '0.8',
+		ioutMin: '2',
 		ioutMax: '10',
 		fsw: '600k',
 		l: '1u',
@@ -339,3 +339,122 @@ export function demoForm(): DesignForm {
 
 /** Writes engine numbers back into fields in engineering notation (after a drag or a placement switch). */
 export const toField = (value: number, unit: UnitSymbol = '', digits = 4) => formatForInput(value, unit, digits);
+
+/** What the design screen needs of a stored rail (the workspace API's rail shape). */
+export interface RailSummary {
+	name: string;
+	topology: 'buck' | 'boost';
+	vout: number;
+	vinNom: number;
+	vinMin: number;
+	vinMax: number;
+	ioutNom: number;
+	ioutMin: number;
+	ioutMax: number;
+	fsw: number;
+	effectiveMarginTargets?: { phaseMarginDeg: number; gainMarginDb: number; maxCrossoverFraction: number } | null;
+}
+
+const f = (v: number | undefined, unit: UnitSymbol = '') => (v === undefined || v === null ? '' : toField(v, unit));
+
+/** A first design for a rail with no saved loop: inductor for ~30 % ripple, four 22 µF ceramics, a K-factor Type III. */
+export function starterForm(rail: RailSummary): DesignForm {
+	const base = demoForm();
+	const buck = rail.topology === 'buck';
+	const duty = buck ? rail.vout / rail.vinNom : 1 - rail.vinNom / rail.vout;
+	const inductorCurrent = buck ? rail.ioutNom : rail.ioutNom / (1 - duty);
+	// ΔIL = 0.3·IL: L = Vout(1 − D)/(ΔIL·fsw) for a buck, Vin·D/(ΔIL·fsw) for a boost [common practice].
+	const l = (buck ? rail.vout * (1 - duty) : rail.vinNom * duty) / (0.3 * inductorCurrent * rail.fsw);
+	const vref = Math.min(0.6, rail.vout);
+	const targets = rail.effectiveMarginTargets;
+	return {
+		...base,
+		name: rail.name,
+		topology: rail.topology,
+		vin: f(rail.vinNom, 'V'),
+		vinMin: f(rail.vinMin, 'V'),
+		vinMax: f(rail.vinMax, 'V'),
+		vout: f(rail.vout, 'V'),
+		iout: f(rail.ioutNom, 'A'),
+		ioutMin: f(rail.ioutMin, 'A'),
+		ioutMax: f(rail.ioutMax, 'A'),
+		fsw: f(rail.fsw, 'Hz'),
+		l: toField(Number(l.toPrecision(2)), 'H'),
+		capacitors: [capacitorRow('22u', '3m', '0', '4')],
+		vref: f(vref, 'V'),
+		fcTarget: toField(rail.fsw / 10, 'Hz', 3),
+		pmTarget: String(targets?.phaseMarginDeg ?? 50),
+		gmTarget: String(targets?.gainMarginDb ?? 10),
+		method: 'k-factor'
+	};
+}
+
+type DocLike = {
+	name?: string;
+	plant: {
+		topology: 'buck' | 'boost';
+		vin: number;
+		vout: number;
+		iout: number;
+		fsw: number;
+		inductor: { l: number; dcr?: number };
+		capacitors: { c: number; esr?: number; esl?: number; count?: number }[];
+		rdsOn?: number;
+	};
+	modulator: { vramp: number; feedForward?: boolean; delay?: number };
+	feedback: { vref: number; r1: number };
+	compensator: {
+		kind: CompensatorKind;
+		parts?: Partial<Record<PartName, number>>;
+		target?: { method: 'k-factor' | 'features' | 'manual'; crossoverHz?: number; phaseMarginDeg?: number; zerosHz?: number[]; polesHz?: number[]; midbandGainDb?: number };
+		series?: { resistors: SeriesName | null; capacitors: SeriesName | null } | null;
+		opamp?: { a0Db: number; gbw: number };
+	};
+};
+
+/** A saved design document back into the form (corners and the GM target come from the rail). */
+export function formFromDocument(doc: DocLike, rail: RailSummary | null, gmTarget = 10): DesignForm {
+	const p = doc.plant;
+	const c = doc.compensator;
+	const t = c.target;
+	const networkParts = !!c.parts && ['r2', 'r3', 'c1', 'c2', 'c3'].some((k) => c.parts![k as PartName] !== undefined);
+	const method: PlacementMethod = networkParts || !t ? 'parts' : t.method;
+	const parts = Object.fromEntries(PART_NAMES.map((k) => [k, f(c.parts?.[k], PART_FIELDS[k].unit)])) as Record<PartName, string>;
+	const n = KIND_CORNERS[c.kind];
+	const pad = (list: number[] | undefined) => Array.from({ length: Math.max(n, 2) }, (_, i) => (list?.[i] !== undefined ? toField(list[i], 'Hz') : ''));
+	return {
+		name: doc.name ?? rail?.name ?? '',
+		topology: p.topology,
+		vin: f(p.vin, 'V'),
+		vinMin: f(rail?.vinMin ?? p.vin, 'V'),
+		vinMax: f(rail?.vinMax ?? p.vin, 'V'),
+		vout: f(p.vout, 'V'),
+		iout: f(p.iout, 'A'),
+		ioutMin: f(rail?.ioutMin ?? p.iout, 'A'),
+		ioutMax: f(rail?.ioutMax ?? p.iout, 'A'),
+		fsw: f(p.fsw, 'Hz'),
+		l: f(p.inductor.l, 'H'),
+		dcr: f(p.inductor.dcr ?? 0, 'Ω'),
+		rdsOn: f(p.rdsOn ?? 0, 'Ω'),
+		capacitors: p.capacitors.map((b) => capacitorRow(f(b.c, 'F'), f(b.esr ?? 0, 'Ω'), f(b.esl ?? 0, 'H'), String(b.count ?? 1))),
+		vramp: f(doc.modulator.vramp, 'V'),
+		feedForward: doc.modulator.feedForward ?? false,
+		delay: f(doc.modulator.delay ?? 0, 's'),
+		vref: f(doc.feedback.vref, 'V'),
+		r1: f(doc.feedback.r1, 'Ω'),
+		fcTarget: f(t?.crossoverHz ?? p.fsw / 10, 'Hz'),
+		pmTarget: String(t?.phaseMarginDeg ?? rail?.effectiveMarginTargets?.phaseMarginDeg ?? 50),
+		gmTarget: String(rail?.effectiveMarginTargets?.gainMarginDb ?? gmTarget),
+		kind: c.kind,
+		method,
+		zeros: pad(t?.zerosHz),
+		poles: pad(t?.polesHz),
+		midbandDb: t?.midbandGainDb !== undefined ? toField(t.midbandGainDb, '', 4) : '',
+		parts,
+		seriesR: c.series === null ? 'none' : (c.series?.resistors ?? (c.series === undefined ? 'E96' : 'none')),
+		seriesC: c.series === null ? 'none' : (c.series?.capacitors ?? (c.series === undefined ? 'E12' : 'none')),
+		opamp: !!c.opamp,
+		a0Db: String(c.opamp?.a0Db ?? 100),
+		gbw: f(c.opamp?.gbw ?? 10e6, 'Hz')
+	};
+}

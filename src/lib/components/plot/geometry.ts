@@ -15,7 +15,9 @@ export function tracePath(
 ): string {
 	const n = Math.min(freqHz.length, values.length);
 	const idx = Array.from({ length: n }, (_, i) => i);
+	// A tenth of a pixel is finer than any screen; shorter strings build and parse faster.
 	const path = line<number>()
+		.digits(1)
 		.defined((i) => freqHz[i] > 0 && Number.isFinite(freqHz[i]) && Number.isFinite(values[i]))
 		.x((i) => x(freqHz[i]))
 		.y((i) => y(values[i]));
