@@ -135,6 +135,9 @@ def write(name, text):
 
 
 def main():
+    global OUT
+    if '--out' in sys.argv:  # regeneration check writes elsewhere
+        OUT = sys.argv[sys.argv.index('--out') + 1]
     os.makedirs(OUT, exist_ok=True)
     expected = {
         'generator': 'reference/bench/generate.py',

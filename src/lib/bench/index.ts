@@ -8,3 +8,5 @@ export { benchMetrics, measuredCrossovers, measuredPhaseCrossovers, reduceDeg, t
 export { benchDeviation, sampledEvaluator, type DeviationOptions, type DeviationResult } from './deviation';
 export { unwrapPhaseDeg } from './unwrap';
 export { matchHeader, headerTokens } from './columns';
+export { benchMetadataSchema, type BenchMetadata } from './metadata';
+export { benchOverlay, type BenchOverlay } from './overlay';

@@ -324,6 +324,5 @@ function latin(s: string): string {
 		.replace(/≥/g, '>=')
 		.replace(/≤/g, '<=')
 		.replace(/Ω/g, ' ohm')
-		.replace(/·/g, '·')
 		.replace(/[^\x20-\x7e\xa0-\xff]/g, '?');
 }
