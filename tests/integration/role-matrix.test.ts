@@ -7,6 +7,7 @@ import { readdirSync, readFileSync, statSync } from 'node:fs';
 import { join, relative } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { can, ROLES, type Action, type Role } from '../../src/lib/server/authz/permissions';
+import { documentedRoutes } from '../../src/lib/server/openapi';
 import { invitation, loopRevision, member, user, type LoopStatus } from '../../src/lib/server/db/schema';
 import { servedApp } from './support/app';
 import { Client } from './support/client';
@@ -197,6 +198,8 @@ const personal: { method: RouteCase['method']; route: string; path: () => string
 ];
 /** Personal routes whose id must belong to the caller; checked in their own test. */
 const personalWithId = ['DELETE /api/v1/tokens/[id]'];
+/** Needs no caller at all: it describes the API, never data. */
+const publicRoutes = ['GET /api/v1/openapi.json'];
 
 describe('role × route matrix', () => {
 	for (const c of cases) {
@@ -249,8 +252,20 @@ describe('role × route matrix', () => {
 			}
 		};
 		walk(join(root, 'api', 'v1'));
-		const covered = new Set([...cases.map((c) => `${c.method} ${c.route}`), ...personal.map((p) => `${p.method} ${p.route}`), ...personalWithId]);
+		const covered = new Set([...cases.map((c) => `${c.method} ${c.route}`), ...personal.map((p) => `${p.method} ${p.route}`), ...personalWithId, ...publicRoutes]);
 		expect(found.filter((r) => !covered.has(r))).toEqual([]);
 		expect(found.length).toBeGreaterThan(25);
+		// The OpenAPI document lists every handler except itself.
+		const documented = new Set(documentedRoutes());
+		expect(found.filter((r) => !documented.has(r) && !publicRoutes.includes(r))).toEqual([]);
+	});
+
+	it('serves the OpenAPI document to anyone, with the roles from the table', async () => {
+		const reply = await new Client(app.origin).get('/api/v1/openapi.json');
+		expect(reply.status).toBe(200);
+		expect(reply.body.openapi).toBe('3.1.0');
+		const approve = reply.body.paths['/api/v1/loops/{id}/review'].post;
+		expect(approve.description).toContain('`loop.approve`: owner, reviewer');
+		expect(reply.body.paths['/api/v1/projects/{id}/rails'].post.requestBody.content['application/json'].schema.properties.name.pattern).toBe('^[A-Z0-9][A-Z0-9_]{0,63}$');
 	});
 });
