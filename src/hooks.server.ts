@@ -34,6 +34,9 @@ const identify: Handle = async ({ event, resolve }) => {
 	return svelteKitHandler({ event, resolve, auth, building });
 };
 
+/** Page trees only signed-in users may open (their loads check again). */
+const SIGNED_IN_AREAS = ['/w', '/app'];
+
 const guard: Handle = async ({ event, resolve }) => {
 	const path = event.url.pathname;
 	if (path.startsWith('/api/v1/') && Number(event.request.headers.get('content-length') ?? 0) > MAX_BODY_BYTES) {
@@ -42,7 +45,7 @@ const guard: Handle = async ({ event, resolve }) => {
 		response.headers.set('connection', 'close');
 		return response;
 	}
-	if ((path === '/app' || path.startsWith('/app/')) && !event.locals.user) {
+	if (SIGNED_IN_AREAS.some((area) => path === area || path.startsWith(`${area}/`)) && !event.locals.user) {
 		redirect(303, `/sign-in?redirectTo=${encodeURIComponent(path + event.url.search)}`);
 	}
 	if ((path === '/dev' || path.startsWith('/dev/')) && isProduction()) {

@@ -27,9 +27,9 @@ describe('account pages', () => {
 		expect(tooShort.status).toBe(400);
 		expect(tooShort.body).toContain('at least 10 characters');
 
-		const made = await browser.form('/sign-up?redirectTo=/app/boards', { name: 'Form User', email, password: PASSWORD });
+		const made = await browser.form('/sign-up?redirectTo=/w/boards', { name: 'Form User', email, password: PASSWORD });
 		expect(made.status).toBe(303);
-		expect(made.location).toBe('/app/boards');
+		expect(made.location).toBe('/w/boards');
 		expect((await browser.get('/api/v1/me')).body.user.email).toBe(email);
 
 		const out = await browser.form('/sign-out', {});
@@ -43,14 +43,14 @@ describe('account pages', () => {
 		const back = await browser.form('/sign-in?redirectTo=//evil.example/x', { email, password: PASSWORD });
 		expect(back.status).toBe(303);
 		// An off-site redirectTo is ignored.
-		expect(back.location).toBe('/app');
+		expect(back.location).toBe('/w');
 		expect((await browser.get('/api/v1/me')).status).toBe(200);
 	});
 
-	it('sends signed-out visitors of /app to the sign-in page', async () => {
-		const reply = await fetch(`${app.origin}/app/boards?x=1`, { redirect: 'manual' });
+	it('sends signed-out visitors of the signed-in area to the sign-in page', async () => {
+		const reply = await fetch(`${app.origin}/w/some-workspace?x=1`, { redirect: 'manual' });
 		expect(reply.status).toBe(303);
-		expect(reply.headers.get('location')).toBe('/sign-in?redirectTo=%2Fapp%2Fboards%3Fx%3D1');
+		expect(reply.headers.get('location')).toBe('/sign-in?redirectTo=%2Fw%2Fsome-workspace%3Fx%3D1');
 	});
 
 	it('mails a reset link from the forgot-password form without telling whether the address exists', async () => {
@@ -77,6 +77,7 @@ describe('invitation page', () => {
 		await invitee.form(`/sign-up?redirectTo=/invitations/${sent.body.id}`, { name: 'Page Invitee', email, password: PASSWORD });
 		const accepted = await invitee.form(`/invitations/${sent.body.id}?/accept`, {});
 		expect(accepted.status).toBe(303);
+		expect(accepted.location).toBe(`/w/${team.workspaceId}`);
 		expect((await invitee.get('/api/v1/me')).body.workspaces).toEqual([expect.objectContaining({ id: team.workspaceId, role: 'engineer' })]);
 		expect((await invitee.request('GET', '/invitations/00000000-0000-0000-0000-000000000000')).status).toBe(404);
 	});

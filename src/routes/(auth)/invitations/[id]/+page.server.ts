@@ -6,6 +6,7 @@ import { auth } from '$lib/server/auth';
 import { db } from '$lib/server/db';
 import { invitation, organization } from '$lib/server/db/schema';
 import { authFailure } from '$lib/server/http/forms';
+import { APP_HOME } from '$lib/schemas/auth';
 import type { Actions, PageServerLoad } from './$types';
 
 async function find(id: string) {
@@ -32,11 +33,12 @@ export const load: PageServerLoad = async ({ params, locals, url }) => {
 export const actions: Actions = {
 	accept: async ({ params, request, locals }) => {
 		if (!locals.user) redirect(303, `/sign-in?redirectTo=${encodeURIComponent(`/invitations/${params.id}`)}`);
+		const found = await find(params.id);
 		try {
 			await auth.api.acceptInvitation({ body: { invitationId: params.id }, headers: request.headers });
 		} catch (e) {
 			return authFailure(e, {});
 		}
-		redirect(303, '/app');
+		redirect(303, `${APP_HOME}/${found?.workspaceId ?? ''}`);
 	}
 };
