@@ -41,13 +41,17 @@ function decodeBody(body: string, encoding: string | undefined): string {
 	}
 }
 
-/** Decodes RFC 2047 encoded words such as `=?UTF-8?Q?Caf=C3=A9?=`. */
+/**
+ * Decodes RFC 2047 encoded words such as `=?UTF-8?Q?Caf=C3=A9?=` (UTF-8 and ASCII charsets;
+ * our own mail is UTF-8). Whitespace between two adjacent encoded words is dropped (§6.2).
+ */
 export function decodeWords(value: string): string {
-	return value.replace(/=\?([^?]+)\?([QqBb])\?([^?]*)\?=\s*/g, (_all, _charset, kind: string, data: string) =>
-		kind.toUpperCase() === 'B'
-			? Buffer.from(data, 'base64').toString('utf8')
-			: decodeQuotedPrintable(data.replace(/_/g, ' '))
-	);
+	const word = /=\?([^?]+)\?([QqBb])\?([^?]*)\?=/g;
+	return value
+		.replace(/(=\?[^?]+\?[QqBb]\?[^?]*\?=)\s+(?==\?[^?]+\?[QqBb]\?[^?]*\?=)/g, '$1')
+		.replace(word, (_all, _charset, kind: string, data: string) =>
+			kind.toUpperCase() === 'B' ? Buffer.from(data, 'base64').toString('utf8') : decodeQuotedPrintable(data.replace(/_/g, ' '))
+		);
 }
 
 function textPart(headers: Map<string, string>, body: string): string | null {
