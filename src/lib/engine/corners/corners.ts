@@ -1,0 +1,188 @@
+/**
+ * Corner analysis: every input voltage (min/nom/max) × load (min/max) and the tolerance
+ * corners of the parts (each at 1 ± tol). All sign combinations of the tolerances are run
+ * when their count fits `maxCorners`; otherwise each part alone at ±tol, plus, per metric,
+ * the combination whose one-at-a-time effects all worsen that metric (a linearised worst
+ * case, labelled as such). Margins from analysis/margins (formulas §7); worst fc (lowest and
+ * highest), PM and GM with the corner that sets each; the loop traces of those corners.
+ */
+import { loopMetrics } from '../analysis/margins';
+import { isDesignInputError } from '../errors';
+import { frequencyResponse } from '../tf/evaluate';
+import { buildLoop, type LoopSpec } from './loopModel';
+import { applyVariation, partsPresent, type PartName, type Variation } from './variation';
+
+export interface CornerSettings {
+	vin?: { min: number; max: number };
+	iout?: { min: number; max: number };
+	/** Relative tolerance (0.1 = ±10 %) per part; parts the loop lacks are ignored. */
+	tolerances?: Partial<Record<PartName, number>>;
+	/** Limit on the number of corners before falling back to one-at-a-time [4096]. */
+	maxCorners?: number;
+}
+
+export interface CornerPoint {
+	vin: number;
+	iout: number;
+	/** Multiplier applied to each toleranced part (only parts ≠ 1 listed). */
+	factors: Partial<Record<PartName, number>>;
+	/** How the corner was chosen. */
+	kind: 'nominal' | 'operating' | 'exhaustive' | 'one-at-a-time' | 'linearised-worst';
+}
+
+export interface CornerResult extends CornerPoint {
+	crossoverHz: number | null;
+	phaseMarginDeg: number | null;
+	gainMarginDb: number | null;
+	closedLoopStable: boolean | null;
+	/** Warning codes of the plant model at this corner (e.g. dcm-operating-point). */
+	warnings: string[];
+	/** The design cannot be modelled here (e.g. duty limit); metrics are null. */
+	error: string | null;
+}
+
+export interface WorstCase {
+	value: number;
+	corner: CornerResult;
+}
+
+export interface CornerReport {
+	mode: 'exhaustive' | 'one-at-a-time';
+	corners: CornerResult[];
+	worst: {
+		phaseMarginDeg: WorstCase | null;
+		gainMarginDb: WorstCase | null;
+		crossoverLowHz: WorstCase | null;
+		crossoverHighHz: WorstCase | null;
+	};
+	/** Any corner unstable or not modelled. */
+	unstableCorners: number;
+	failedCorners: number;
+	/** Loop Bode traces of the nominal and the worst corners, for overlaid plots. */
+	traces: { label: string; corner: CornerPoint; magDb: number[]; phaseDeg: number[] }[];
+}
+
+/** Metrics of one variant of the loop. */
+export function evaluateVariant(spec: LoopSpec, v: Variation): Omit<CornerResult, keyof CornerPoint> {
+	try {
+		const s = applyVariation(spec, v);
+		const built = buildLoop(s);
+		const m = loopMetrics(built.loop, s.rangeHz);
+		return {
+			crossoverHz: m.crossoverHz,
+			phaseMarginDeg: m.phaseMarginDeg,
+			gainMarginDb: m.gainMarginDb,
+			closedLoopStable: m.closedLoopStable,
+			warnings: built.plant.warnings.map((w) => w.code),
+			error: null
+		};
+	} catch (e) {
+		if (!isDesignInputError(e) && !(e instanceof RangeError)) throw e;
+		return { crossoverHz: null, phaseMarginDeg: null, gainMarginDb: null, closedLoopStable: null, warnings: [], error: e.message };
+	}
+}
+
+const uniq = (xs: number[]) => [...new Set(xs)];
+
+export function runCorners(spec: LoopSpec, settings: CornerSettings, freqHz?: ArrayLike<number>): CornerReport {
+	const vin0 = spec.stage.vin;
+	const iout0 = spec.stage.iout;
+	const vins = settings.vin ? uniq([settings.vin.min, vin0, settings.vin.max]) : [vin0];
+	const iouts = settings.iout ? uniq([settings.iout.min, settings.iout.max]) : [iout0];
+	const present = new Set(partsPresent(spec));
+	const tol = Object.entries(settings.tolerances ?? {}).filter(
+		([name, t]) => present.has(name as PartName) && typeof t === 'number' && t > 0
+	) as [PartName, number][];
+	const maxCorners = settings.maxCorners ?? 4096;
+	const ops = vins.flatMap((vin) => iouts.map((iout) => ({ vin, iout })));
+	const exhaustive = ops.length * 2 ** tol.length <= maxCorners;
+
+	const corners: CornerResult[] = [];
+	const run = (p: CornerPoint) => {
+		const r = { ...p, ...evaluateVariant(spec, { vin: p.vin, iout: p.iout, factors: p.factors }) };
+		corners.push(r);
+		return r;
+	};
+	run({ vin: vin0, iout: iout0, factors: {}, kind: 'nominal' });
+	for (const op of ops) {
+		if (op.vin === vin0 && op.iout === iout0 && tol.length === 0) continue;
+		if (exhaustive) {
+			for (let mask = 0; mask < 2 ** tol.length; mask++) {
+				const factors: Partial<Record<PartName, number>> = {};
+				tol.forEach(([name, t], i) => (factors[name] = mask & (1 << i) ? 1 + t : 1 - t));
+				run({ ...op, factors, kind: tol.length ? 'exhaustive' : 'operating' });
+			}
+			continue;
+		}
+		const centre = run({ ...op, factors: {}, kind: 'operating' });
+		// One part at a time, then the linearised worst combination per metric.
+		const effect: Record<string, { up: CornerResult; down: CornerResult }> = {};
+		for (const [name, t] of tol) {
+			effect[name] = {
+				up: run({ ...op, factors: { [name]: 1 + t }, kind: 'one-at-a-time' }),
+				down: run({ ...op, factors: { [name]: 1 - t }, kind: 'one-at-a-time' })
+			};
+		}
+		const metrics: [keyof CornerResult, 1 | -1][] = [
+			['phaseMarginDeg', -1],
+			['gainMarginDb', -1],
+			['crossoverHz', -1],
+			['crossoverHz', 1]
+		];
+		for (const [metric, worse] of metrics) {
+			const factors: Partial<Record<PartName, number>> = {};
+			for (const [name, t] of tol) {
+				const up = effect[name].up[metric] as number | null;
+				const down = effect[name].down[metric] as number | null;
+				const c = centre[metric] as number | null;
+				if (up === null || down === null || c === null) continue;
+				factors[name] = worse * (up - down) >= 0 ? 1 + t : 1 - t;
+			}
+			run({ ...op, factors, kind: 'linearised-worst' });
+		}
+	}
+
+	const pick = (key: 'phaseMarginDeg' | 'gainMarginDb' | 'crossoverHz', sign: 1 | -1): WorstCase | null => {
+		let best: WorstCase | null = null;
+		for (const c of corners) {
+			const v = c[key];
+			if (v === null) continue;
+			if (!best || sign * v < sign * best.value) best = { value: v, corner: c };
+		}
+		return best;
+	};
+	const worst = {
+		phaseMarginDeg: pick('phaseMarginDeg', 1),
+		gainMarginDb: pick('gainMarginDb', 1),
+		crossoverLowHz: pick('crossoverHz', 1),
+		crossoverHighHz: pick('crossoverHz', -1)
+	};
+	const traces: CornerReport['traces'] = [];
+	if (freqHz) {
+		const grid = Float64Array.from(freqHz);
+		const add = (label: string, c: CornerPoint | undefined) => {
+			if (!c) return;
+			try {
+				const r = frequencyResponse(buildLoop(applyVariation(spec, c)).loop, grid);
+				traces.push({ label, corner: strip(c), magDb: Array.from(r.magDb), phaseDeg: Array.from(r.phaseDeg) });
+			} catch (e) {
+				if (!isDesignInputError(e) && !(e instanceof RangeError)) throw e;
+			}
+		};
+		add('nominal', corners[0]);
+		add('worst phase margin', worst.phaseMarginDeg?.corner);
+		add('worst gain margin', worst.gainMarginDb?.corner);
+		add('lowest crossover', worst.crossoverLowHz?.corner);
+		add('highest crossover', worst.crossoverHighHz?.corner);
+	}
+	return {
+		mode: exhaustive ? 'exhaustive' : 'one-at-a-time',
+		corners,
+		worst,
+		unstableCorners: corners.filter((c) => c.closedLoopStable === false).length,
+		failedCorners: corners.filter((c) => c.error !== null).length,
+		traces
+	};
+}
+
+const strip = (c: CornerPoint): CornerPoint => ({ vin: c.vin, iout: c.iout, factors: c.factors, kind: c.kind });

@@ -1,0 +1,67 @@
+/**
+ * One variant of a loop: another input voltage or load, and multipliers on part values.
+ * Part names follow the design document (plant: l, dcr, rdsOn, c, esr, esl; compensator: r1,
+ * r2, r3, c1, c2, c3, gm, ro; modulator: vramp). `c`, `esr`, `esl` scale every capacitor
+ * branch, or each branch separately through `branchFactors`. Rb stays as built: a tolerance
+ * on R1 moves Gc; the output voltage is taken as nominal (the small-signal model's point).
+ */
+import type { NetworkParts } from '../synthesis/networks';
+import type { LoopSpec } from './loopModel';
+
+export const PLANT_PARTS = ['l', 'dcr', 'rdsOn', 'c', 'esr', 'esl'] as const;
+export const COMPENSATOR_PARTS = ['r1', 'r2', 'r3', 'c1', 'c2', 'c3', 'gm', 'ro'] as const;
+export const MODULATOR_PARTS = ['vramp'] as const;
+export const PART_NAMES = [...PLANT_PARTS, ...COMPENSATOR_PARTS, ...MODULATOR_PARTS] as const;
+export type PartName = (typeof PART_NAMES)[number];
+
+export interface Variation {
+	vin?: number;
+	iout?: number;
+	/** Multiplier per part (1 = nominal). */
+	factors?: Partial<Record<PartName, number>>;
+	/** Per-branch multipliers for c, esr, esl (index = capacitor branch), applied after `factors`. */
+	branchFactors?: { c?: readonly number[]; esr?: readonly number[]; esl?: readonly number[] };
+}
+
+/** Parts a spec actually has (a Type II has no r3; an ideal OTA no ro; dcr = 0 has nothing to vary). */
+export function partsPresent(spec: LoopSpec): PartName[] {
+	const out: PartName[] = ['l', 'c', 'vramp'];
+	if (spec.stage.dcr > 0) out.push('dcr');
+	if (spec.stage.rdsOn > 0) out.push('rdsOn');
+	if (spec.stage.capacitors.some((b) => b.esr > 0)) out.push('esr');
+	if (spec.stage.capacitors.some((b) => b.esl > 0)) out.push('esl');
+	const p = spec.parts as unknown as Record<string, unknown>;
+	for (const name of COMPENSATOR_PARTS) if (typeof p[name] === 'number' && (p[name] as number) > 0) out.push(name);
+	return out;
+}
+
+export function applyVariation(spec: LoopSpec, v: Variation): LoopSpec {
+	const f = (name: PartName) => v.factors?.[name] ?? 1;
+	const bf = v.branchFactors ?? {};
+	const s = spec.stage;
+	const capacitors = s.capacitors.map((b, i) => ({
+		c: b.c * f('c') * (bf.c?.[i] ?? 1),
+		esr: b.esr * f('esr') * (bf.esr?.[i] ?? 1),
+		esl: b.esl * f('esl') * (bf.esl?.[i] ?? 1),
+		count: b.count
+	}));
+	const parts = { ...spec.parts } as Record<string, unknown>;
+	for (const name of COMPENSATOR_PARTS) {
+		const value = parts[name];
+		if (typeof value === 'number') parts[name] = value * f(name);
+	}
+	return {
+		...spec,
+		stage: {
+			...s,
+			vin: v.vin ?? s.vin,
+			iout: v.iout ?? s.iout,
+			l: s.l * f('l'),
+			dcr: s.dcr * f('dcr'),
+			rdsOn: s.rdsOn * f('rdsOn'),
+			capacitors
+		},
+		modulator: { ...spec.modulator, vramp: spec.modulator.vramp * f('vramp') },
+		parts: parts as unknown as NetworkParts
+	};
+}
