@@ -3,7 +3,7 @@
 // (the one `npm test` started, or our own child process of scripts/mail-fake.ts).
 import './env';
 import { spawn, type ChildProcess } from 'node:child_process';
-import { mkdtemp } from 'node:fs/promises';
+import { mkdtemp, rm } from 'node:fs/promises';
 import { createConnection, createServer as createNetServer } from 'node:net';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -35,14 +35,16 @@ function listening(port: number): Promise<boolean> {
 	});
 }
 
-async function ensureMailFake(): Promise<ChildProcess | null> {
+/** Our own fake SMTP server and its folder, when no fake was listening already. */
+async function ensureMailFake(): Promise<{ child: ChildProcess; dir: string } | null> {
 	if (process.env.SMTP_PORT && process.env.MAIL_DIR && (await listening(Number(process.env.SMTP_PORT)))) return null;
 	const port = await freePort();
 	process.env.SMTP_PORT = String(port);
 	process.env.MAIL_DIR = await mkdtemp(join(tmpdir(), 'loopwright-mail-'));
-	const child = spawn('npx', ['tsx', 'scripts/mail-fake.ts'], { env: process.env, stdio: 'ignore' });
+	// One process (node with tsx's loader), so stop() reaches the server itself and not a wrapper.
+	const child = spawn(process.execPath, ['--import', 'tsx', 'scripts/mail-fake.ts'], { env: process.env, stdio: 'ignore' });
 	for (let i = 0; i < 80 && !(await listening(port)); i++) await new Promise((r) => setTimeout(r, 100));
-	return child;
+	return { child, dir: process.env.MAIL_DIR };
 }
 
 async function migrate() {
@@ -77,7 +79,10 @@ export async function startApp(): Promise<RunningApp> {
 			// The app's database pool closes on adapter-node's shutdown event (db/index.ts);
 			// without it the open pool keeps vitest from exiting.
 			(process.emit as (event: string, ...args: unknown[]) => boolean)('sveltekit:shutdown', 'SIGTERM');
-			mailer?.kill('SIGTERM');
+			if (mailer) {
+				mailer.child.kill('SIGTERM');
+				await rm(mailer.dir, { recursive: true, force: true });
+			}
 		}
 	};
 }

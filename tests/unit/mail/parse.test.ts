@@ -1,13 +1,13 @@
 // The fake SMTP server's message reader against messages nodemailer itself encodes
 // (quoted-printable, base64, RFC 2047 subjects, multipart/alternative): what goes in must
 // come back out.
-import nodemailer from 'nodemailer';
+import nodemailer, { type SendMailOptions } from 'nodemailer';
 import { describe, expect, it } from 'vitest';
 import { decodeWords, parseMessage } from '../../../src/lib/server/mail/parse';
 
 const composer = nodemailer.createTransport({ streamTransport: true, buffer: true, newline: 'windows' });
 
-async function raw(options: nodemailer.SendMailOptions): Promise<string> {
+async function raw(options: SendMailOptions): Promise<string> {
 	const info = await composer.sendMail({ from: 'a@example.test', to: 'b@example.test', ...options });
 	return (info.message as Buffer).toString('utf8');
 }
