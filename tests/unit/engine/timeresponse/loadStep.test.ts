@@ -126,3 +126,13 @@ describe('load-step rule of thumb', () => {
 		expect(peak).toBeGreaterThan(1.5 * ls.ruleOfThumb!.capacitiveV);
 	});
 });
+
+describe('loadStep schema', () => {
+	it('defaults the rise time and band, and names bad fields', async () => {
+		const { loadStepSchema } = await import('../../../../src/lib/engine/timeresponse/schema');
+		expect(loadStepSchema.parse({ step: 2 })).toEqual({ step: 2, riseTime: 1e-6, settleFraction: 0.02 });
+		const bad = loadStepSchema.safeParse({ step: 0, riseTime: -1 });
+		expect(bad.success).toBe(false);
+		expect(bad.error!.issues.map((i) => i.path.join('.'))).toEqual(['step', 'riseTime']);
+	});
+});
