@@ -27,9 +27,16 @@ function div(a: Complex, b: Complex): Complex {
 	return { re: (a.re * b.re + a.im * b.im) / d, im: (a.im * b.re - a.re * b.im) / d };
 }
 
-export function modalForm(tf: FactoredTf): ModalForm {
+/**
+ * Partial fractions of tf. `splitRelative` > 0 moves each pole that lies within that relative
+ * distance of an earlier one by splitRelative·|p| (along its own direction), so a double pole
+ * gets finite residues; the response then changes by about that relative amount.
+ */
+export function modalForm(tf: FactoredTf, splitRelative = 0): ModalForm {
 	if (tf.delayS) throw new RangeError('modal form: replace the delay by a Padé approximant first');
-	const { zeros, poles, k } = toZpk(tf);
+	const zpk = toZpk(tf);
+	const { zeros, k } = zpk;
+	const poles = splitRelative > 0 ? splitPoles(zpk.poles, splitRelative) : zpk.poles;
 	if (zeros.length > poles.length) throw new RangeError('modal form: improper transfer function');
 	const direct = zeros.length === poles.length ? k : 0;
 	let minSeparation = Infinity;
@@ -47,6 +54,19 @@ export function modalForm(tf: FactoredTf): ModalForm {
 		return div(num, den);
 	});
 	return { poles, residues, direct, minSeparation };
+}
+
+function splitPoles(poles: Complex[], rel: number): Complex[] {
+	const out: Complex[] = [];
+	for (const p of poles) {
+		let q = p;
+		for (let tries = 1; out.some((o) => Math.hypot(o.re - q.re, o.im - q.im) <= rel * Math.hypot(q.re, q.im)); tries++) {
+			// Scale the magnitude (keeps conjugate pairs conjugate: both members move alike).
+			q = { re: p.re * (1 + rel * tries * 1.5), im: p.im * (1 + rel * tries * 1.5) };
+		}
+		out.push(q);
+	}
+	return out;
 }
 
 /** φ1(z) = (e^z − 1)/z and φ2(z) = (e^z − 1 − z)/z² for complex z. */

@@ -136,3 +136,16 @@ describe('loadStep schema', () => {
 		expect(bad.error!.issues.map((i) => i.path.join('.'))).toEqual(['step', 'riseTime']);
 	});
 });
+
+describe('repeated poles', () => {
+	it('a double pole (split internally) still gives y = 1 − (1 + ωt)e^(−ωt) [hand-derived]', () => {
+		const w = 1000;
+		const tf: FactoredTf = { gain: 1, originPower: 0, zeros: [], poles: [{ kind: 'real', omega: w }, { kind: 'real', omega: w }] };
+		const r = stepResponse(tf, 1, 0, 'tracking', { durationS: 0.02, steps: 20000 });
+		expect(r.method).toBe('modal-split-poles');
+		for (const k of [500, 2000, 8000]) {
+			const t = r.waveform.timeS[k];
+			expect(r.waveform.value[k]).toBeCloseTo(1 - (1 + w * t) * Math.exp(-w * t), 4);
+		}
+	});
+});
