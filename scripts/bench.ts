@@ -1,8 +1,10 @@
 /**
- * `npm run bench`: full loop metrics for 10 000 random buck and boost designs with the engine,
- * then reference/bench_numpy.py (a dense 500-point numpy sweep with sign-change search, what an
- * engineer would write instead) on the same designs, exchanged through a temporary JSON file.
- * Prints ms per design for both, their ratio and the largest phase-margin difference.
+ * `npm run bench`: full loop metrics for 10 000 random buck and boost designs with the engine
+ * (analyzeDesign with includeResponse: false: every metric and the closed-loop poles, no Bode
+ * arrays), then reference/bench_numpy.py (a dense 500-point numpy sweep with sign-change search,
+ * what an engineer would write instead) on the same designs, exchanged through a temporary JSON
+ * file. Engine and numpy alternate for BENCH_RUNS rounds [3]; it prints each round and the
+ * medians: ms per design for both, their ratio and the largest phase-margin difference.
  * A benchmark, never a test: nothing here asserts a time.
  */
 import { spawnSync } from 'node:child_process';
@@ -16,7 +18,11 @@ import { analyzeDesign } from '../src/lib/engine';
 const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
 const COUNT = Number(process.env.BENCH_COUNT ?? 10_000);
 const SEED = Number(process.env.BENCH_SEED ?? 20261201);
+const RUNS = Math.max(1, Math.floor(Number(process.env.BENCH_RUNS ?? 3)));
 const SWEEP_POINTS = 500;
+// "Full metrics" = every field of the response's `metrics` (crossings, margins, closed-loop
+// poles) and the operating point; the Bode arrays are a plotting concern and are left out.
+const OPTIONS = { includeResponse: false } as const;
 // Designs analysed once before timing so the JIT has compiled the hot paths (numpy has no warm-up).
 const WARMUP = 200;
 
@@ -70,10 +76,10 @@ interface Metrics {
 
 function runEngine(designs: Doc[]): { msPerDesign: number; metrics: Metrics[] } {
 	const metrics: Metrics[] = new Array(designs.length);
-	for (let i = 0; i < Math.min(WARMUP, designs.length); i++) analyzeDesign(designs[i]);
+	for (let i = 0; i < Math.min(WARMUP, designs.length); i++) analyzeDesign(designs[i], OPTIONS);
 	const t0 = performance.now();
 	for (let i = 0; i < designs.length; i++) {
-		const res = analyzeDesign(designs[i]);
+		const res = analyzeDesign(designs[i], OPTIONS);
 		if ('error' in res) throw new Error(`design ${i} rejected: ${res.error.message}`);
 		metrics[i] = res.metrics;
 	}
@@ -81,39 +87,56 @@ function runEngine(designs: Doc[]): { msPerDesign: number; metrics: Metrics[] } 
 	return { msPerDesign: elapsed / designs.length, metrics };
 }
 
-function runNumpy(designs: Doc[]): { msPerDesign: number; wallMs: number; numpy: string; metrics: Metrics[] } {
-	const dir = mkdtempSync(path.join(tmpdir(), 'loopwright-bench-'));
-	try {
-		const inFile = path.join(dir, 'designs.json');
-		const outFile = path.join(dir, 'results.json');
-		writeFileSync(inFile, JSON.stringify({ designs }));
-		const t0 = performance.now();
-		const run = spawnSync('python3', [path.join(ROOT, 'reference', 'bench_numpy.py'), inFile, outFile], { encoding: 'utf8' });
-		const wallMs = performance.now() - t0;
-		if (run.status !== 0) throw new Error(`reference/bench_numpy.py failed (status ${run.status}): ${run.stderr}`);
-		const out = JSON.parse(readFileSync(outFile, 'utf8'));
-		return { msPerDesign: out.msPerDesign, wallMs, numpy: out.numpy, metrics: out.results };
-	} finally {
-		rmSync(dir, { recursive: true, force: true });
-	}
+function runNumpy(dir: string): { msPerDesign: number; wallMs: number; numpy: string; metrics: Metrics[] } {
+	const inFile = path.join(dir, 'designs.json');
+	const outFile = path.join(dir, 'results.json');
+	const t0 = performance.now();
+	const run = spawnSync('python3', [path.join(ROOT, 'reference', 'bench_numpy.py'), inFile, outFile], { encoding: 'utf8' });
+	const wallMs = performance.now() - t0;
+	if (run.status !== 0) throw new Error(`reference/bench_numpy.py failed (status ${run.status}): ${run.stderr}`);
+	const out = JSON.parse(readFileSync(outFile, 'utf8'));
+	return { msPerDesign: out.msPerDesign, wallMs, numpy: out.numpy, metrics: out.results };
 }
+
+const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
 
 function main() {
 	const designs = makeDesigns(COUNT, SEED);
-	console.log(`Loopwright bench: ${COUNT} designs (buck and boost, seed ${SEED}), sweep 10 Hz to fsw/2`);
-	const ts = runEngine(designs);
-	console.log(`engine (TypeScript, full metrics):     ${ts.msPerDesign.toFixed(4)} ms per design (after ${WARMUP} warm-up designs)`);
-	const py = runNumpy(designs);
-	console.log(`numpy ${py.numpy} (${SWEEP_POINTS}-point sweep):      ${py.msPerDesign.toFixed(4)} ms per design` +
-		` (${(py.wallMs / 1000).toFixed(1)} s wall time with start-up and file exchange)`);
-	const ratio = py.msPerDesign / ts.msPerDesign;
+	console.log(`Loopwright bench: ${COUNT} designs (buck and boost, seed ${SEED}), sweep 10 Hz to fsw/2, ${RUNS} round(s)`);
+	console.log('engine: analyzeDesign(doc, { includeResponse: false }) = full metrics and closed-loop poles, no Bode arrays');
+	const dir = mkdtempSync(path.join(tmpdir(), 'loopwright-bench-'));
+	writeFileSync(path.join(dir, 'designs.json'), JSON.stringify({ designs }));
+	const tsMs: number[] = [];
+	const pyMs: number[] = [];
+	let ts: ReturnType<typeof runEngine> | null = null;
+	let py: ReturnType<typeof runNumpy> | null = null;
+	try {
+		for (let round = 1; round <= RUNS; round++) {
+			ts = runEngine(designs);
+			py = runNumpy(dir);
+			tsMs.push(ts.msPerDesign);
+			pyMs.push(py.msPerDesign);
+			console.log(
+				`round ${round}: engine ${ts.msPerDesign.toFixed(4)} ms per design (after ${WARMUP} warm-up designs), ` +
+					`numpy ${py.numpy} (${SWEEP_POINTS}-point sweep) ${py.msPerDesign.toFixed(4)} ms per design ` +
+					`(${(py.wallMs / 1000).toFixed(1)} s wall time with start-up and file exchange), ratio ${(py.msPerDesign / ts.msPerDesign).toFixed(2)}`
+			);
+		}
+	} finally {
+		rmSync(dir, { recursive: true, force: true });
+	}
+	const tsMed = median(tsMs);
+	const pyMed = median(pyMs);
+	console.log(`engine (TypeScript, full metrics):     ${tsMed.toFixed(4)} ms per design (median of ${RUNS})`);
+	console.log(`numpy ${py!.numpy} (${SWEEP_POINTS}-point sweep):      ${pyMed.toFixed(4)} ms per design (median of ${RUNS})`);
+	const ratio = pyMed / tsMed;
 	console.log(`ratio numpy / engine:                  ${ratio.toFixed(2)} (engine ${ratio >= 1 ? `${ratio.toFixed(2)}x faster` : `${(1 / ratio).toFixed(2)}x slower`}; target: at least 2x faster)`);
 
 	let worst = { diff: -1, index: -1, engine: NaN, numpy: NaN };
 	let disagree = 0;
 	for (let i = 0; i < designs.length; i++) {
-		const a = ts.metrics[i].phaseMarginDeg;
-		const b = py.metrics[i].phaseMarginDeg;
+		const a = ts!.metrics[i].phaseMarginDeg;
+		const b = py!.metrics[i].phaseMarginDeg;
 		if (a === null || b === null) {
 			if (a !== b) disagree++;
 			continue;
@@ -121,7 +144,7 @@ function main() {
 		const diff = Math.abs(a - b);
 		if (diff > worst.diff) worst = { diff, index: i, engine: a, numpy: b };
 	}
-	console.log(`largest PM difference:                 ${worst.diff.toFixed(4)}° (design ${worst.index}, ${designs[worst.index]?.plant.topology}: engine ${worst.engine.toFixed(4)}°, numpy ${worst.numpy.toFixed(4)}°)`);
+	console.log(`largest PM difference:                 ${worst.diff.toFixed(4)}° (design ${worst.index}, ${designs[worst.index]?.plant.topology}: engine ${worst.engine.toFixed(4)}°, numpy ${worst.numpy.toFixed(4)}°; target: within 0.1°)`);
 	if (disagree) console.log(`designs where only one side found a crossover: ${disagree}`);
 }
 
