@@ -33,3 +33,15 @@ export function railCorners(rail: RailOperatingRange): Corner[] {
 	}
 	return corners;
 }
+
+/** One corner's stored analysis summary (Vin × Iout); `error` when the engine refused that corner. */
+export interface CornerMetrics {
+	corner: Corner;
+	crossoverHz: number | null;
+	phaseMarginDeg: number | null;
+	gainMarginDb: number | null;
+	closedLoopStable: boolean | null;
+	/** The engine's warning codes at this corner. */
+	warnings: string[];
+	error?: string;
+}

@@ -10,16 +10,8 @@ export type MarginTargets = z.infer<typeof marginTargetsSchema>;
 /** Part and input tolerances of a rail, in percent (±). */
 export type RailTolerances = z.infer<typeof tolerancesSchema>;
 
-/** One corner's analysis summary (Vin × Iout); `error` when the engine refused that corner. */
-export interface CornerMetrics {
-	corner: { vin: number; iout: number; label: string };
-	crossoverHz: number | null;
-	phaseMarginDeg: number | null;
-	gainMarginDb: number | null;
-	closedLoopStable: boolean | null;
-	warnings: string[];
-	error?: string;
-}
+/** Stored per loop revision; shared with the browser, so it lives in $lib/corners. */
+export type { CornerMetrics } from '../../corners';
 
 /** Who performs a write; recorded in the audit log. */
 export interface Actor {
