@@ -1,0 +1,77 @@
+// The JSON shapes the pages read from /api/v1 (dates arrive as ISO strings). Input fields come
+// from the shared zod schemas so that a rail here and a rail in the API are one definition.
+import type { z } from 'zod';
+import type { marginTargetsSchema, RailInput } from '$lib/schemas/workspace';
+
+export type MarginTargets = z.infer<typeof marginTargetsSchema>;
+
+export interface WorkspaceSummary {
+	id: string;
+	name: string;
+	slug: string;
+	role: string;
+}
+
+export interface Me {
+	user: { id: string; email: string; name: string };
+	activeWorkspaceId: string | null;
+	workspaces: WorkspaceSummary[];
+}
+
+export interface Project {
+	id: string;
+	workspaceId: string;
+	name: string;
+	description: string | null;
+	railCount?: number;
+	createdAt: string;
+	updatedAt: string;
+}
+
+export interface Page<T> {
+	items: T[];
+	page: { limit: number; offset: number; total: number };
+}
+
+export type Rail = RailInput & {
+	id: string;
+	workspaceId: string;
+	projectId: string;
+	effectiveMarginTargets: MarginTargets;
+	latestRevision: number | null;
+	createdAt: string;
+	updatedAt: string;
+};
+
+/** One corner's stored analysis summary (see the loops service). */
+export interface CornerMetrics {
+	corner: { vin: number; iout: number; label: string };
+	crossoverHz: number | null;
+	phaseMarginDeg: number | null;
+	gainMarginDb: number | null;
+	closedLoopStable: boolean | null;
+	warnings: string[];
+	error?: string;
+}
+
+export type LoopStatus = 'draft' | 'in-review' | 'approved' | 'changes-requested';
+
+export interface LoopSummary {
+	id: string;
+	railId: string;
+	revision: number;
+	status: LoopStatus;
+	message: string;
+	metrics: CornerMetrics[];
+	authorName: string | null;
+	createdAt: string;
+}
+
+export interface MemberRow {
+	id: string;
+	userId: string;
+	name: string;
+	email: string;
+	role: string;
+	joinedAt: string;
+}
