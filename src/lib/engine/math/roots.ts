@@ -115,17 +115,51 @@ function evalWithDerivative(b: number[], xr: number, xi: number): [number, numbe
 	return [pr, pi, dr, di];
 }
 
+/**
+ * Aberth–Ehrlich sweeps (Gauss–Seidel order: each update uses the newest neighbours). A root
+ * stops once |p(z)| is at the level of the rounding error of evaluating p there
+ * (|p(z)| ≤ 4ε·Σ|b_k||z|^k, Bini 1996) or its step is below 4ε·|z|; further sweeps could not
+ * improve it and would only cost time.
+ */
 function aberth(b: number[], maxIterations: number): Complex[] {
-	const z = initialGuesses(b);
-	const m = z.length;
-	const done = new Array<boolean>(m).fill(false);
-	for (let iter = 0; iter < maxIterations; iter++) {
-		let allDone = true;
+	const z0 = initialGuesses(b);
+	const m = z0.length;
+	const zr = new Float64Array(m);
+	const zi = new Float64Array(m);
+	for (let i = 0; i < m; i++) {
+		zr[i] = z0[i].re;
+		zi[i] = z0[i].im;
+	}
+	const n = b.length - 1;
+	const absB = new Float64Array(n + 1);
+	for (let k = 0; k <= n; k++) absB[k] = Math.abs(b[k]);
+	const done = new Uint8Array(m);
+	let left = m;
+	for (let iter = 0; iter < maxIterations && left > 0; iter++) {
 		for (let i = 0; i < m; i++) {
 			if (done[i]) continue;
-			const [pr, pi, dr, di] = evalWithDerivative(b, z[i].re, z[i].im);
-			if (pr === 0 && pi === 0) {
-				done[i] = true;
+			const xr = zr[i];
+			const xi = zi[i];
+			// Horner for p, p' and the rounding bound Σ|b_k||x|^k, one pass.
+			let pr = 0;
+			let pi = 0;
+			let dr = 0;
+			let di = 0;
+			let bound = 0;
+			const ax = Math.sqrt(xr * xr + xi * xi);
+			for (let k = n; k >= 0; k--) {
+				const ndr = dr * xr - di * xi + pr;
+				di = dr * xi + di * xr + pi;
+				dr = ndr;
+				const npr = pr * xr - pi * xi + b[k];
+				pi = pr * xi + pi * xr;
+				pr = npr;
+				bound = bound * ax + absB[k];
+			}
+			const pAbs = Math.sqrt(pr * pr + pi * pi);
+			if (pAbs <= 4 * Number.EPSILON * bound) {
+				done[i] = 1;
+				left--;
 				continue;
 			}
 			// ratio = p/p'
@@ -133,7 +167,7 @@ function aberth(b: number[], maxIterations: number): Complex[] {
 			let rr: number;
 			let ri: number;
 			if (dd === 0) {
-				rr = 1e-3 * (1 + Math.hypot(z[i].re, z[i].im));
+				rr = 1e-3 * (1 + ax);
 				ri = rr;
 			} else {
 				rr = (pr * dr + pi * di) / dd;
@@ -144,12 +178,12 @@ function aberth(b: number[], maxIterations: number): Complex[] {
 			let si = 0;
 			for (let j = 0; j < m; j++) {
 				if (j === i) continue;
-				const er = z[i].re - z[j].re;
-				const ei = z[i].im - z[j].im;
+				const er = xr - zr[j];
+				const ei = xi - zi[j];
 				const e2 = er * er + ei * ei;
 				if (e2 === 0) continue;
 				sr += er / e2;
-				si += -ei / e2;
+				si -= ei / e2;
 			}
 			// w = ratio / (1 − ratio·sum)
 			const denR = 1 - (rr * sr - ri * si);
@@ -157,13 +191,17 @@ function aberth(b: number[], maxIterations: number): Complex[] {
 			const den2 = denR * denR + denI * denI;
 			const wr = den2 === 0 ? rr : (rr * denR + ri * denI) / den2;
 			const wi = den2 === 0 ? ri : (ri * denR - rr * denI) / den2;
-			z[i] = { re: z[i].re - wr, im: z[i].im - wi };
-			if (Math.hypot(wr, wi) <= 4e-16 * Math.hypot(z[i].re, z[i].im)) done[i] = true;
-			else allDone = false;
+			zr[i] = xr - wr;
+			zi[i] = xi - wi;
+			if (Math.sqrt(wr * wr + wi * wi) <= 4e-16 * Math.sqrt(zr[i] * zr[i] + zi[i] * zi[i])) {
+				done[i] = 1;
+				left--;
+			}
 		}
-		if (allDone) break;
 	}
-	return z;
+	const out: Complex[] = new Array(m);
+	for (let i = 0; i < m; i++) out[i] = { re: zr[i], im: zi[i] };
+	return out;
 }
 
 /** A few Newton steps; keeps the step only while it lowers |p|. */
