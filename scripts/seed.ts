@@ -4,16 +4,7 @@
 // row 'demo-v1'); every step also finds before it creates, so a half-finished run can resume.
 // Run: npx tsx scripts/seed.ts   (npm start runs it; DB_* settings as in scripts/env.sh)
 
-/** The demo sign-in printed by `npm start` (owner of the demo workspace). */
-export const DEMO_EMAIL = 'demo@loopwright.local';
-/** Shared by every demo user. Demo data only: never reuse it anywhere real. */
-export const DEMO_PASSWORD = 'loopwright-demo';
-export const DEMO_USERS = [
-	{ role: 'owner', email: DEMO_EMAIL, name: 'Dana Okafor' },
-	{ role: 'engineer', email: 'engineer@loopwright.local', name: 'Ilse Marchetti' },
-	{ role: 'reviewer', email: 'reviewer@loopwright.local', name: 'Tomasz Lind' },
-	{ role: 'viewer', email: 'viewer@loopwright.local', name: 'Priya Raman' }
-] as const;
+import { DEMO_PASSWORD, DEMO_USERS } from './demo-users';
 
 import { randomUUID } from 'node:crypto';
 import { eq } from 'drizzle-orm';

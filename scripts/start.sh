@@ -18,7 +18,7 @@ export LOOPWRIGHT_ENV="${LOOPWRIGHT_ENV:-development}"
 
 banner() {
 	log "Loopwright is at $ORIGIN"
-	log "demo sign-in: ${DEMO_EMAIL:-demo@loopwright.local} / ${DEMO_PASSWORD:-loopwright-demo}"
+	npx tsx scripts/demo-users.ts | sed 's/^/[loopwright] /'
 	log "captured e-mail: $ORIGIN/dev/mail (owners, development only)"
 	log "stop the database afterwards with: npm run db:stop"
 }
