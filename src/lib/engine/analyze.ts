@@ -16,11 +16,17 @@ import type { PlantModel } from './plants/types';
 import { defaultSweepRange, logGrid } from './sweep/grid';
 import { multiply } from './tf/algebra';
 import { frequencyResponse } from './tf/evaluate';
+import { robustnessSections } from './closedloop/sections';
 import type { FactoredTf } from './tf/types';
 
 export interface AnalyzeOptions {
 	/** Compute the Bode arrays [true]; false leaves them empty (faster, for batch runs). */
 	includeResponse?: boolean;
+	/** Add the closed-loop section (responses, poles, load and reference steps) [includeResponse,
+	 * or true when the document has a loadStep section]. */
+	closedLoop?: boolean;
+	/** Run the corners, inputFilter and spread sections the document asks for [true]. */
+	sections?: boolean;
 }
 
 /** Everything the pipeline built, for callers that need the transfer functions too. */
@@ -197,7 +203,15 @@ function run(d: DesignDocument, options: AnalyzeOptions): AnalysisDetail {
 		},
 		warnings: mergeWarnings(plant.warnings, compensator.warnings, loopWarnings(metrics, p.fsw))
 	};
-	return { response, document: d, plant, plantLoop, compensator, loop, metrics };
+	const detail: AnalysisDetail = { response, document: d, plant, plantLoop, compensator, loop, metrics };
+	// Robustness sections: only when asked for, so batch runs (includeResponse: false) stay cheap.
+	const extra = robustnessSections(detail, { closedLoop: options.closedLoop ?? (include || d.loadStep !== undefined), sections: options.sections });
+	if (extra.closedLoop) response.closedLoop = extra.closedLoop;
+	if (extra.corners) response.corners = extra.corners;
+	if (extra.inputFilter) response.inputFilter = extra.inputFilter;
+	if (extra.spread) response.spread = extra.spread;
+	if (extra.warnings.length) response.warnings = mergeWarnings(response.warnings, extra.warnings);
+	return detail;
 }
 
 /** Warnings from the loop metrics that the compensator module does not already give. */

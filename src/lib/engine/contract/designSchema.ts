@@ -7,6 +7,10 @@
  */
 import { z } from 'zod';
 import { compensatorSchema } from '../compensators/schema';
+import { cornersSchema, tolerancesSchema } from '../corners/schema';
+import { inputFilterSchema } from '../inputfilter/schema';
+import { spreadSchema } from '../spread/schema';
+import { loadStepSchema } from '../timeresponse/schema';
 
 export const SCHEMA_VERSION = 1;
 export const MAX_SWEEP_POINTS = 20000;
@@ -111,7 +115,13 @@ export const designDocumentSchema = z
 		modulator: modulatorSchema,
 		feedback: feedbackSchema,
 		compensator: z.custom<unknown>((v) => v !== undefined, { error: 'is required' }).pipe(compensatorSchema),
-		sweep: sweepSchema.optional()
+		sweep: sweepSchema.optional(),
+		// Optional robustness sections (closed loop, corners, Monte Carlo, input filter).
+		loadStep: loadStepSchema.optional(),
+		tolerances: tolerancesSchema.optional(),
+		corners: cornersSchema.optional(),
+		spread: spreadSchema.optional(),
+		inputFilter: inputFilterSchema.optional()
 	})
 	.superRefine((d, ctx) => {
 		if (!(d.feedback.vref <= d.plant.vout)) {

@@ -2,3 +2,4 @@
 export * from './designSchema';
 export * from './responseSchema';
 export * from './errors';
+export * from './robustnessSchema';

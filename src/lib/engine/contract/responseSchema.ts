@@ -4,6 +4,7 @@
  * ±Infinity); a margin that does not exist is null and its reason is in metrics.unavailable.
  */
 import { z } from 'zod';
+import { closedLoopSectionSchema, cornersSectionSchema, inputFilterSectionSchema, spreadSectionSchema } from './robustnessSchema';
 
 const finite = z.number();
 const nullableFinite = z.number().nullable();
@@ -74,7 +75,13 @@ export const analysisResponseSchema = z.object({
 		analysedRangeHz: z.object({ startHz: finite, stopHz: finite }),
 		unavailable: z.record(z.string(), z.string())
 	}),
-	warnings: z.array(warning)
+	warnings: z.array(warning),
+	// Optional robustness sections (robustnessSchema.ts): closedLoop when the response is
+	// included or the document has loadStep; the others when the document asks for them.
+	closedLoop: closedLoopSectionSchema.optional(),
+	corners: cornersSectionSchema.optional(),
+	inputFilter: inputFilterSectionSchema.optional(),
+	spread: spreadSectionSchema.optional()
 });
 
 export type AnalysisResponse = z.infer<typeof analysisResponseSchema>;
