@@ -60,7 +60,8 @@ async function loopInStatus(status: LoopStatus) {
 		metrics: [],
 		message: 'set-up',
 		status,
-		authorId: team.as.owner.userId,
+		// Written by the engineer, so the owner and the reviewer may decide on it (never the author).
+		authorId: team.as.engineer.userId,
 		createdAt: new Date()
 	});
 	return id;
@@ -163,8 +164,9 @@ const cases: RouteCase[] = [
 		method: 'POST',
 		route: '/api/v1/loops/[id]/review',
 		action: 'loop.requestChanges',
-		prepare: async () => ({ path: `/api/v1/loops/${await loopInStatus('in-review')}/review`, body: { action: 'request-changes' } })
+		prepare: async () => ({ path: `/api/v1/loops/${await loopInStatus('in-review')}/review`, body: { action: 'request-changes', comment: 'raise the PM at Vin max' } })
 	},
+	{ method: 'GET', route: '/api/v1/loops/[id]/review', action: 'loop.read', prepare: async () => ({ path: `/api/v1/loops/${loopId}/review` }) },
 	{ method: 'GET', route: '/api/v1/loops/[id]/comments', action: 'loop.read', prepare: async () => ({ path: `/api/v1/loops/${loopId}/comments` }) },
 	{ method: 'POST', route: '/api/v1/loops/[id]/comments', action: 'loop.comment', prepare: async () => ({ path: `/api/v1/loops/${loopId}/comments`, body: { body: 'check Vin max' } }) },
 	{ method: 'GET', route: '/api/v1/templates', action: 'template.read', prepare: async () => ({ path: `/api/v1/templates?workspace=${ws()}` }) },

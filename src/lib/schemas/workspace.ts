@@ -87,12 +87,24 @@ export const loopSaveSchema = z.object({
 });
 
 export const REVIEW_ACTIONS = ['request-review', 'approve', 'request-changes'] as const;
-export const loopReviewSchema = z.object({
-	action: z.enum(REVIEW_ACTIONS),
-	comment: z.string().trim().max(5000).optional()
-});
+export const loopReviewSchema = z
+	.object({
+		action: z.enum(REVIEW_ACTIONS),
+		comment: z.string().trim().max(5000).optional(),
+		/** request-review: the members asked to sign off (each gets an e-mail and a queue entry). */
+		reviewerIds: z.array(z.string().min(1).max(36)).min(1, 'name at least one reviewer').max(10, 'at most 10 reviewers').optional()
+	})
+	.superRefine((v, ctx) => {
+		// Sending a loop back without saying why leaves the author guessing.
+		if (v.action === 'request-changes' && !v.comment) ctx.addIssue({ code: 'custom', path: ['comment'], message: 'say what must change' });
+		if (v.reviewerIds && v.action !== 'request-review') ctx.addIssue({ code: 'custom', path: ['reviewerIds'], message: 'only with request-review' });
+	});
 
-export const commentSchema = z.object({ body: z.string().trim().min(1, 'write something').max(5000) });
+export const commentSchema = z.object({
+	body: z.string().trim().min(1, 'write something').max(5000),
+	/** Pins the comment to a frequency on the plot, Hz. */
+	freqHz: z.number().finite().positive('must be > 0 Hz').max(1e10).nullable().optional()
+});
 
 const compensatorStrategy = z.object({
 	kind: z.enum(['type1', 'type2', 'type3', 'type2-ota']),
@@ -102,7 +114,11 @@ const compensatorStrategy = z.object({
 			crossoverHz: z.number().finite().positive().optional(),
 			/** Crossover as a fraction of fsw, for templates that scale with the rail. */
 			crossoverFraction: z.number().finite().positive().max(0.5).optional(),
-			phaseMarginDeg: z.number().finite().min(0).max(120).optional()
+			phaseMarginDeg: z.number().finite().min(0).max(120).optional(),
+			/** Zeros as multiples of the rail's LC resonance f0 (placement method "features"). */
+			zerosRelF0: z.array(z.number().finite().positive().max(100)).max(2).optional(),
+			/** Poles as fractions of the rail's fsw (placement method "features"). */
+			polesRelFsw: z.array(z.number().finite().positive().max(10)).max(2).optional()
 		})
 		.optional(),
 	series: z

@@ -73,6 +73,7 @@ const OPERATIONS: Operation[] = [
 		body: loopReviewSchema,
 		success: 200
 	},
+	{ method: 'get', path: '/loops/{id}/review', summary: 'Sign-off state: the review requests (who, status, when) and the members who may be asked', action: 'loop.read', success: 200 },
 	{ method: 'get', path: '/loops/{id}/comments', summary: 'The review conversation', action: 'loop.read', success: 200 },
 	{ method: 'post', path: '/loops/{id}/comments', summary: 'Add a comment', action: 'loop.comment', body: commentSchema, success: 201 },
 	{ method: 'get', path: '/templates', summary: 'Compensator strategies shared in the workspace', action: 'template.read', workspaceQuery: true, paged: true, success: 200 },

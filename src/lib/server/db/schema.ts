@@ -117,7 +117,9 @@ export const loopRevision = mysqlTable(
 		authorId: varchar('author_id', { length: 36 }).references(() => user.id, { onDelete: 'set null' }),
 		createdAt: createdAt(),
 		statusChangedAt: datetime('status_changed_at', { fsp: 3 }),
-		statusChangedBy: varchar('status_changed_by', { length: 36 }).references(() => user.id, { onDelete: 'set null' })
+		statusChangedBy: varchar('status_changed_by', { length: 36 }).references(() => user.id, { onDelete: 'set null' }),
+		/** The template this revision's network was placed from (templates.apply), for "which rails use it". */
+		templateId: varchar('template_id', { length: 36 }).references(() => template.id, { onDelete: 'set null' })
 	},
 	(t) => [uniqueIndex('loop_rail_revision_uq').on(t.railId, t.revision), index('loop_workspace_idx').on(t.workspaceId)]
 );
@@ -133,6 +135,8 @@ export const loopComment = mysqlTable(
 			.references(() => loopRevision.id, { onDelete: 'cascade' }),
 		authorId: varchar('author_id', { length: 36 }).references(() => user.id, { onDelete: 'set null' }),
 		body: text('body').notNull(),
+		/** A comment pinned to a frequency on the plot, Hz; null for a general remark. */
+		freqHz: double('freq_hz'),
 		createdAt: createdAt()
 	},
 	(t) => [index('loop_comment_loop_idx').on(t.loopId)]
@@ -153,6 +157,68 @@ export const template = mysqlTable(
 		updatedAt: updatedAt()
 	},
 	(t) => [uniqueIndex('template_workspace_name_uq').on(t.workspaceId, t.name)]
+);
+
+export const REVIEW_REQUEST_STATUSES = ['pending', 'approved', 'changes-requested', 'superseded'] as const;
+export type ReviewRequestStatus = (typeof REVIEW_REQUEST_STATUSES)[number];
+
+/**
+ * A request for one reviewer to sign off one loop revision. The revision's own status says
+ * where the sign-off stands; this row says who was asked, by whom, and what they answered.
+ * `superseded`: another reviewer decided first.
+ */
+export const reviewRequest = mysqlTable(
+	'review_request',
+	{
+		id: id(),
+		workspaceId: workspaceId(),
+		loopId: varchar('loop_id', { length: 36 })
+			.notNull()
+			.references(() => loopRevision.id, { onDelete: 'cascade' }),
+		reviewerId: varchar('reviewer_id', { length: 36 })
+			.notNull()
+			.references(() => user.id, { onDelete: 'cascade' }),
+		requestedBy: varchar('requested_by', { length: 36 }).references(() => user.id, { onDelete: 'set null' }),
+		status: mysqlEnum('status', REVIEW_REQUEST_STATUSES).notNull().default('pending'),
+		note: text('note'),
+		createdAt: createdAt(),
+		decidedAt: datetime('decided_at', { fsp: 3 })
+	},
+	(t) => [uniqueIndex('review_request_loop_reviewer_uq').on(t.loopId, t.reviewerId), index('review_request_reviewer_idx').on(t.reviewerId, t.status)]
+);
+
+/** What a stored bench file holds: canonical arrays (Hz ascending, dB, unwrapped degrees). */
+export interface BenchSeries {
+	freqHz: number[];
+	magDb: number[];
+	phaseDeg: number[];
+}
+
+/**
+ * A measured Bode file (loop gain or plant) uploaded under a rail, parsed on upload and stored
+ * in canonical form with its metadata (conditions, instrument, injection point, date) and how
+ * the parser read it (separator, units, header line), so the original units stay visible.
+ */
+export const benchFile = mysqlTable(
+	'bench_file',
+	{
+		id: id(),
+		workspaceId: workspaceId(),
+		railId: varchar('rail_id', { length: 36 })
+			.notNull()
+			.references(() => rail.id, { onDelete: 'cascade' }),
+		fileName: varchar('file_name', { length: 255 }).notNull(),
+		kind: mysqlEnum('kind', ['loop', 'plant']).notNull(),
+		metadata: json('metadata').$type<Record<string, unknown>>().notNull(),
+		series: json('series').$type<BenchSeries>().notNull(),
+		format: json('format').$type<Record<string, unknown>>().notNull(),
+		parseNotes: json('parse_notes').$type<string[]>().notNull(),
+		points: int('points').notNull(),
+		sizeBytes: int('size_bytes').notNull(),
+		uploadedBy: varchar('uploaded_by', { length: 36 }).references(() => user.id, { onDelete: 'set null' }),
+		createdAt: createdAt()
+	},
+	(t) => [index('bench_file_rail_idx').on(t.railId)]
 );
 
 /**

@@ -38,7 +38,8 @@ const summaryColumns = {
 	authorName: user.name,
 	createdAt: loopRevision.createdAt,
 	statusChangedAt: loopRevision.statusChangedAt,
-	statusChangedBy: loopRevision.statusChangedBy
+	statusChangedBy: loopRevision.statusChangedBy,
+	templateId: loopRevision.templateId
 };
 
 export async function list(db: Database, railId: string, page: PageQuery): Promise<Page<Omit<LoopRevision, 'design'> & { authorName: string | null }>> {
@@ -78,7 +79,7 @@ export async function save(
 	db: Database,
 	actor: Actor,
 	owner: Rail,
-	input: { baseRevision: number | null; design: unknown; message: string }
+	input: { baseRevision: number | null; design: unknown; message: string; templateId?: string | null }
 ): Promise<LoopRevision> {
 	const parsed = designDocumentSchema.safeParse(input.design);
 	if (!parsed.success) {
@@ -120,7 +121,8 @@ export async function save(
 			authorId: actor.userId,
 			createdAt: new Date(),
 			statusChangedAt: null,
-			statusChangedBy: null
+			statusChangedBy: null,
+			templateId: input.templateId ?? null
 		};
 		await tx.insert(loopRevision).values(row);
 		const nominal = metrics[0];
@@ -146,11 +148,15 @@ export async function save(
 export async function review(
 	db: Database,
 	actor: Actor,
-	loop: Pick<LoopRevision, 'id' | 'workspaceId' | 'status' | 'revision' | 'railId'>,
+	loop: Pick<LoopRevision, 'id' | 'workspaceId' | 'status' | 'revision' | 'railId'> & { authorId?: string | null },
 	action: ReviewAction,
 	comment?: string
 ) {
 	const rule = TRANSITIONS[action];
+	// Sign-off needs a second pair of eyes: the author never decides on their own revision.
+	if (action !== 'request-review' && 'authorId' in loop && loop.authorId === actor.userId) {
+		throw new ApiError(403, 'own-revision', 'you wrote this revision; another reviewer must decide on it');
+	}
 	if (!rule.from.includes(loop.status)) {
 		throw new ApiError(422, 'invalid-transition', `cannot ${action} a revision that is ${loop.status}`, { action: `allowed from ${rule.from.join(' or ')}` });
 	}
@@ -180,18 +186,18 @@ export async function review(
 
 export function comments(db: Database, loopId: string) {
 	return db
-		.select({ id: loopComment.id, body: loopComment.body, authorId: loopComment.authorId, authorName: user.name, createdAt: loopComment.createdAt })
+		.select({ id: loopComment.id, body: loopComment.body, freqHz: loopComment.freqHz, authorId: loopComment.authorId, authorName: user.name, createdAt: loopComment.createdAt })
 		.from(loopComment)
 		.leftJoin(user, eq(user.id, loopComment.authorId))
 		.where(eq(loopComment.loopId, loopId))
 		.orderBy(asc(loopComment.createdAt));
 }
 
-export async function addComment(db: Database, actor: Actor, loop: Pick<LoopRevision, 'id' | 'workspaceId'>, body: string) {
-	const row = { id: randomUUID(), workspaceId: loop.workspaceId, loopId: loop.id, authorId: actor.userId, body, createdAt: new Date() };
+export async function addComment(db: Database, actor: Actor, loop: Pick<LoopRevision, 'id' | 'workspaceId'>, body: string, freqHz: number | null = null) {
+	const row = { id: randomUUID(), workspaceId: loop.workspaceId, loopId: loop.id, authorId: actor.userId, body, freqHz, createdAt: new Date() };
 	await db.transaction(async (tx) => {
 		await tx.insert(loopComment).values(row);
-		await audit.record(tx, { workspaceId: loop.workspaceId, actor, action: 'loop.comment', entityType: 'loop', entityId: loop.id, after: { commentId: row.id, body: body.slice(0, 200) } });
+		await audit.record(tx, { workspaceId: loop.workspaceId, actor, action: 'loop.comment', entityType: 'loop', entityId: loop.id, after: { commentId: row.id, body: body.slice(0, 200), ...(freqHz !== null ? { freqHz } : {}) } });
 	});
 	return row;
 }

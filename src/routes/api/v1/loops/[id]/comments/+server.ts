@@ -1,5 +1,5 @@
 // GET /api/v1/loops/{id}/comments: the review conversation. POST { body }: add a comment
-// (owner, engineer, reviewer).
+// (owner, engineer, reviewer); `freqHz` pins it to a frequency on the plot.
 import { db } from '$lib/server/db';
 import { authorizeRow } from '$lib/server/authz/guard';
 import { created, endpoint } from '$lib/server/http/endpoint';
@@ -15,6 +15,6 @@ export const GET: RequestHandler = endpoint(async (event) => {
 
 export const POST: RequestHandler = endpoint(async (event) => {
 	const { row, access } = await authorizeRow(event, await loops.get(db, event.params.id), 'loop.comment', 'loop');
-	const { body } = await parseBody(event, commentSchema);
-	return created(await loops.addComment(db, access.caller, row, body));
+	const { body, freqHz } = await parseBody(event, commentSchema);
+	return created(await loops.addComment(db, access.caller, row, body, freqHz ?? null));
 });
