@@ -53,7 +53,7 @@ test('a new user goes from an empty home to a board health table and a rail desi
 	await board.saveRail();
 	await expect(board.row('5V0_MAIN')).toBeVisible();
 	await expect(board.row('5V0_MAIN')).toContainText('500 kHz');
-	await expect(board.row('5V0_MAIN')).toContainText('200 m–3 A');
+	await expect(board.row('5V0_MAIN')).toContainText('200 mA–3 A');
 
 	// Second rail: a value the units parser cannot read, and one the rail schema refuses
 	// (a buck's lowest input must exceed its output), each shown at its own field.
@@ -64,6 +64,7 @@ test('a new user goes from an empty home to a board health table and a rail desi
 	await board.fillRail({ fsw: RAIL_1V8.fsw, vinMin: '1.5' });
 	await board.saveRail();
 	await expect(board.fieldError('vinMin')).toHaveText('a buck needs vinMin > vout');
+	await shoot(page, 'rail-form-errors');
 	await expect(board.form.getByTestId('field-vinMin')).toHaveAttribute('aria-invalid', 'true');
 	await expect(board.rows()).toHaveCount(1);
 	await board.fillRail({ vinMin: RAIL_1V8.vinMin });
@@ -125,22 +126,28 @@ test('a new user goes from an empty home to a board health table and a rail desi
 	await expect(board.form.getByTestId('field-fsw')).toHaveValue('1.2MHz');
 	await board.fillRail({ ioutMax: '2' });
 	await board.saveRail();
-	await expect(board.row('VDD_1V8')).toContainText('100 m–2 A');
+	await expect(board.row('VDD_1V8')).toContainText('100 mA–2 A');
 	await shoot(page, 'board');
 
 	// The workspace page lists the board with its rail count.
 	await page.goto(`/w/${workspaceId}`);
 	await expect(page.getByTestId('board-list')).toContainText('2 rails');
 	await shoot(page, 'workspace');
+	await page.getByTestId('board-switcher').locator('summary').click();
+	await expect(page.getByTestId('board-switcher').getByRole('link', { name: /Gateway main board/ })).toBeVisible();
+	await page.screenshot({ path: 'test-results/nav-board-menu.png' });
+	await page.getByTestId('board-switcher').getByRole('link', { name: /Gateway main board/ }).click();
+	await expect(page.getByTestId('board-name')).toHaveText('Gateway main board');
 
-	// From the table to the rail's design screen.
-	await page.goto(`/w/${workspaceId}/projects/${projectId}`);
+	// From the table to the rail's design screen, and back through its breadcrumb.
 	await board.row('5V0_MAIN').getByTestId('rail-link').click();
 	await expect(page).toHaveURL(new RegExp(`/w/${workspaceId}/projects/${projectId}/rails/${rail5.id}$`));
 	await expect(page.getByTestId('rail-name')).toHaveText('5V0_MAIN');
 	await expect(page.getByTestId('rail-revision')).toContainText('r1');
 	await expect(page.getByTestId('app-nav')).toContainText('Gateway main board');
 	await page.screenshot({ path: 'test-results/nav-design-screen.png' });
+	await page.getByTestId('rail-board-link').click();
+	await expect(page.getByTestId('board-name')).toHaveText('Gateway main board');
 
 	// A viewer of the same workspace sees the table, and no edit control.
 	const viewer = await authenticatedAs('viewer', { workspaceId, owner: page.request });
