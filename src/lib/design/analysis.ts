@@ -90,13 +90,14 @@ export function analyzeForm(form: FormResult): AnalysisOutcome {
 	const freqHz = plotGrid(form.document);
 	const sweep = { freqHz: Array.from(freqHz) };
 	const doc: DesignDocumentInput = { ...form.document, sweep };
-	const nominal = analyzeDesignDetailed(doc);
+	// The closed-loop section is computed by the panels that show it, only while they are open.
+	const nominal = analyzeDesignDetailed(doc, { closedLoop: false });
 	if ('error' in nominal) return { ok: false, ...contractMessage(nominal) };
 
 	const compensator = fixedCompensator(nominal);
 	const corners = designCorners(form.range).map((corner): CornerAnalysis => {
 		if (corner.nominal) return { corner, detail: nominal, error: null };
-		const r = analyzeDesignDetailed(cornerDocument(doc, compensator, corner));
+		const r = analyzeDesignDetailed(cornerDocument(doc, compensator, corner), { closedLoop: false });
 		return 'error' in r ? { corner, detail: null, error: r.error.message } : { corner, detail: r, error: null };
 	});
 	return {

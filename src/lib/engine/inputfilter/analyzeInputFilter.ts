@@ -136,7 +136,7 @@ export function analyzeInputFilter(
 	} else {
 		verdict = {
 			code: minMargin < 0 ? 'fail' : 'marginal',
-			message: `|Zs| comes within ${minMargin.toFixed(1)} dB of ${mN < mD ? '|ZN|' : '|ZD|'} near ${sig(mN < mD ? mNHz : mDHz)} Hz (${requiredDb} dB required); check the loop with the filter and consider more damping.`
+			message: `|Zs| ${minMargin < 0 ? `rises ${(-minMargin).toFixed(1)} dB above` : `comes within ${minMargin.toFixed(1)} dB of`} ${mN < mD ? '|ZN|' : '|ZD|'} near ${sig(mN < mD ? mNHz : mDHz)} Hz (${requiredDb} dB required); check the loop with the filter and consider more damping.`
 		};
 	}
 	return {
