@@ -66,6 +66,11 @@ async function loopInStatus(status: LoopStatus) {
 	});
 	return id;
 }
+/** A small analyzer file (frequency, gain, phase) uploaded by the owner; set-up for the bench rows. */
+const BENCH_CSV = 'Frequency (Hz),Gain (dB),Phase (deg)\n1000,40,-95\n10000,20,-120\n40000,0,-125\n100000,-15,-150\n';
+async function freshBench() {
+	return (await owner().post(`/api/v1/rails/${railId}/bench`, { fileName: 'matrix.csv', text: BENCH_CSV, metadata: { vin: 12, iout: 2 } })).body.id as string;
+}
 async function freshMember() {
 	const userId = randomUUID();
 	await db.insert(user).values({ id: userId, name: 'Extra member', email: `${unique('extra')}@example.test`, emailVerified: false });
@@ -167,6 +172,25 @@ const cases: RouteCase[] = [
 		prepare: async () => ({ path: `/api/v1/loops/${await loopInStatus('in-review')}/review`, body: { action: 'request-changes', comment: 'raise the PM at Vin max' } })
 	},
 	{ method: 'GET', route: '/api/v1/loops/[id]/review', action: 'loop.read', prepare: async () => ({ path: `/api/v1/loops/${loopId}/review` }) },
+	{ method: 'GET', route: '/api/v1/loops/[id]/report', action: 'loop.read', prepare: async () => ({ path: `/api/v1/loops/${loopId}/report` }) },
+	{ method: 'GET', route: '/api/v1/loops/[id]/exports/[format]', action: 'loop.read', prepare: async () => ({ path: `/api/v1/loops/${loopId}/exports/json` }) },
+	{ method: 'POST', route: '/api/v1/loops/[id]/template', action: 'template.create', prepare: async () => ({ path: `/api/v1/loops/${loopId}/template`, body: { name: unique('from-loop') } }) },
+	{ method: 'GET', route: '/api/v1/reviews', action: 'loop.read', prepare: async () => ({ path: `/api/v1/reviews?workspace=${ws()}` }) },
+	{
+		method: 'POST',
+		route: '/api/v1/rails/[id]/import',
+		action: 'loop.save',
+		prepare: async () => ({ path: `/api/v1/rails/${await freshRail()}/import`, body: { document: buckDesign(), baseRevision: null } })
+	},
+	{ method: 'GET', route: '/api/v1/rails/[id]/bench', action: 'rail.read', prepare: async () => ({ path: `/api/v1/rails/${railId}/bench` }) },
+	{
+		method: 'POST',
+		route: '/api/v1/rails/[id]/bench',
+		action: 'bench.upload',
+		prepare: async () => ({ path: `/api/v1/rails/${railId}/bench`, body: { fileName: 'try.csv', text: BENCH_CSV, metadata: {} } })
+	},
+	{ method: 'GET', route: '/api/v1/bench/[id]', action: 'rail.read', prepare: async () => ({ path: `/api/v1/bench/${await freshBench()}` }) },
+	{ method: 'DELETE', route: '/api/v1/bench/[id]', action: 'bench.upload', prepare: async () => ({ path: `/api/v1/bench/${await freshBench()}` }) },
 	{ method: 'GET', route: '/api/v1/loops/[id]/comments', action: 'loop.read', prepare: async () => ({ path: `/api/v1/loops/${loopId}/comments` }) },
 	{ method: 'POST', route: '/api/v1/loops/[id]/comments', action: 'loop.comment', prepare: async () => ({ path: `/api/v1/loops/${loopId}/comments`, body: { body: 'check Vin max' } }) },
 	{ method: 'GET', route: '/api/v1/templates', action: 'template.read', prepare: async () => ({ path: `/api/v1/templates?workspace=${ws()}` }) },
@@ -186,6 +210,14 @@ const cases: RouteCase[] = [
 			path: `/api/v1/templates/${(await owner().post(`/api/v1/templates?workspace=${ws()}`, { name: unique('tpl'), compensator: { kind: 'type2' } })).body.id}`
 		})
 	},
+	{ method: 'POST', route: '/api/v1/templates/[id]/apply', action: 'rail.read', prepare: async () => ({ path: `/api/v1/templates/${templateId}/apply`, body: { railId } }) },
+	{
+		method: 'POST',
+		route: '/api/v1/templates/[id]/apply',
+		action: 'loop.save',
+		prepare: async () => ({ path: `/api/v1/templates/${templateId}/apply`, body: { railId: await freshRail(), save: true } })
+	},
+	{ method: 'GET', route: '/api/v1/templates/[id]/rails', action: 'template.read', prepare: async () => ({ path: `/api/v1/templates/${templateId}/rails` }) },
 	{ method: 'GET', route: '/api/v1/audit', action: 'audit.read', prepare: async () => ({ path: `/api/v1/audit?workspace=${ws()}` }) }
 ];
 

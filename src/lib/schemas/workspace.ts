@@ -123,8 +123,8 @@ const compensatorStrategy = z.object({
 		.optional(),
 	series: z
 		.object({
-			resistors: z.enum(['E6', 'E12', 'E24', 'E48', 'E96', 'E192']).nullable(),
-			capacitors: z.enum(['E6', 'E12', 'E24', 'E48', 'E96', 'E192']).nullable()
+			resistors: z.enum(['E3', 'E6', 'E12', 'E24', 'E48', 'E96', 'E192']).nullable(),
+			capacitors: z.enum(['E3', 'E6', 'E12', 'E24', 'E48', 'E96', 'E192']).nullable()
 		})
 		.optional()
 });

@@ -18,6 +18,7 @@ import {
 	workspaceCreateSchema,
 	workspaceUpdateSchema
 } from '../schemas/workspace';
+import { benchUploadJsonSchema, designImportSchema, templateApplySchema, templateFromLoopSchema } from '../schemas/signoff';
 import { ROLES, can, type Action } from './authz/permissions';
 
 interface Operation {
@@ -76,11 +77,36 @@ const OPERATIONS: Operation[] = [
 	{ method: 'get', path: '/loops/{id}/review', summary: 'Sign-off state: the review requests (who, status, when) and the members who may be asked', action: 'loop.read', success: 200 },
 	{ method: 'get', path: '/loops/{id}/comments', summary: 'The review conversation', action: 'loop.read', success: 200 },
 	{ method: 'post', path: '/loops/{id}/comments', summary: 'Add a comment', action: 'loop.comment', body: commentSchema, success: 201 },
+	{ method: 'get', path: '/loops/{id}/report', summary: 'Review view computed on the server: margins at every corner with verdicts against the targets, step responses, Monte Carlo yield (200 seeded samples), review trail, comments, requests and the parameter diff to the last approved revision', action: 'loop.read', success: 200 },
+	{ method: 'get', path: '/loops/{id}/exports/{format}', summary: 'Download the revision: csv (sweep), svg or png (Bode plot; ?corners=1, ?corner=N, ?theme=dark, ?width=), spice (ngspice netlist; ?batch=1), json (design document), pdf (sign-off report)', action: 'loop.read', success: 200 },
+	{ method: 'post', path: '/loops/{id}/template', summary: "Save the revision's compensator strategy as a template scaled to the plant (fc / fsw, zeros / f0, poles / fsw, series)", action: 'template.create', body: templateFromLoopSchema, success: 201 },
+	{ method: 'get', path: '/reviews', summary: "The caller's review queue: revisions they were asked to sign off, then the others waiting in review", action: 'loop.read', workspaceQuery: true, success: 200 },
+	{ method: 'post', path: '/rails/{id}/import', summary: 'Import a design JSON file as the next revision (400 invalid-design with fields `document.<path>`; 409 on a stale base)', action: 'loop.save', body: designImportSchema, success: 201 },
+	{ method: 'get', path: '/rails/{id}/bench', summary: "The rail's bench files (metadata only), newest first", action: 'rail.read', success: 200 },
+	{
+		method: 'post',
+		path: '/rails/{id}/bench',
+		summary: 'Upload a measured loop-gain or plant file (CSV/TSV, at most 5 MB) as multipart/form-data (`file` + metadata fields) or this JSON; parse errors are 400 with line and column in `fields.file` and `issues`',
+		action: 'bench.upload',
+		body: benchUploadJsonSchema,
+		success: 201
+	},
+	{ method: 'get', path: '/bench/{id}', summary: 'One bench file with its data and overlay on a revision (?loop=, default the latest): measured fc/PM/GM and the model deviation up to fsw/2', action: 'rail.read', success: 200 },
+	{ method: 'delete', path: '/bench/{id}', summary: 'Delete a bench file', action: 'bench.upload', success: 204 },
 	{ method: 'get', path: '/templates', summary: 'Compensator strategies shared in the workspace', action: 'template.read', workspaceQuery: true, paged: true, success: 200 },
 	{ method: 'post', path: '/templates', summary: 'Add a template', action: 'template.create', workspaceQuery: true, body: templateSchema, success: 201 },
 	{ method: 'get', path: '/templates/{id}', summary: 'One template', action: 'template.read', success: 200 },
 	{ method: 'patch', path: '/templates/{id}', summary: 'Edit a template', action: 'template.update', body: templateUpdateSchema, success: 200 },
 	{ method: 'delete', path: '/templates/{id}', summary: 'Delete a template', action: 'template.delete', success: 204 },
+	{
+		method: 'post',
+		path: '/templates/{id}/apply',
+		summary: "Place the template's network on a rail's plant and answer the parts and achieved margins at every corner; save: true also saves the rail's next revision",
+		action: ['rail.read', 'loop.save'],
+		body: templateApplySchema,
+		success: 200
+	},
+	{ method: 'get', path: '/templates/{id}/rails', summary: 'The rails whose latest revision was placed from this template', action: 'template.read', success: 200 },
 	{ method: 'get', path: '/audit', summary: 'The audit trail, newest first (?entityId= narrows it to one row)', action: 'audit.read', workspaceQuery: true, paged: true, success: 200 },
 	{ method: 'get', path: '/tokens', summary: "The caller's API tokens (never the secrets)", success: 200 },
 	{ method: 'post', path: '/tokens', summary: 'Create an API token (from a signed-in session); the secret is shown once', body: tokenCreateSchema, success: 201 },

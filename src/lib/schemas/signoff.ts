@@ -1,0 +1,34 @@
+// zod schemas of the sign-off, template, bench and import requests, shared by the API routes,
+// the OpenAPI document and the pages. Numbers SI as in the design document.
+import { z } from 'zod';
+
+export const templateFromLoopSchema = z.object({
+	name: z.string().trim().min(1, 'name is required').max(120),
+	description: z.string().trim().max(4000).nullable().optional()
+});
+
+export const templateApplySchema = z.object({
+	railId: z.string().min(1, 'name the rail').max(36),
+	/** false: preview the parts and margins only; true: save them as the rail's next revision. */
+	save: z.boolean().default(false),
+	message: z.string().trim().min(1).max(500).optional()
+});
+
+/** The JSON form of a bench upload (multipart/form-data carries the same fields and a `file`). */
+export const benchUploadJsonSchema = z.object({
+	fileName: z.string().trim().min(1, 'name the file').max(255),
+	/** The file's text, CSV or TSV as the analyzer wrote it. */
+	text: z.string().min(1, 'the file is empty'),
+	metadata: z.record(z.string(), z.unknown()).default({})
+});
+
+/** Import of a design document into a rail: the file's text, or the document itself. */
+export const designImportSchema = z
+	.object({
+		text: z.string().min(1).optional(),
+		document: z.unknown().optional(),
+		message: z.string().trim().min(1, 'say what changed').max(500).default('Imported design document'),
+		/** The revision the import replaces (409 when another landed meanwhile); null for the first. */
+		baseRevision: z.number().int().min(0).nullable()
+	})
+	.refine((v) => v.text !== undefined || v.document !== undefined, { message: 'send the file as text or the document as document', path: ['text'] });

@@ -1,0 +1,90 @@
+// GET /api/v1/loops/{id}/exports/{format}: one revision as a file to download.
+// csv: the sweep (loop, plant, network); svg / png: the Bode plot as on screen (?corners=1 adds
+// the rail's corners faint, ?corner=N draws corner N alone, ?theme=dark); spice: the averaged
+// loop netlist for ngspice (?batch=1 ends it with `quit` for `ngspice -b`); json: the design
+// document; pdf: the sign-off report. Any member may export (loop.read).
+import { db } from '$lib/server/db';
+import { authorizeRow } from '$lib/server/authz/guard';
+import { endpoint } from '$lib/server/http/endpoint';
+import { ApiError } from '$lib/server/http/errors';
+import { parseQuery } from '$lib/server/http/request';
+import { exportDesignJson, networkRoots, plotFromResponse, renderBodePng, renderBodeSvg, sweepCsv } from '$lib/server/exports';
+import { netlistFromAnalysis } from '$lib/engine/spice';
+import * as loops from '$lib/server/services/loops';
+import * as signoff from '$lib/server/services/signoff';
+import { analyzeRevision } from '$lib/server/services/loop-analysis';
+import { z } from 'zod';
+import type { RequestHandler } from './$types';
+
+const EXPORT_FORMATS = ['csv', 'svg', 'png', 'spice', 'json', 'pdf'] as const;
+
+const querySchema = z.object({
+	corners: z.enum(['0', '1']).optional(),
+	corner: z.coerce.number().int().min(0).max(20).optional(),
+	theme: z.enum(['light', 'dark']).optional(),
+	width: z.coerce.number().int().min(320).max(2400).optional(),
+	batch: z.enum(['0', '1']).optional()
+});
+
+const TYPES: Record<(typeof EXPORT_FORMATS)[number], { type: string; ext: string }> = {
+	csv: { type: 'text/csv; charset=utf-8', ext: 'csv' },
+	svg: { type: 'image/svg+xml; charset=utf-8', ext: 'svg' },
+	png: { type: 'image/png', ext: 'png' },
+	spice: { type: 'text/plain; charset=utf-8', ext: 'cir' },
+	json: { type: 'application/json; charset=utf-8', ext: 'json' },
+	pdf: { type: 'application/pdf', ext: 'pdf' }
+};
+
+function file(body: string | Buffer, format: keyof typeof TYPES, name: string, inline: boolean) {
+	const { type, ext } = TYPES[format];
+	const safe = name.replace(/[^A-Za-z0-9_.-]+/g, '_');
+	return new Response(typeof body === 'string' ? body : new Uint8Array(body), {
+		headers: {
+			'content-type': type,
+			'content-disposition': `${inline ? 'inline' : 'attachment'}; filename="${safe}.${ext}"`,
+			'cache-control': 'private, no-store'
+		}
+	});
+}
+
+export const GET: RequestHandler = endpoint(async (event) => {
+	const { row } = await authorizeRow(event, await loops.get(db, event.params.id), 'loop.read', 'loop');
+	const format = event.params.format as (typeof EXPORT_FORMATS)[number];
+	if (!(EXPORT_FORMATS as readonly string[]).includes(format)) {
+		throw new ApiError(404, 'not-found', `no export called ${format}; use one of ${EXPORT_FORMATS.join(', ')}`);
+	}
+	const q = parseQuery(event, querySchema);
+	const { rail } = await signoff.context(db, row);
+	const base = `${rail?.name ?? 'loop'}-r${row.revision}`;
+	const inline = format === 'svg' || format === 'png';
+
+	if (format === 'pdf') {
+		const pdf = await signoff.reportPdf(db, row);
+		if (!Buffer.isBuffer(pdf)) throw new ApiError(422, pdf.error.code, pdf.error.message, pdf.error.fields);
+		return file(pdf, 'pdf', `${base}-signoff`, false);
+	}
+	if (format === 'json') {
+		const out = exportDesignJson(row.design);
+		if (!out.ok) throw new ApiError(422, out.error.code, out.error.message, out.error.fields);
+		return file(out.json, 'json', base, false);
+	}
+	const analysis = analyzeRevision(row.design, format === 'svg' || format === 'png' ? rail : null);
+	if ('error' in analysis) throw new ApiError(422, analysis.error.code, `the stored design cannot be analysed: ${analysis.error.message}`, analysis.error.fields);
+	if (format === 'csv') return file(sweepCsv(analysis.nominal), 'csv', base, false);
+	if (format === 'spice') {
+		const netlist = netlistFromAnalysis(analysis.detail, { batch: q.batch === '1', title: `Loopwright ${base}` });
+		return file(netlist, 'spice', base, false);
+	}
+	const fsw = analysis.document.plant.fsw;
+	let plot;
+	if (q.corner !== undefined) {
+		const c = analysis.corners[q.corner];
+		if (!c) throw new ApiError(400, 'invalid-query', 'the request failed validation', { corner: `must be 0…${analysis.corners.length - 1}` });
+		plot = plotFromResponse(c.response, { fswHz: fsw, title: `${base}, ${c.label}` });
+	} else {
+		plot = plotFromResponse(analysis.nominal, { fswHz: fsw, corners: q.corners === '1' ? analysis.corners : [], title: `${base} loop gain` });
+	}
+	const options = { width: q.width ?? 900, theme: q.theme ?? 'light', roots: networkRoots(analysis.nominal) } as const;
+	if (format === 'svg') return file(renderBodeSvg(plot, options), 'svg', base, inline);
+	return file(renderBodePng(plot, { ...options, pixelWidth: (q.width ?? 900) * 2 }), 'png', base, inline);
+});
