@@ -39,6 +39,16 @@ export interface BodeData {
 	/** fsw/2: above it the averaged model is not trusted; shaded. */
 	modelLimitHz: number | null;
 	roots: PlotRoot[];
+	/** Measured bench data, drawn as dots on their own frequencies (optional). */
+	measured?: MeasuredSeries[];
+}
+
+/** One measured Bode file: Hz ascending, dB, unwrapped degrees. */
+export interface MeasuredSeries {
+	label: string;
+	freqHz: ArrayLike<number>;
+	magDb: ArrayLike<number>;
+	phaseDeg: ArrayLike<number>;
 }
 
 export type TraceVisibility = Record<TraceKind, boolean>;
