@@ -37,7 +37,10 @@ function stripOwnUnit(text: string, unit: UnitSymbol | undefined): string {
 	const caseSensitive = unit === 's' || unit === 'S';
 	for (const alias of [...UNIT_ALIASES[unit]].sort((a, b) => b.length - a.length)) {
 		const tail = text.slice(-alias.length);
-		const same = caseSensitive ? tail === alias : tail.toLowerCase() === alias.toLowerCase();
+		// A tail right after the digits that matches only in another case and is itself a prefix is
+		// the prefix: "4.7f" in a capacitance field is 4.7 fF (femto), not 4.7 F; "100pf" is 100 pF.
+		const prefixInDisguise = tail !== alias && PREFIX_EXPONENT[tail] !== undefined && /[\d.]\s*$/.test(text.slice(0, -alias.length));
+		const same = caseSensitive ? tail === alias : tail.toLowerCase() === alias.toLowerCase() && !prefixInDisguise;
 		// Keep at least one character before the unit: "F" alone is not a value.
 		if (same && text.length > alias.length) return text.slice(0, -alias.length).trimEnd();
 	}

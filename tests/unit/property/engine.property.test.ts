@@ -1,0 +1,176 @@
+// Property tests of the whole analysis on random valid designs: no exception, no NaN or
+// Infinity anywhere in the response, and the refined margins agree with a brute-force dense
+// sweep of T(jω) done here in plain complex arithmetic (not the engine's log-sum evaluation).
+// The dense-sweep method is the textbook one [common practice: formulas §7.5 — bracket the
+// sign changes on a dense log grid]; phase crossings are found where T crosses the negative
+// real axis, which needs no phase unwrapping at all.
+import fc from 'fast-check';
+import { describe, expect, it } from 'vitest';
+import { analyzeDesign, analyzeDesignDetailed } from '$lib/engine/analyze';
+import { analysisResponseSchema } from '$lib/engine/contract/responseSchema';
+import type { FactoredTf, Root } from '$lib/engine/tf/types';
+import { breakage, breakDocument, namesPath, validDesign } from './designs';
+import { propertyParams } from './runs';
+
+/** Every number in a JSON-like value, with its path, that is not finite. */
+function nonFinite(value: unknown, path = ''): string[] {
+	if (typeof value === 'number') return Number.isFinite(value) ? [] : [`${path} = ${value}`];
+	if (Array.isArray(value)) return value.flatMap((v, i) => nonFinite(v, `${path}[${i}]`));
+	if (value && typeof value === 'object') return Object.entries(value).flatMap(([k, v]) => nonFinite(v, path ? `${path}.${k}` : k));
+	return [];
+}
+
+/** T(jω) as a complex number, multiplying the factors one by one. */
+function loopAt(tf: FactoredTf, omega: number): { re: number; im: number } {
+	let re = tf.gain;
+	let im = 0;
+	const mul = (a: number, b: number) => {
+		const r = re * a - im * b;
+		im = re * b + im * a;
+		re = r;
+	};
+	const div = (a: number, b: number) => {
+		const d = a * a + b * b;
+		mul(a / d, -b / d);
+	};
+	const factor = (r: Root): [number, number] =>
+		r.kind === 'real' ? [1, omega / r.omega] : [1 - (omega / r.omega0) ** 2, Number.isFinite(r.q) ? omega / (r.q * r.omega0) : 0];
+	// (jω)^n: rotate by n·90° and scale by ω^n.
+	const n = tf.originPower;
+	for (let k = 0; k < Math.abs(n); k++) (n > 0 ? mul : div)(0, omega);
+	for (const z of tf.zeros) mul(...factor(z));
+	for (const p of tf.poles) div(...factor(p));
+	const td = tf.delayS ?? 0;
+	if (td) mul(Math.cos(omega * td), -Math.sin(omega * td));
+	return { re, im };
+}
+
+const abs = (z: { re: number; im: number }) => Math.hypot(z.re, z.im);
+const reduceDeg = (x: number) => {
+	let y = x - 360 * Math.floor((x + 180) / 360);
+	if (y <= -180) y += 360;
+	return y;
+};
+const degDiff = (a: number, b: number) => Math.abs(reduceDeg(a - b));
+
+interface Bracket {
+	loHz: number;
+	hiHz: number;
+}
+
+/** Dense log sweep (pointsPerDecade) over the range: brackets of |T| = 1 and of T crossing the negative real axis. */
+function denseSweep(tf: FactoredTf, startHz: number, stopHz: number, pointsPerDecade: number) {
+	const decades = Math.log10(stopHz / startHz);
+	const n = Math.max(2, Math.ceil(decades * pointsPerDecade) + 1);
+	const gain: Bracket[] = [];
+	const phase: Bracket[] = [];
+	let prevF = startHz;
+	let prev = loopAt(tf, 2 * Math.PI * startHz);
+	for (let i = 1; i < n; i++) {
+		const f = startHz * 10 ** ((decades * i) / (n - 1));
+		const cur = loopAt(tf, 2 * Math.PI * f);
+		if (abs(prev) >= 1 !== abs(cur) >= 1) gain.push({ loHz: prevF, hiHz: f });
+		// Im changes sign while Re < 0 on both ends: T crossed the negative real axis.
+		if (prev.re < 0 && cur.re < 0 && prev.im >= 0 !== cur.im >= 0) phase.push({ loHz: prevF, hiHz: f });
+		prev = cur;
+		prevF = f;
+	}
+	return { gain, phase };
+}
+
+const inside = (f: number, b: Bracket) => f >= b.loHz * (1 - 1e-9) && f <= b.hiHz * (1 + 1e-9);
+
+describe('analysis of random valid designs', () => {
+	it('never throws, never fails unexpectedly, and reports only finite numbers', () => {
+		fc.assert(
+			fc.property(validDesign, (doc) => {
+				const r = analyzeDesign(doc);
+				if ('error' in r) {
+					// Refusing an operating point or an unbuildable compensator is fine; an internal failure is a bug.
+					expect(r.error.code, JSON.stringify(r.error)).not.toBe('analysis-failed');
+					expect(Object.keys(r.error.fields).length).toBeGreaterThan(0);
+					return;
+				}
+				expect(nonFinite(r)).toEqual([]);
+				const schema = analysisResponseSchema.safeParse(r);
+				expect(schema.success, schema.success ? '' : JSON.stringify(schema.error.issues.slice(0, 3))).toBe(true);
+				expect(r.response.loop.magDb.length).toBe(r.response.freqHz.length);
+			}),
+			propertyParams(150)
+		);
+	}, 120_000);
+
+	it('refined crossings sit where a dense sweep brackets them, with |T| = 1 and ∠T = −180° exactly there', () => {
+		let analysed = 0;
+		fc.assert(
+			fc.property(validDesign, (doc) => {
+				const d = analyzeDesignDetailed(doc, { includeResponse: false });
+				if ('error' in d) return;
+				analysed++;
+				const m = d.metrics;
+				const { startHz, stopHz } = d.response.metrics.analysedRangeHz;
+				const sweep = denseSweep(d.loop, startHz, stopHz, 400);
+
+				// Every crossing the engine reports is a true crossing, checked by the independent evaluation.
+				for (const x of m.crossovers) {
+					const t = loopAt(d.loop, 2 * Math.PI * x.freqHz);
+					expect(Math.abs(20 * Math.log10(abs(t))), `|T| at ${x.freqHz} Hz`).toBeLessThan(1e-4);
+					expect(degDiff(x.phaseMarginDeg, 180 + (Math.atan2(t.im, t.re) * 180) / Math.PI), `PM at ${x.freqHz} Hz`).toBeLessThan(1e-4);
+				}
+				for (const x of m.phaseCrossovers) {
+					const t = loopAt(d.loop, 2 * Math.PI * x.freqHz);
+					// An undamped zero pair on the jω axis (a capacitor with ESL and no ESR) makes T = 0 and the
+					// phase jump by 180° there; that point is a harmless crossing far below the gain margin.
+					if (abs(t) < 1e-6) {
+						expect(x.gainMarginDb).toBeGreaterThan(100);
+						continue;
+					}
+					expect(degDiff((Math.atan2(t.im, t.re) * 180) / Math.PI, 180), `∠T at ${x.freqHz} Hz`).toBeLessThan(1e-4);
+					expect(Math.abs(x.gainMarginDb + 20 * Math.log10(abs(t))), `GM at ${x.freqHz} Hz`).toBeLessThan(1e-6 * Math.max(1, Math.abs(x.gainMarginDb)));
+				}
+				// Every crossing the dense sweep sees has its refined counterpart in that bracket.
+				for (const b of sweep.gain) {
+					expect(m.crossovers.some((x) => inside(x.freqHz, b)), `gain crossing in [${b.loHz}, ${b.hiHz}] Hz missing`).toBe(true);
+				}
+				for (const b of sweep.phase) {
+					expect(m.phaseCrossovers.some((x) => inside(x.freqHz, b)), `phase crossing in [${b.loHz}, ${b.hiHz}] Hz missing`).toBe(true);
+				}
+				// The governing figures follow the contract's rule over the listed crossings.
+				if (m.crossovers.length === 0) expect(m.phaseMarginDeg).toBeNull();
+				else expect(m.phaseMarginDeg).toBe(Math.min(...m.crossovers.map((x) => x.phaseMarginDeg)));
+				const positive = m.phaseCrossovers.map((x) => x.gainMarginDb).filter((g) => g > 0);
+				if (positive.length === 0) expect(m.gainMarginDb).toBeNull();
+				else expect(m.gainMarginDb).toBe(Math.min(...positive));
+			}),
+			propertyParams(300)
+		);
+		// Most random designs must get analysed, or the property above proves little.
+		expect(analysed).toBeGreaterThan(0);
+	}, 120_000);
+});
+
+describe('random invalid documents', () => {
+	it('always give field errors on the broken path, never a response or an exception', () => {
+		fc.assert(
+			fc.property(validDesign, breakage, (doc, b) => {
+				const r = analyzeDesign(breakDocument(doc, b));
+				expect('error' in r, `${b.path} = ${JSON.stringify(b.value)} was accepted`).toBe(true);
+				if (!('error' in r)) return;
+				expect(r.error.code).toBe('invalid-design');
+				expect(namesPath(r.error.fields, b.path), `${b.path} = ${JSON.stringify(b.value)} → ${JSON.stringify(r.error.fields)}`).toBe(true);
+			}),
+			propertyParams(300)
+		);
+	});
+
+	it('any JSON value that is not a design gets an error object, not a throw', () => {
+		fc.assert(
+			fc.property(fc.jsonValue(), (value) => {
+				const r = analyzeDesign(value);
+				expect('error' in r).toBe(true);
+				if ('error' in r) expect(Object.keys(r.error.fields).length).toBeGreaterThan(0);
+			}),
+			propertyParams(200)
+		);
+	});
+});

@@ -1,0 +1,14 @@
+// How many cases each property runs: PROPERTY_RUNS from the environment (the nightly script
+// sets 10 000), else a small default so `npm test` stays fast. PROPERTY_SEED replays a failure.
+import fc from 'fast-check';
+
+export function propertyRuns(fallback = 200): number {
+	const fromEnv = Number(process.env.PROPERTY_RUNS);
+	return Number.isInteger(fromEnv) && fromEnv > 0 ? fromEnv : fallback;
+}
+
+/** Parameters for fc.assert: the run count, and the seed when one is given to replay. */
+export function propertyParams(fallback = 200): fc.Parameters<unknown> {
+	const seed = Number(process.env.PROPERTY_SEED);
+	return { numRuns: propertyRuns(fallback), ...(Number.isInteger(seed) ? { seed } : {}) };
+}
