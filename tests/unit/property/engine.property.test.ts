@@ -10,7 +10,7 @@ import { analyzeDesign, analyzeDesignDetailed } from '$lib/engine/analyze';
 import { analysisResponseSchema } from '$lib/engine/contract/responseSchema';
 import type { FactoredTf, Root } from '$lib/engine/tf/types';
 import { breakage, breakDocument, namesPath, validDesign } from './designs';
-import { propertyParams } from './runs';
+import { propertyParams, propertyTimeout } from './runs';
 
 /** Every number in a JSON-like value, with its path, that is not finite. */
 function nonFinite(value: unknown, path = ''): string[] {
@@ -98,7 +98,7 @@ describe('analysis of random valid designs', () => {
 			}),
 			propertyParams(150)
 		);
-	}, 120_000);
+	}, propertyTimeout());
 
 	it('refined crossings sit where a dense sweep brackets them, with |T| = 1 and ∠T = −180° exactly there', () => {
 		let analysed = 0;
@@ -146,7 +146,7 @@ describe('analysis of random valid designs', () => {
 		);
 		// Most random designs must get analysed, or the property above proves little.
 		expect(analysed).toBeGreaterThan(0);
-	}, 120_000);
+	}, propertyTimeout());
 });
 
 describe('random invalid documents', () => {
@@ -161,7 +161,7 @@ describe('random invalid documents', () => {
 			}),
 			propertyParams(300)
 		);
-	});
+	}, propertyTimeout());
 
 	it('any JSON value that is not a design gets an error object, not a throw', () => {
 		fc.assert(
@@ -172,5 +172,5 @@ describe('random invalid documents', () => {
 			}),
 			propertyParams(200)
 		);
-	});
+	}, propertyTimeout());
 });

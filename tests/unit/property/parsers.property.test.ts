@@ -8,7 +8,7 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { parseBenchFile } from '$lib/bench';
 import { parseEng, type UnitSymbol } from '$lib/units';
-import { propertyParams } from './runs';
+import { propertyParams, propertyTimeout } from './runs';
 
 const SEPARATORS = [',', ';', '\t'] as const;
 const EOLS = ['\n', '\r\n', '\r'] as const;
@@ -75,7 +75,7 @@ describe('bench-file parser', () => {
 			}),
 			propertyParams(200)
 		);
-	});
+	}, propertyTimeout());
 
 	it('reports a corrupted cell on its physical line and column', () => {
 		const junk = fc.constantFrom('x', '1..2', '--3', '4,5,', 'NaN', 'inf', '1e', '0x10', '12 dB');
@@ -96,7 +96,7 @@ describe('bench-file parser', () => {
 			}),
 			propertyParams(200)
 		);
-	});
+	}, propertyTimeout());
 
 	it('never throws on mangled files, and places every error inside the file', () => {
 		const edit = fc.record({ at: fc.nat(), cut: fc.nat(20), insert: fc.string({ maxLength: 8 }) });
@@ -118,7 +118,7 @@ describe('bench-file parser', () => {
 			}),
 			propertyParams(200)
 		);
-	});
+	}, propertyTimeout());
 });
 
 /** Prefix spellings and their powers of ten (case rule of the units module: m milli, M and MEG mega). */
@@ -178,7 +178,7 @@ describe('engineering-notation parser', () => {
 			}),
 			propertyParams(500)
 		);
-	});
+	}, propertyTimeout());
 
 	it('fixed: "4.7f" in a farad field is 4.7 fF, not 4.7 F (found by the notation property)', () => {
 		// [common practice: f is the SI prefix femto; SPICE reads 4.7f the same way]
@@ -197,7 +197,7 @@ describe('engineering-notation parser', () => {
 			}),
 			propertyParams(200)
 		);
-	});
+	}, propertyTimeout());
 
 	it('never throws or returns a non-finite number on arbitrary text', () => {
 		fc.assert(
@@ -208,5 +208,5 @@ describe('engineering-notation parser', () => {
 			}),
 			propertyParams(500)
 		);
-	});
+	}, propertyTimeout());
 });

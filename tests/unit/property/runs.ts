@@ -12,3 +12,8 @@ export function propertyParams(fallback = 200): fc.Parameters<unknown> {
 	const seed = Number(process.env.PROPERTY_SEED);
 	return { numRuns: propertyRuns(fallback), ...(Number.isInteger(seed) ? { seed } : {}) };
 }
+
+/** Time allowed for one property test: two minutes in `npm test`, an hour for nightly-sized runs. */
+export function propertyTimeout(): number {
+	return process.env.PROPERTY_RUNS ? 3_600_000 : 120_000;
+}
