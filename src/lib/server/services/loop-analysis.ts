@@ -107,6 +107,7 @@ export function spreadSummary(detail: AnalysisDetail, tolerances: RailTolerances
 			targets: { phaseMarginDeg: targets.phaseMarginDeg, gainMarginDb: targets.gainMarginDb }
 		});
 		return {
+			ok: true as const,
 			samples: r.completed,
 			seed: r.seed,
 			failures: r.failures,
@@ -116,7 +117,7 @@ export function spreadSummary(detail: AnalysisDetail, tolerances: RailTolerances
 			tolerancePct: Object.fromEntries(Object.entries(tols).map(([k, v]) => [k, v!.tol * 100]))
 		};
 	} catch (e) {
-		return { error: e instanceof Error ? e.message : String(e) };
+		return { ok: false as const, error: e instanceof Error ? e.message : String(e) };
 	}
 }
 
