@@ -23,6 +23,8 @@ export function appOrigin(): string {
 
 function authSecret(): string {
 	const secret = process.env.BETTER_AUTH_SECRET;
+	// The development default is public (it is in this file): never sign production sessions with it.
+	if (secret === DEV_SECRET && isProduction()) throw new Error('BETTER_AUTH_SECRET must not be the development default in production');
 	if (secret) return secret;
 	if (isProduction()) throw new Error('BETTER_AUTH_SECRET must be set in production');
 	return DEV_SECRET;

@@ -1,0 +1,64 @@
+// Security checks that need the production build (SvelteKit's form-origin check and
+// better-auth's origin check are off in the dev server the integration tests use):
+// cross-site form posts to every page action and every /api/v1 write are refused, even with a
+// valid session; better-auth refuses a foreign Origin; names typed by users render as text.
+import { expect, test } from '@playwright/test';
+import { randomUUID } from 'node:crypto';
+import { apiHandlers, pageServerExports } from '../integration/security/routes';
+import { createWorkspace, originHeaders, PASSWORD, signUp } from './support/fixtures';
+
+const EVIL = 'https://evil.example';
+const FORM_TYPES: [string, (fields: Record<string, string>) => string][] = [
+	['application/x-www-form-urlencoded', (f) => new URLSearchParams(f).toString()],
+	['text/plain', (f) => Object.entries(f).map(([k, v]) => `${k}=${v}`).join('\n')],
+	['multipart/form-data; boundary=x', (f) => Object.entries(f).map(([k, v]) => `--x\r\nContent-Disposition: form-data; name="${k}"\r\n\r\n${v}\r\n`).join('') + '--x--\r\n']
+];
+
+test('cross-site form posts are refused on every page action and every /api/v1 write, with a valid session', async ({ request, baseURL }) => {
+	const user = await signUp(request, baseURL!, 'Cross Site');
+	const targets = [
+		...pageServerExports()
+			.filter((e) => e.kind === 'action')
+			.map((a) => ({ method: 'POST', path: a.route.replace(/\[[^\]]+\]/g, 'x') + (a.name === 'default' ? '' : `?/${a.name}`) })),
+		...apiHandlers()
+			.filter((h) => h.method !== 'GET')
+			.map((h) => ({ method: h.method, path: h.route.replace(/\[[^\]]+\]/g, randomUUID()) }))
+	];
+	expect(targets.length).toBeGreaterThan(15);
+	const wrong: string[] = [];
+	for (const t of targets) {
+		for (const [type, encode] of FORM_TYPES) {
+			// The request context holds the session cookie, as a browser would (SameSite aside).
+			const reply = await request.fetch(t.path, { method: t.method, headers: { origin: EVIL, 'content-type': type }, data: encode({ email: user.email, password: PASSWORD, name: 'from-evil' }), maxRedirects: 0 });
+			if (reply.status() !== 403) wrong.push(`${t.method} ${t.path} ${type}: ${reply.status()}`);
+		}
+	}
+	expect(wrong).toEqual([]);
+	// Same origin, same form: accepted (the refusals above are about the origin).
+	const own = await request.post('/sign-in', { headers: { origin: baseURL!, 'content-type': 'application/x-www-form-urlencoded' }, data: new URLSearchParams({ email: user.email, password: PASSWORD }).toString(), maxRedirects: 0 });
+	expect(own.status()).toBe(303);
+});
+
+test('better-auth refuses sign-in and sign-out posted with a foreign Origin', async ({ request, baseURL }) => {
+	const user = await signUp(request, baseURL!, 'Foreign Origin');
+	for (const path of ['/api/auth/sign-in/email', '/api/auth/sign-out']) {
+		const reply = await request.post(path, { headers: { origin: EVIL }, data: { email: user.email, password: PASSWORD } });
+		expect(reply.status(), path).toBe(403);
+	}
+	expect((await request.get('/api/v1/me')).status()).toBe(200);
+});
+
+test('workspace and board names holding markup render as text, never as markup', async ({ page, baseURL }) => {
+	const payload = `<img src=x onerror="window.__pwned=1"><script>window.__pwned=2</script>Board`;
+	await signUp(page.request, baseURL!, 'Markup');
+	const workspaceId = await createWorkspace(page.request, baseURL!, `WS ${payload}`);
+	const board = await page.request.post(`/api/v1/projects?workspace=${workspaceId}`, { headers: originHeaders(baseURL!), data: { name: payload, description: payload } });
+	expect(board.status(), await board.text()).toBe(201);
+	const boardId = (await board.json()).id;
+	for (const path of [`/w`, `/w/${workspaceId}`, `/w/${workspaceId}/projects/${boardId}`]) {
+		await page.goto(path);
+		await expect(page.getByText('<script>window.__pwned=2</script>', { exact: false }).first()).toBeVisible();
+		expect(await page.evaluate(() => (window as unknown as { __pwned?: number }).__pwned), path).toBeUndefined();
+		expect(await page.locator('img[src="x"]').count(), path).toBe(0);
+	}
+});

@@ -1,0 +1,42 @@
+// Run as a child process with NODE_ENV=production (better-auth reads it once, at import):
+// builds the app's own better-auth configuration (auth-core.ts) and reports, as one JSON line,
+// what production would do: whether it starts without a secret or with the development
+// default, and how the sign-in endpoint answers a burst of wrong passwords.
+import { createAuth } from '../../../../src/lib/server/auth-core';
+import { createDatabase } from '../../../../src/lib/server/db';
+
+const mode = process.argv[2];
+const { db, pool } = createDatabase();
+
+function tryCreate(): string {
+	try {
+		createAuth(db);
+		return 'started';
+	} catch (error) {
+		return `refused: ${(error as Error).message}`;
+	}
+}
+
+async function signInBurst(count: number, ip: string | null, email: string) {
+	const auth = createAuth(db);
+	const statuses: number[] = [];
+	for (let i = 0; i < count; i++) {
+		const headers: Record<string, string> = { 'content-type': 'application/json', origin: process.env.ORIGIN! };
+		if (ip) headers['x-forwarded-for'] = ip;
+		const response = await auth.handler(
+			new Request(`${process.env.ORIGIN}/api/auth/sign-in/email`, { method: 'POST', headers, body: JSON.stringify({ email, password: 'wrong-password-0' }) })
+		);
+		statuses.push(response.status);
+	}
+	return statuses;
+}
+
+let result: unknown;
+if (mode === 'secret') result = { outcome: tryCreate() };
+else {
+	const a = await signInBurst(5, '203.0.113.7', 'first@example.test');
+	const b = await signInBurst(2, '203.0.113.8', 'second@example.test');
+	result = { sameClient: a, otherClient: b };
+}
+console.log(JSON.stringify(result));
+await pool.end();
