@@ -32,7 +32,16 @@ async function signInBurst(count: number, ip: string | null, email: string) {
 }
 
 let result: unknown;
-if (mode === 'secret') result = { outcome: tryCreate() };
+if (mode === 'secret') {
+	// authSecret() reads the environment on each call, so one process can try all three settings.
+	const outcomes: Record<string, string> = {};
+	for (const [label, value] of Object.entries({ unset: undefined, development: 'loopwright-development-secret-not-for-production-use', real: 'a-real-secret-from-the-environment-0123456789' })) {
+		if (value === undefined) delete process.env.BETTER_AUTH_SECRET;
+		else process.env.BETTER_AUTH_SECRET = value;
+		outcomes[label] = tryCreate();
+	}
+	result = outcomes;
+}
 else {
 	const a = await signInBurst(5, '203.0.113.7', 'first@example.test');
 	const b = await signInBurst(2, '203.0.113.8', 'second@example.test');
