@@ -2,3 +2,4 @@
 export * from './margins';
 export * from './closedLoop';
 export * from './analysisGrid';
+export * from './slopeBounds';

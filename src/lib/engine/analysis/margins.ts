@@ -1,14 +1,15 @@
 /**
  * Loop metrics (formulas §7): every gain crossover (|T| = 1) and phase crossover
- * (∠T = −180° + k·360°) in the analysed range, each bracketed on the dense grid and refined
- * by Brent's method on the analytic ln|T| or unwrapped phase in log f; PM per crossing,
- * smallest positive GM, gain-reduction margin, delay margin, modulus margin min|1 + T|.
- * A margin that does not exist is null, with its reason in `unavailable`.
+ * (∠T = −180° + k·360°) in the analysed range, each bracketed by the proven grid of
+ * analysisGrid.ts and refined by bracketed Newton on the analytic ln|T| or unwrapped phase in
+ * log f (exact slopes); PM per crossing, smallest positive GM, gain-reduction margin, delay
+ * margin, modulus margin min|1 + T| (Brent's minimiser). A margin that does not exist is null,
+ * with its reason in `unavailable`.
  */
-import { brentRoot, goldenMin } from '../math/scalarRoot';
-import { compileTf, lnMagPhaseAt } from '../tf/evaluate';
+import { brentMin, newtonBracketed } from '../math/scalarRoot';
+import { compileTf, lnMagPhaseAt, lnMagPhaseSlopeAt, type CompiledTf } from '../tf/evaluate';
 import type { FactoredTf } from '../tf/types';
-import { sampleLoop, type GridOptions } from './analysisGrid';
+import { distanceToMinusOne, sampleLoop, type GridOptions } from './analysisGrid';
 import { closedLoopStability, type ClosedLoopResult } from './closedLoop';
 
 const RAD2DEG = 180 / Math.PI;
@@ -72,6 +73,35 @@ export function reduceDeg(x: number): number {
 	return y;
 }
 
+// The root and minimum searches take plain functions of u = ln ω; they read the loop being
+// analysed from here (module-level functions rather than closures allocated per call).
+const probe = { c: null as unknown as CompiledTf, line: 0, buf: new Float64Array(4) };
+
+/** ln|T| and its slope at u = ln ω. */
+function lnMagAndSlopeAtLog(u: number, out: Float64Array): void {
+	lnMagPhaseSlopeAt(probe.c, Math.exp(u), probe.buf);
+	out[0] = probe.buf[0];
+	out[1] = probe.buf[2];
+}
+
+/** Phase less the current −180° + k·360° line, and its slope, at u = ln ω. */
+function phaseLessLineAndSlopeAtLog(u: number, out: Float64Array): void {
+	lnMagPhaseSlopeAt(probe.c, Math.exp(u), probe.buf);
+	out[0] = probe.buf[1] - probe.line;
+	out[1] = probe.buf[3];
+}
+
+/** |1 + T| at u = ln ω. */
+function distanceAtLog(u: number): number {
+	lnMagPhaseAt(probe.c, Math.exp(u), probe.buf);
+	return distanceToMinusOne(probe.buf[0], probe.buf[1]);
+}
+
+function phaseCrossoverAt(c: CompiledTf, omega: number, lineRad: number, direction: 'falling' | 'rising'): PhaseCrossover {
+	lnMagPhaseAt(c, omega, probe.buf);
+	return { freqHz: omega / TWO_PI, gainMarginDb: (-20 * probe.buf[0]) / Math.LN10, lineDeg: lineRad * RAD2DEG, direction };
+}
+
 export function loopMetrics(
 	loop: FactoredTf,
 	range: { startHz: number; stopHz: number },
@@ -80,27 +110,21 @@ export function loopMetrics(
 	const c = compileTf(loop);
 	const wA = TWO_PI * range.startHz;
 	const wB = TWO_PI * range.stopHz;
-	const g = sampleLoop(loop, c, wA, wB, options);
-	const buf = new Float64Array(2);
-	const lnMagAtLog = (u: number) => {
-		lnMagPhaseAt(c, Math.exp(u), buf);
-		return buf[0];
-	};
-	const phaseAtLog = (u: number) => {
-		lnMagPhaseAt(c, Math.exp(u), buf);
-		return buf[1];
-	};
+	const g = sampleLoop(c, wA, wB, options);
+	const buf = probe.buf;
+	probe.c = c;
 	const n = g.n;
 
 	// Gain crossovers: sign changes of ln|T| (a value of exactly 0 counts as positive, and a
-	// last point of exactly 0 is a crossing at the edge).
+	// last point of exactly 0 is a crossing at the edge). The grid makes ln|T| monotone on every
+	// interval with a sign change, so each holds exactly one crossing.
 	const crossovers: GainCrossover[] = [];
 	for (let i = 1; i < n; i++) {
 		const a = g.lnMag[i - 1];
 		const b = g.lnMag[i];
 		const atEdge = i === n - 1 && b === 0;
 		if ((a >= 0) === (b >= 0) && !atEdge) continue;
-		const u = atEdge ? Math.log(g.omega[i]) : brentRoot(lnMagAtLog, Math.log(g.omega[i - 1]), Math.log(g.omega[i]), a, b, 1e-12);
+		const u = atEdge ? g.logOmega[i] : newtonBracketed(lnMagAndSlopeAtLog, g.logOmega[i - 1], g.logOmega[i], a, b, 1e-12);
 		const w = Math.exp(u);
 		lnMagPhaseAt(c, w, buf);
 		const phaseDeg = buf[1] * RAD2DEG;
@@ -117,17 +141,9 @@ export function loopMetrics(
 	// Phase crossovers: the unwrapped phase crossing any −π + 2πk line.
 	const phaseCrossovers: PhaseCrossover[] = [];
 	const first = g.phase[0];
-	const onLine = (p: number) => Number.isInteger((p + Math.PI) / TWO_PI);
-	const pushPhase = (w: number, line: number, dir: 'falling' | 'rising') => {
-		lnMagPhaseAt(c, w, buf);
-		phaseCrossovers.push({
-			freqHz: w / TWO_PI,
-			gainMarginDb: (-20 * buf[0]) / Math.LN10,
-			lineDeg: line * RAD2DEG,
-			direction: dir
-		});
-	};
-	if (onLine(first)) pushPhase(g.omega[0], first, g.phase[1] < first ? 'falling' : 'rising');
+	if (Number.isInteger((first + Math.PI) / TWO_PI)) {
+		phaseCrossovers.push(phaseCrossoverAt(c, g.omega[0], first, g.phase[1] < first ? 'falling' : 'rising'));
+	}
 	for (let i = 1; i < n; i++) {
 		const pa = g.phase[i - 1];
 		const pb = g.phase[i];
@@ -140,10 +156,9 @@ export function loopMetrics(
 		for (let k = kMin; k <= kMax; k++) {
 			const line = -Math.PI + TWO_PI * k;
 			if (line === pa) continue; // counted at the previous point
-			const ua = Math.log(g.omega[i - 1]);
-			const ub = Math.log(g.omega[i]);
-			const u = brentRoot((x) => phaseAtLog(x) - line, ua, ub, pa - line, pb - line, 1e-12);
-			pushPhase(Math.exp(u), line, pb < pa ? 'falling' : 'rising');
+			probe.line = line;
+			const u = newtonBracketed(phaseLessLineAndSlopeAtLog, g.logOmega[i - 1], g.logOmega[i], pa - line, pb - line, 1e-12);
+			phaseCrossovers.push(phaseCrossoverAt(c, Math.exp(u), line, pb < pa ? 'falling' : 'rising'));
 		}
 	}
 	phaseCrossovers.sort((a, b) => a.freqHz - b.freqHz);
@@ -172,37 +187,16 @@ export function loopMetrics(
 	}
 	if (!grm) unavailable.gainReductionMarginDb = 'no phase crossover with |T| > 1';
 
-	// Modulus margin: min |1 + T| on the grid, refined by golden-section search around it.
-	// |1 + T| ≥ |1 − |T||, so only samples with ln|T| in (ln(1 − best), ln(1 + best)) can win.
-	const dist = (lnM: number, ph: number) => {
-		const m = Math.exp(lnM);
-		return Math.sqrt(Math.max(0, 1 + 2 * m * Math.cos(ph) + m * m));
-	};
-	let iMin = 0;
-	let best = dist(g.lnMag[0], g.phase[0]);
-	for (let i = 1; i < n; i++) {
-		const l = g.lnMag[i];
-		if (best < 1 && (l <= Math.log1p(-best) || l >= Math.log1p(best))) continue;
-		if (best >= 1 && l >= Math.log1p(best)) continue;
-		const d = dist(l, g.phase[i]);
-		if (d < best) {
-			best = d;
-			iMin = i;
-		}
-	}
-	let smW = g.omega[iMin];
-	if (n > 2) {
-		const ua = Math.log(g.omega[Math.max(0, iMin - 1)]);
-		const ub = Math.log(g.omega[Math.min(n - 1, iMin + 1)]);
-		const r = goldenMin(
-			(u) => {
-				lnMagPhaseAt(c, Math.exp(u), buf);
-				return dist(buf[0], buf[1]);
-			},
-			ua,
-			ub,
-			1e-9
-		);
+	// Modulus margin: the grid brackets the global minimum of |1 + T| to modulusRelTol; refine
+	// each sampled local minimum that could hold it by Brent's minimiser between its neighbours.
+	const relTol = options.modulusRelTol ?? 0.01;
+	let best = g.distance[g.iMinDistance];
+	let smW = g.omega[g.iMinDistance];
+	const limit = best * (1 + 2 * relTol);
+	for (let i = 0; i < n && n > 1; i++) {
+		const d = g.distance[i];
+		if (d > limit || (i > 0 && g.distance[i - 1] < d) || (i < n - 1 && g.distance[i + 1] < d)) continue;
+		const r = brentMin(distanceAtLog, g.logOmega[Math.max(0, i - 1)], g.logOmega[Math.min(n - 1, i + 1)], 1e-9);
 		if (r.fx < best) {
 			best = r.fx;
 			smW = Math.exp(r.x);

@@ -128,6 +128,105 @@ export function lnMagPhaseAt(c: CompiledTf, omega: number, out: Float64Array | n
 	out[1] = ph;
 }
 
+/**
+ * lnMagPhaseAt plus the slopes in log frequency: out = [ln|T|, phase (rad), d ln|T|/d ln ω,
+ * d phase/d ln ω]. ln|T| and the phase come out bit-identical to lnMagPhaseAt (same operations
+ * in the same order), so brackets found with one hold for the other. Per factor, with x = ω/ωc:
+ * real (1 + jx): slopes x²/(1 + x²) and x/(1 + x²) (x < 0 for a RHP root); pair
+ * 1 − x² + jx/q: slopes x²(1/q² − 2(1 − x²))/D and (x/q)(1 + x²)/D, D = (1 − x²)² + x²/q²;
+ * s^n: n and 0; delay: 0 and −ωTd [derived here: d/d ln ω = ω·d/dω].
+ */
+export function lnMagPhaseSlopeAt(c: CompiledTf, omega: number, out: Float64Array | number[]): void {
+	let ln = c.lnAbsGain + c.originPower * Math.log(omega);
+	let ph = c.phase0 + c.originPower * (Math.PI / 2) - omega * c.delayS;
+	let sm = c.originPower;
+	let sp = -omega * c.delayS;
+	let prod = 1;
+	const zr = c.zReal;
+	let i = 0;
+	for (; i + 1 < zr.length; i += 2) {
+		const x1 = omega * zr[i];
+		const x2 = omega * zr[i + 1];
+		const d1 = 1 + x1 * x1;
+		const d2 = 1 + x2 * x2;
+		prod *= d1 * d2;
+		ph += Math.atan2(x1 + x2, 1 - x1 * x2);
+		if (prod > 1e200) {
+			ln += 0.5 * Math.log(prod);
+			prod = 1;
+		}
+		sm += (x1 * x1) / d1 + (x2 * x2) / d2;
+		sp += x1 / d1 + x2 / d2;
+	}
+	if (i < zr.length) {
+		const x = omega * zr[i];
+		const d = 1 + x * x;
+		prod *= d;
+		ph += Math.atan(x);
+		sm += (x * x) / d;
+		sp += x / d;
+	}
+	const pr = c.pReal;
+	for (i = 0; i + 1 < pr.length; i += 2) {
+		const x1 = omega * pr[i];
+		const x2 = omega * pr[i + 1];
+		const d1 = 1 + x1 * x1;
+		const d2 = 1 + x2 * x2;
+		prod /= d1 * d2;
+		ph -= Math.atan2(x1 + x2, 1 - x1 * x2);
+		if (prod > 1e200 || prod < 1e-200) {
+			ln += 0.5 * Math.log(prod);
+			prod = 1;
+		}
+		sm -= (x1 * x1) / d1 + (x2 * x2) / d2;
+		sp -= x1 / d1 + x2 / d2;
+	}
+	if (i < pr.length) {
+		const x = omega * pr[i];
+		const d = 1 + x * x;
+		prod /= d;
+		ph -= Math.atan(x);
+		sm -= (x * x) / d;
+		sp -= x / d;
+	}
+	const zw = c.zPairInvW;
+	const zq = c.zPairInvQ;
+	for (i = 0; i < zw.length; i++) {
+		const x = omega * zw[i];
+		const re = 1 - x * x;
+		const im = x * zq[i];
+		const d = re * re + im * im;
+		prod *= d;
+		ph += Math.atan2(im, re);
+		if (prod > 1e200 || prod < 1e-200) {
+			ln += 0.5 * Math.log(prod);
+			prod = 1;
+		}
+		sm += (x * x * (zq[i] * zq[i] - 2 * re)) / d;
+		sp += (im * (1 + x * x)) / d;
+	}
+	const pw = c.pPairInvW;
+	const pq = c.pPairInvQ;
+	for (i = 0; i < pw.length; i++) {
+		const x = omega * pw[i];
+		const re = 1 - x * x;
+		const im = x * pq[i];
+		const d = re * re + im * im;
+		prod /= d;
+		ph -= Math.atan2(im, re);
+		if (prod > 1e200 || prod < 1e-200) {
+			ln += 0.5 * Math.log(prod);
+			prod = 1;
+		}
+		sm -= (x * x * (pq[i] * pq[i] - 2 * re)) / d;
+		sp -= (im * (1 + x * x)) / d;
+	}
+	out[0] = ln + 0.5 * Math.log(prod);
+	out[1] = ph;
+	out[2] = sm;
+	out[3] = sp;
+}
+
 /** Magnitude (dB) and unwrapped phase (deg) of T(jω) at one angular frequency. */
 export function evaluatePolar(tf: FactoredTf | CompiledTf, omega: number): { magDb: number; phaseDeg: number } {
 	const c = 'lnAbsGain' in tf ? tf : compileTf(tf);

@@ -1,0 +1,170 @@
+/**
+ * Exact bounds on the slopes d ln|T|/d ln ω and d∠T/d ln ω of a compiled loop over a frequency
+ * interval, factor by factor, so the bracketing grid can prove that an interval holds no
+ * crossing (or at most one). Each factor's slope is a known function of x = ω/ωc whose extrema
+ * are closed-form [derived here, see slopeBounds]; the loop's bound is the sum of the factors'.
+ */
+import type { CompiledTf } from '../tf/evaluate';
+
+/** Magnitude slope of a pair at y = x²: y(2y + a)/(y² + ay + 1), a = 1/q² − 2. */
+function pairMagSlope(y: number, a: number): number {
+	return (y * (2 * y + a)) / (y * y + a * y + 1);
+}
+
+/** Phase slope of a real factor, x/(1 + x²) for x ≥ 0: bounds over [xa, xb] into out[k…k+1]. */
+function realPhaseRange(xa: number, xb: number, out: Float64Array, k: number): void {
+	const ga = xa / (1 + xa * xa);
+	const gb = xb / (1 + xb * xb);
+	out[k] = ga < gb ? ga : gb;
+	out[k + 1] = xa <= 1 && xb >= 1 ? 0.5 : ga > gb ? ga : gb;
+}
+
+/** Bounds of the magnitude slope of one pair (1/ω0 = invW, 1/q = invQ) over [omegaA, omegaB]. */
+function pairMagRange(invW: number, invQ: number, omegaA: number, omegaB: number, out: Float64Array): void {
+	const a = invQ * invQ - 2;
+	const xa = omegaA * invW;
+	const xb = omegaB * invW;
+	const ya = xa * xa;
+	const yb = xb * xb;
+	let lo = pairMagSlope(ya, a);
+	let hi = pairMagSlope(yb, a);
+	if (lo > hi) {
+		const t = lo;
+		lo = hi;
+		hi = t;
+	}
+	// Interior extrema where a·y² + 4y + a = 0: two positive roots (product 1) when −2 < a < 0.
+	if (a < 0 && a > -2) {
+		const root = Math.sqrt(4 - a * a);
+		const y1 = (-2 + root) / a;
+		const y2 = 1 / y1;
+		if (y1 > ya && y1 < yb) {
+			const v = pairMagSlope(y1, a);
+			if (v < lo) lo = v;
+			if (v > hi) hi = v;
+		}
+		if (y2 > ya && y2 < yb) {
+			const v = pairMagSlope(y2, a);
+			if (v < lo) lo = v;
+			if (v > hi) hi = v;
+		}
+	}
+	out[4] = lo;
+	out[5] = hi;
+}
+
+/**
+ * Bounds of the phase slope of one pair over [omegaA, omegaB], without the sign of 1/q.
+ * Complex roots (|q| > 1/2): |1/q|·x(1 + x²)/((1 − x²)² + x²/q²), whose log-derivative in y = x²
+ * has the sign of (1 − y)(y² + (6 − 1/q²)y + 1), positive below y = 1 and negative above for
+ * |q| > 1/√8: it rises to 2|q| at x = 1, then falls. Real roots (|q| ≤ 1/2): the two real
+ * factors ω1·ω2 = ω0², ω1 + ω2 = ω0/|q|, each bounded as a real factor.
+ */
+function pairPhaseRange(invW: number, absInvQ: number, omegaA: number, omegaB: number, out: Float64Array): void {
+	const xa = omegaA * invW;
+	const xb = omegaB * invW;
+	if (absInvQ < 2) {
+		const ra = 1 - xa * xa;
+		const rb = 1 - xb * xb;
+		const q2 = absInvQ * absInvQ;
+		const ka = (absInvQ * xa * (1 + xa * xa)) / (ra * ra + xa * xa * q2);
+		const kb = (absInvQ * xb * (1 + xb * xb)) / (rb * rb + xb * xb * q2);
+		out[4] = ka < kb ? ka : kb;
+		out[5] = xa <= 1 && xb >= 1 ? 2 / absInvQ : ka > kb ? ka : kb;
+		return;
+	}
+	// x1 = ω/ω1, x2 = ω/ω2 with ω1 = ω0·(|1/q| + √(1/q² − 4))/2 and ω2 = ω0²/ω1.
+	const r1 = 2 / (absInvQ + Math.sqrt(absInvQ * absInvQ - 4));
+	const r2 = 1 / r1;
+	realPhaseRange(xa * r1, xb * r1, out, 4);
+	const lo = out[4];
+	const hi = out[5];
+	realPhaseRange(xa * r2, xb * r2, out, 4);
+	out[4] += lo;
+	out[5] += hi;
+}
+
+/**
+ * Bounds of both slopes over [omegaA, omegaB] (0 < omegaA < omegaB), written to
+ * out[0…3] = [magLo, magHi, phaseLo, phaseHi] (per unit of ln ω); out[4…5] is scratch, so out
+ * needs 6 entries. Valid when no undamped pair (1/q = 0) has its ω0 strictly inside.
+ * Real factor, magnitude x²/(1 + x²): increasing in x, bounded by its ends; phase x/(1 + x²):
+ * rises to 1/2 at x = 1, then falls. Pair, magnitude: extrema at the ends or where
+ * a·y² + 4y + a = 0 (the derivative of y(2y + a)/(y² + ay + 1)). Delay: −ωTd, monotone.
+ */
+export function slopeBounds(c: CompiledTf, omegaA: number, omegaB: number, out: Float64Array): void {
+	let mLo = c.originPower;
+	let mHi = c.originPower;
+	let pLo = -omegaB * c.delayS;
+	let pHi = -omegaA * c.delayS;
+
+	for (let side = 0; side < 2; side++) {
+		const real = side === 0 ? c.zReal : c.pReal;
+		for (let i = 0; i < real.length; i++) {
+			const r = real[i];
+			const ar = r < 0 ? -r : r;
+			const xa = omegaA * ar;
+			const xb = omegaB * ar;
+			const lo = (xa * xa) / (1 + xa * xa);
+			const hi = (xb * xb) / (1 + xb * xb);
+			realPhaseRange(xa, xb, out, 4);
+			// A zero adds its slopes, a pole subtracts them; a RHP root flips the phase slope.
+			const phaseSign = (side === 0) === r > 0 ? 1 : -1;
+			if (side === 0) {
+				mLo += lo;
+				mHi += hi;
+			} else {
+				mLo -= hi;
+				mHi -= lo;
+			}
+			if (phaseSign > 0) {
+				pLo += out[4];
+				pHi += out[5];
+			} else {
+				pLo -= out[5];
+				pHi -= out[4];
+			}
+		}
+		const invW = side === 0 ? c.zPairInvW : c.pPairInvW;
+		const invQ = side === 0 ? c.zPairInvQ : c.pPairInvQ;
+		for (let i = 0; i < invW.length; i++) {
+			const iq = invQ[i];
+			pairMagRange(invW[i], iq, omegaA, omegaB, out);
+			if (side === 0) {
+				mLo += out[4];
+				mHi += out[5];
+			} else {
+				mLo -= out[5];
+				mHi -= out[4];
+			}
+			if (iq === 0) continue; // undamped: flat phase away from ω0
+			pairPhaseRange(invW[i], iq < 0 ? -iq : iq, omegaA, omegaB, out);
+			const phaseSign = (side === 0) === iq > 0 ? 1 : -1;
+			if (phaseSign > 0) {
+				pLo += out[4];
+				pHi += out[5];
+			} else {
+				pLo -= out[5];
+				pHi -= out[4];
+			}
+		}
+	}
+	out[0] = mLo;
+	out[1] = mHi;
+	out[2] = pLo;
+	out[3] = pHi;
+}
+
+/** True when an undamped pair (1/q = 0) has its ω0 strictly inside (omegaA, omegaB). */
+export function containsUndampedPair(c: CompiledTf, omegaA: number, omegaB: number): boolean {
+	for (let side = 0; side < 2; side++) {
+		const invW = side === 0 ? c.zPairInvW : c.pPairInvW;
+		const invQ = side === 0 ? c.zPairInvQ : c.pPairInvQ;
+		for (let i = 0; i < invW.length; i++) {
+			if (invQ[i] !== 0) continue;
+			const w0 = 1 / invW[i];
+			if (w0 > omegaA && w0 < omegaB) return true;
+		}
+	}
+	return false;
+}
