@@ -8,7 +8,8 @@ import { svelteKitHandler } from 'better-auth/svelte-kit';
 import { auth } from '$lib/server/auth';
 import { db } from '$lib/server/db';
 import { isProduction } from '$lib/server/env';
-import { errorResponse, ApiError } from '$lib/server/http/errors';
+import { errorResponse, ApiError, databaseUnavailable, isDatabaseUnavailable } from '$lib/server/http/errors';
+import { databaseAnswers } from '$lib/server/health';
 import { MAX_BODY_BYTES } from '$lib/server/http/request';
 import * as tokens from '$lib/server/services/tokens';
 
@@ -17,19 +18,28 @@ const identify: Handle = async ({ event, resolve }) => {
 	event.locals.session = null;
 	event.locals.authenticatedBy = null;
 	const bearer = /^Bearer\s+(\S+)$/i.exec(event.request.headers.get('authorization') ?? '')?.[1];
-	if (bearer && event.url.pathname.startsWith('/api/v1/')) {
-		const user = await tokens.authenticate(db, bearer);
-		if (user) {
-			event.locals.user = user;
-			event.locals.authenticatedBy = 'token';
+	try {
+		if (bearer && event.url.pathname.startsWith('/api/v1/')) {
+			const user = await tokens.authenticate(db, bearer);
+			if (user) {
+				event.locals.user = user;
+				event.locals.authenticatedBy = 'token';
+			}
+		} else if (!building) {
+			const found = await auth.api.getSession({ headers: event.request.headers });
+			if (found) {
+				event.locals.user = found.user;
+				event.locals.session = found.session;
+				event.locals.authenticatedBy = 'session';
+			}
 		}
-	} else if (!building) {
-		const found = await auth.api.getSession({ headers: event.request.headers });
-		if (found) {
-			event.locals.user = found.user;
-			event.locals.session = found.session;
-			event.locals.authenticatedBy = 'session';
+	} catch (error) {
+		// Database down: answer 503 at once rather than a 500 (better-auth hides the cause, so ask the database).
+		if (isDatabaseUnavailable(error) || !(await databaseAnswers(db, 1000))) {
+			if (event.url.pathname.startsWith('/api/')) return errorResponse(databaseUnavailable());
+			return new Response('Loopwright cannot reach its database right now; try again in a few seconds.', { status: 503, headers: { 'content-type': 'text/plain; charset=utf-8', 'retry-after': '5' } });
 		}
+		throw error;
 	}
 	return svelteKitHandler({ event, resolve, auth, building });
 };

@@ -1,7 +1,7 @@
 // Wraps every /api/v1 handler: turns ApiError (and unexpected failures) into JSON error
 // bodies and marks responses as uncacheable.
 import { isHttpError, json, type RequestEvent } from '@sveltejs/kit';
-import { ApiError, errorResponse } from './errors';
+import { ApiError, databaseUnavailable, errorResponse, isDatabaseUnavailable } from './errors';
 
 export function endpoint<E extends RequestEvent>(handler: (event: E) => Promise<Response | unknown>) {
 	return async (event: E): Promise<Response> => {
@@ -14,6 +14,7 @@ export function endpoint<E extends RequestEvent>(handler: (event: E) => Promise<
 			if (isHttpError(error)) {
 				return errorResponse(new ApiError(error.status, 'http-error', error.body.message));
 			}
+			if (isDatabaseUnavailable(error)) return errorResponse(databaseUnavailable());
 			console.error('[api]', event.request.method, event.url.pathname, error);
 			return errorResponse(new ApiError(500, 'internal-error', 'the server failed to answer; the error is logged'));
 		}

@@ -42,3 +42,32 @@ export function errorResponse(error: ApiError): Response {
 	if (error.fields) body.fields = error.fields;
 	return json({ error: body }, { status: error.status, headers: { 'cache-control': 'no-store' } });
 }
+
+/** Error codes (Node sockets, mysql2) that mean the database cannot be reached right now. */
+const DATABASE_DOWN_CODES = new Set([
+	'ECONNREFUSED',
+	'ECONNRESET',
+	'ETIMEDOUT',
+	'EPIPE',
+	'EHOSTUNREACH',
+	'PROTOCOL_CONNECTION_LOST',
+	'PROTOCOL_SEQUENCE_TIMEOUT',
+	'ER_SERVER_SHUTDOWN',
+	'ER_CON_COUNT_ERROR'
+]);
+
+/** True when the error, or any error in its `cause` chain (Drizzle wraps mysql2's), says the database is unreachable. */
+export function isDatabaseUnavailable(error: unknown): boolean {
+	let e: unknown = error;
+	for (let depth = 0; e && typeof e === 'object' && depth < 8; depth++) {
+		const code = (e as { code?: unknown }).code;
+		if (typeof code === 'string' && DATABASE_DOWN_CODES.has(code)) return true;
+		if (/Pool is closed|Connection lost: The server closed the connection/i.test(String((e as { message?: unknown }).message ?? ''))) return true;
+		e = (e as { cause?: unknown }).cause;
+	}
+	return false;
+}
+
+/** 503 while the database is down: the client may retry; nothing was written. */
+export const databaseUnavailable = () =>
+	new ApiError(503, 'database-unavailable', 'the database is not answering; nothing was saved, try again in a few seconds');

@@ -1,0 +1,336 @@
+// `npm run test:load`: load, fault and production checks against the production build (node
+// build), on 127.0.0.1 only, every run bounded in request count and time. Not part of npm test.
+//  1. load: autocannon on POST /api/v1/analyze (1 and 50 clients) and on the rail page's API
+//     (rail, latest revisions, one revision); throughput, p50, p99, and the ratio of the API's
+//     time per analysis to the engine's own time for the same document (target < 1.5 at 50 clients)
+//  2. production checks: sign-in rate limit, a 2 MB bench upload, npm audit of production deps
+//  3. faults: a private MariaDB (own port and data folder) stopped and restarted under a write
+//     load: how requests fail while it is down, recovery without an app restart, and every
+//     acknowledged write counted in the database afterwards
+// Prints the figures and writes them to .tmp/load-records.json. Options: --no-build, --skip-faults.
+import autocannon from 'autocannon';
+import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
+import { mkdirSync, writeFileSync } from 'node:fs';
+import { createServer } from 'node:net';
+import mysql from 'mysql2/promise';
+import { analyzeDesign } from '../src/lib/engine/analyze';
+
+const args = new Set(process.argv.slice(2));
+const ROOT = process.cwd();
+const SECRET = process.env.BETTER_AUTH_SECRET || 'load-test-secret-0123456789abcdef0123456789';
+const TEST_DB = process.env.DB_NAME_TEST || 'loopwright_test';
+const FAULT_DB_PORT = Number(process.env.FAULT_DB_PORT || 3317);
+const records: Record<string, unknown> = { date: new Date().toISOString(), node: process.version };
+/** A private copy of the build, so another build in the same checkout cannot swap chunks under the server. */
+const BUILD_DIR = '.tmp/load-build';
+
+const log = (...m: unknown[]) => console.log('[load]', ...m);
+const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
+const round = (x: number, digits = 2) => Number(x.toFixed(digits));
+
+/** The design the load sends: the integration tests' 12 V → 5 V buck, Type III placed by K-factor. */
+const DESIGN = {
+	schemaVersion: 1,
+	plant: { topology: 'buck', vin: 12, vout: 5, iout: 2, fsw: 500_000, inductor: { l: 10e-6, dcr: 0.015 }, capacitors: [{ c: 22e-6, esr: 0.003, esl: 0, count: 3 }], rdsOn: 0.01 },
+	modulator: { vramp: 1.5, feedForward: false, delay: 0 },
+	feedback: { vref: 0.8, r1: 10_000 },
+	compensator: { kind: 'type3', target: { method: 'k-factor', crossoverHz: 40_000, phaseMarginDeg: 60 }, series: { resistors: 'E96', capacitors: 'E12' } }
+};
+
+function freePort(): Promise<number> {
+	return new Promise((resolve, reject) => {
+		const s = createServer();
+		s.once('error', reject);
+		s.listen(0, '127.0.0.1', () => {
+			const a = s.address();
+			s.close(() => resolve(typeof a === 'object' && a ? a.port : 0));
+		});
+	});
+}
+
+function sh(command: string, env: Record<string, string> = {}) {
+	const r = spawnSync('bash', ['-c', command], { stdio: 'inherit', env: { ...process.env, ...env } });
+	if (r.status !== 0) throw new Error(`failed (${r.status}): ${command}`);
+}
+
+interface Server {
+	origin: string;
+	child: ChildProcess;
+	stop(): Promise<void>;
+}
+
+/** `node build` on a free loopback port against the given database, in production mode. */
+async function startServer(env: Record<string, string>): Promise<Server> {
+	const port = await freePort();
+	const origin = `http://127.0.0.1:${port}`;
+	const child = spawn(process.execPath, [BUILD_DIR], {
+		env: { ...process.env, NODE_ENV: 'production', LOOPWRIGHT_ENV: 'production', HOST: '127.0.0.1', PORT: String(port), ORIGIN: origin, BETTER_AUTH_URL: origin, BETTER_AUTH_SECRET: SECRET, ...env },
+		stdio: ['ignore', 'ignore', 'pipe']
+	});
+	child.stderr!.on('data', (d: Buffer) => {
+		const text = d.toString();
+		if (!/Rate limiting could not determine|User not found|Invalid password/.test(text)) process.stderr.write(`[server] ${text}`);
+	});
+	for (let i = 0; i < 100; i++) {
+		try {
+			if ((await fetch(`${origin}/api/health`)).ok) break;
+		} catch {
+			/* not listening yet */
+		}
+		await sleep(200);
+	}
+	return {
+		origin,
+		child,
+		stop: () =>
+			new Promise<void>((resolve) => {
+				if (child.exitCode !== null) return resolve();
+				const kill = setTimeout(() => child.kill('SIGKILL'), 10_000);
+				child.once('exit', () => (clearTimeout(kill), resolve()));
+				child.kill('SIGTERM');
+			})
+	};
+}
+
+/** A signed-up user (better-auth's /api/auth) with a workspace, a board, a rail and a saved loop. */
+async function signedInTeam(origin: string, label: string) {
+	const email = `${label}-${Date.now()}@example.test`;
+	const up = await fetch(`${origin}/api/auth/sign-up/email`, { method: 'POST', headers: { origin, 'content-type': 'application/json' }, body: JSON.stringify({ email, password: 'load-test-pass-123', name: `Load ${label}` }) });
+	if (up.status !== 200) throw new Error(`sign-up failed: ${up.status} ${await up.text()}`);
+	const cookie = up.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
+	const call = async (method: string, path: string, body?: unknown) => {
+		const r = await fetch(origin + path, { method, headers: { origin, cookie, 'content-type': 'application/json' }, body: body === undefined ? undefined : JSON.stringify(body) });
+		const json = await r.json().catch(() => null);
+		if (r.status >= 300) throw new Error(`${method} ${path}: ${r.status} ${JSON.stringify(json)}`);
+		return json;
+	};
+	const workspaceId = (await call('POST', '/api/v1/workspaces', { name: `Load ${label}`, slug: `load-${label}-${Date.now()}` })).id as string;
+	const projectId = (await call('POST', `/api/v1/projects?workspace=${workspaceId}`, { name: 'Load board' })).id as string;
+	const railId = (await call('POST', `/api/v1/projects/${projectId}/rails`, { name: '5V0_LOAD', topology: 'buck', vout: 5, vinNom: 12, vinMin: 9, vinMax: 16, ioutNom: 2, ioutMin: 0.2, ioutMax: 3, fsw: 500_000 })).id as string;
+	const loopId = (await call('POST', `/api/v1/rails/${railId}/loops`, { baseRevision: null, design: DESIGN, message: 'load' })).id as string;
+	return { origin, cookie, email, workspaceId, projectId, railId, loopId };
+}
+
+function summary(r: autocannon.Result) {
+	return {
+		requests: r.requests.total,
+		durationS: round(r.duration, 1),
+		throughputRps: round(r.requests.average, 1),
+		p50Ms: r.latency.p50,
+		p99Ms: r.latency.p99,
+		non2xx: r.non2xx,
+		errors: r.errors,
+		timeouts: r.timeouts
+	};
+}
+
+async function cannon(opts: autocannon.Options) {
+	return summary(await autocannon({ timeout: 10, ...opts }));
+}
+
+/** Median time of the engine alone on the document, full response included (as the API returns it). */
+function engineMs(rounds = 400): number {
+	for (let i = 0; i < 50; i++) analyzeDesign(DESIGN);
+	const times: number[] = [];
+	for (let i = 0; i < rounds; i++) {
+		const t = process.hrtime.bigint();
+		analyzeDesign(DESIGN);
+		times.push(Number(process.hrtime.bigint() - t) / 1e6);
+	}
+	times.sort((a, b) => a - b);
+	return times[Math.floor(times.length / 2)];
+}
+
+async function loadRuns(server: Server) {
+	const team = await signedInTeam(server.origin, 'perf');
+	const headers = { origin: server.origin, cookie: team.cookie, 'content-type': 'application/json' };
+	const body = JSON.stringify(DESIGN);
+	const analyze = { url: `${server.origin}/api/v1/analyze`, method: 'POST' as const, headers, body };
+	log('warming up');
+	await cannon({ ...analyze, connections: 4, amount: 300, duration: 20 });
+	const engine = engineMs();
+	log(`engine alone: ${engine.toFixed(3)} ms per analysis`);
+	const one = await cannon({ ...analyze, connections: 1, amount: 400, duration: 30 });
+	log('analyze, 1 client', one);
+	// What every signed-in request pays before any work: the session lookup (GET /api/v1/me).
+	const session = await cannon({ url: `${server.origin}/api/v1/me`, headers, connections: 1, amount: 400, duration: 30 });
+	log('session only (GET /api/v1/me), 1 client', session);
+	const session50 = await cannon({ url: `${server.origin}/api/v1/me`, headers, connections: 50, amount: 3000, duration: 60 });
+	const fifty = await cannon({ ...analyze, connections: 50, amount: 3000, duration: 60 });
+	log('analyze, 50 clients', fifty);
+	// One Node process answers on one JavaScript thread, so its time per answer is 1/throughput.
+	const serverMsPerAnalysis = 1000 / fifty.throughputRps;
+	records.analyze = {
+		engineMs: round(engine, 3),
+		oneClient: one,
+		fiftyClients: fifty,
+		serverMsPerAnalysisAt50: round(serverMsPerAnalysis, 3),
+		overheadRatioAt50: round(serverMsPerAnalysis / engine, 2),
+		latencyRatioOneClient: round(one.p50Ms / engine, 2),
+		sessionOnlyOneClient: session,
+		sessionOnlyFiftyClients: session50,
+		target: 'overheadRatioAt50 < 1.5'
+	};
+	const rail = [
+		{ method: 'GET' as const, path: `/api/v1/rails/${team.railId}` },
+		{ method: 'GET' as const, path: `/api/v1/rails/${team.railId}/loops?limit=1` },
+		{ method: 'GET' as const, path: `/api/v1/loops/${team.loopId}` }
+	];
+	const railPage = await cannon({ url: server.origin, headers, requests: rail, connections: 50, amount: 3000, duration: 60 });
+	log('rail page API, 50 clients', railPage);
+	records.railPageApi = { requests: rail.map((r) => r.path.replace(/[0-9a-f-]{36}/g, '{id}')), fiftyClients: railPage };
+	return team;
+}
+
+async function productionChecks(server: Server, team: { cookie: string; railId: string; email: string }) {
+	// Sign-in: better-auth limits /sign-in to 3 per 10 s per client in production.
+	const statuses: number[] = [];
+	for (let i = 0; i < 5; i++) {
+		const r = await fetch(`${server.origin}/api/auth/sign-in/email`, { method: 'POST', headers: { origin: server.origin, 'content-type': 'application/json' }, body: JSON.stringify({ email: team.email, password: 'wrong-password-0' }) });
+		statuses.push(r.status);
+	}
+	// The sign-in form calls better-auth in-process (auth.api), which the limiter does not see.
+	const form: number[] = [];
+	for (let i = 0; i < 5; i++) {
+		const r = await fetch(`${server.origin}/sign-in`, { method: 'POST', redirect: 'manual', headers: { origin: server.origin, 'content-type': 'application/x-www-form-urlencoded' }, body: new URLSearchParams({ email: team.email, password: 'wrong-password-0' }).toString() });
+		form.push(r.status);
+	}
+	// A 2 MB analyzer file (19 000 rows with a notes column), inside the documented 5 MB bench limit.
+	const pad = 'x'.repeat(60);
+	const csv = ['Frequency (Hz),Gain (dB),Phase (deg),Notes', ...Array.from({ length: 19_000 }, (_, i) => `${(10 * 1.0005 ** i).toPrecision(12)},${(40 - i * 1e-3).toFixed(6)},${(-90 - i * 1e-3).toFixed(6)},${pad}`)].join('\n');
+	const fd = new FormData();
+	fd.set('file', new Blob([csv], { type: 'text/csv' }), 'two-mb.csv');
+	const upload = await fetch(`${server.origin}/api/v1/rails/${team.railId}/bench`, { method: 'POST', headers: { origin: server.origin, cookie: team.cookie }, body: fd });
+	records.production = {
+		signInApiStatuses: statuses,
+		signInFormStatuses: form,
+		benchUpload2MbStatus: upload.status,
+		benchUpload2MbBytes: csv.length
+	};
+	await upload.text();
+	const audit = spawnSync('npm', ['audit', '--omit=dev', '--json'], { encoding: 'utf8', timeout: 60_000 });
+	try {
+		const report = JSON.parse(audit.stdout);
+		records.npmAudit = report.metadata?.vulnerabilities ?? { unavailable: String(report.message ?? report.error?.summary ?? 'no audit data').slice(0, 160) };
+	} catch {
+		records.npmAudit = { unavailable: (audit.stderr || 'no output').slice(0, 160) };
+	}
+	log('production checks', records.production, 'npm audit', records.npmAudit);
+}
+
+/** The fault run: private MariaDB, write load, stop and restart it, count the acknowledged writes. */
+async function faultRun() {
+	const dataDir = `${ROOT}/.data/mariadb-faults-${FAULT_DB_PORT}`;
+	const dbEnv = { DB_PORT: String(FAULT_DB_PORT), DB_DATA_DIR: dataDir };
+	log(`fault run: private MariaDB on port ${FAULT_DB_PORT}`);
+	sh('bash scripts/db-up.sh', dbEnv);
+	sh(`npx tsx scripts/migrate.ts ${TEST_DB}`, { ...dbEnv, DB_NAME: TEST_DB });
+	const server = await startServer({ ...dbEnv, DB_NAME: TEST_DB });
+	try {
+		const team = await signedInTeam(server.origin, 'fault');
+		const acked: string[] = [];
+		const events: { t: number; status: number; ms: number; code: string | null }[] = [];
+		const t0 = Date.now();
+		let stop = false;
+		let n = 0;
+		const writer = async () => {
+			while (!stop) {
+				const started = Date.now();
+				let status = 0;
+				let code: string | null = null;
+				try {
+					const r = await fetch(`${server.origin}/api/v1/projects?workspace=${team.workspaceId}`, {
+						method: 'POST',
+						headers: { origin: server.origin, cookie: team.cookie, 'content-type': 'application/json' },
+						body: JSON.stringify({ name: `fault board ${n++}` }),
+						signal: AbortSignal.timeout(15_000)
+					});
+					status = r.status;
+					const body = await r.json().catch(() => null);
+					code = body?.error?.code ?? null;
+					if (status === 201) acked.push(body.id);
+				} catch {
+					status = -1; // no answer in 15 s, or the connection dropped
+				}
+				events.push({ t: Date.now() - t0, status, ms: Date.now() - started, code });
+				if (status !== 201) await sleep(100);
+			}
+		};
+		const writers = Array.from({ length: 8 }, writer);
+		await sleep(3000);
+		const downAt = Date.now() - t0;
+		sh('bash scripts/db-stop.sh', dbEnv);
+		const downDone = Date.now() - t0;
+		await sleep(6000);
+		const upAt = Date.now() - t0;
+		sh('bash scripts/db-up.sh', dbEnv);
+		const upDone = Date.now() - t0;
+		await sleep(6000);
+		stop = true;
+		await Promise.all(writers);
+		const during = events.filter((e) => e.t - e.ms > downDone && e.t - e.ms < upAt);
+		const after = events.filter((e) => e.t - e.ms > upDone);
+		const firstOkAfter = after.find((e) => e.status === 201);
+		const byStatus = (list: typeof events) => list.reduce<Record<string, number>>((m, e) => ((m[`${e.status}${e.code ? ' ' + e.code : ''}`] = (m[`${e.status}${e.code ? ' ' + e.code : ''}`] ?? 0) + 1), m), {});
+		const connection = await mysql.createConnection({ host: '127.0.0.1', port: FAULT_DB_PORT, user: process.env.DB_USER || 'loopwright', password: process.env.DB_PASSWORD || 'loopwright', database: TEST_DB });
+		const [rows] = await connection.query("SELECT id FROM project WHERE workspace_id = ? AND name LIKE 'fault board %'", [team.workspaceId]);
+		await connection.end();
+		const stored = new Set((rows as { id: string }[]).map((r) => r.id));
+		const lost = acked.filter((id) => !stored.has(id));
+		records.faults = {
+			writers: 8,
+			requests: events.length,
+			acknowledged: acked.length,
+			storedAfterwards: stored.size,
+			acknowledgedButLost: lost.length,
+			whileDown: { answers: byStatus(during), maxMs: Math.max(0, ...during.map((e) => e.ms)), p50Ms: during.map((e) => e.ms).sort((a, b) => a - b)[Math.floor(during.length / 2)] ?? null },
+			afterRestart: { answers: byStatus(after), firstSuccessAfterMs: firstOkAfter ? firstOkAfter.t - upDone : null },
+			timeline: { stopAtS: downAt / 1000, stoppedAtS: downDone / 1000, restartAtS: upAt / 1000, restartedAtS: upDone / 1000 }
+		};
+		log('faults', JSON.stringify(records.faults, null, 1));
+	} finally {
+		await server.stop();
+		sh('bash scripts/db-stop.sh', dbEnv);
+	}
+}
+
+async function main() {
+	if (!args.has('--no-build')) {
+		log('building');
+		sh('npx vite build --logLevel warn', { BETTER_AUTH_SECRET: SECRET, LOOPWRIGHT_ENV: 'test' });
+	}
+	sh(`rm -rf ${BUILD_DIR} && mkdir -p .tmp && cp -r build ${BUILD_DIR}`);
+	if (args.has('--only-faults')) return faultRun().then(() => console.log(JSON.stringify(records, null, 2)));
+	sh('bash scripts/db-up.sh');
+	sh(`npx tsx scripts/migrate.ts ${TEST_DB}`, { DB_NAME: TEST_DB });
+	const server = await startServer({ DB_NAME: TEST_DB });
+	try {
+		const team = await loadRuns(server);
+		await productionChecks(server, team);
+	} finally {
+		await server.stop();
+	}
+	if (!args.has('--skip-faults')) await faultRun();
+	mkdirSync('.tmp', { recursive: true });
+	writeFileSync('.tmp/load-records.json', JSON.stringify(records, null, 2));
+	log('records written to .tmp/load-records.json');
+	console.log(JSON.stringify(records, null, 2));
+	const a = records.analyze as { overheadRatioAt50: number };
+	const f = records.faults as { acknowledgedButLost: number; whileDown: { answers: Record<string, number> }; afterRestart: { firstSuccessAfterMs: number | null } } | undefined;
+	const not503 = f ? Object.keys(f.whileDown.answers).filter((k) => !/^(201|503)/.test(k)) : [];
+	const failed = [
+		a.overheadRatioAt50 >= 1.5 && 'analyze overhead at 50 clients is 1.5× or more',
+		f && f.acknowledgedButLost > 0 && 'acknowledged writes were lost',
+		not503.length > 0 && `answers other than 503 while the database was down: ${not503.join(', ')}`,
+		f && f.afterRestart.firstSuccessAfterMs === null && 'no write succeeded after the database came back'
+	].filter(Boolean);
+	if (failed.length) {
+		console.error('[load] FAILED:', failed.join('; '));
+		process.exitCode = 1;
+	}
+}
+
+main().catch((error) => {
+	console.error(error);
+	process.exit(1);
+});
