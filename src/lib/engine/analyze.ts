@@ -4,8 +4,8 @@
  * Bode data on the requested sweep and loop metrics (analysis/) → contract response.
  * Errors come back as the contract's error object, never thrown. Every number is finite.
  */
-import { loopMetrics, type LoopMetrics } from './analysis/margins';
-import { resolveCompensator, CompensatorDesignError, type ResolvedCompensator } from './compensators';
+import type { LoopMetrics } from './analysis/margins';
+import { resolveParsedCompensator, CompensatorDesignError, type ResolvedCompensator } from './compensators';
 import { contractError, zodFields, type ContractError } from './contract/errors';
 import { DEFAULT_SWEEP_POINTS, designDocumentSchema, type DesignDocument } from './contract/designSchema';
 import type { AnalysisResponse } from './contract/responseSchema';
@@ -77,15 +77,6 @@ function run(d: DesignDocument, options: AnalyzeOptions): AnalysisDetail {
 	});
 	const mod = { vramp: d.modulator.vramp, feedForward: d.modulator.feedForward, delayS: d.modulator.delay };
 	const plantLoop = multiply(modulatorTf(mod, p.vin), plant.gvd);
-	const compensator = resolveCompensator(d.compensator, {
-		plant: plantLoop,
-		fswHz: p.fsw,
-		features: plant.features,
-		vout: p.vout,
-		vref: d.feedback.vref,
-		r1: d.feedback.r1
-	});
-	const loop = multiply(compensator.built, plantLoop);
 
 	// Plot grid: the document's sweep, or two decades below f0 to fsw/2 (400 points).
 	const include = options.includeResponse ?? true;
@@ -105,9 +96,21 @@ function run(d: DesignDocument, options: AnalyzeOptions): AnalysisDetail {
 	}
 
 	// Metrics range: the sweep widened to [f0/100, 10·fsw], so margins above fsw/2 are found
-	// (and flagged) rather than silently missed.
-	const range = { startHz: Math.min(lo, plant.features.f0Hz / 100), stopHz: Math.max(hi, 10 * p.fsw) };
-	const metrics = loopMetrics(loop, range);
+	// (and flagged) rather than silently missed. The compensator analyses the built loop once over
+	// this range joined with its own check range, and those metrics are the response's.
+	const wanted = { startHz: Math.min(lo, plant.features.f0Hz / 100), stopHz: Math.max(hi, 10 * p.fsw) };
+	const compensator = resolveParsedCompensator(d.compensator, {
+		plant: plantLoop,
+		fswHz: p.fsw,
+		features: plant.features,
+		vout: p.vout,
+		vref: d.feedback.vref,
+		r1: d.feedback.r1,
+		metricsRangeHz: wanted
+	});
+	const loop = compensator.builtLoop;
+	const metrics = compensator.builtLoopMetrics;
+	const range = compensator.builtLoopRangeHz;
 
 	// Bode data. The loop is the exact sum of compensator and plant-loop terms in dB and degrees
 	// (factored form), so it costs no extra evaluation.

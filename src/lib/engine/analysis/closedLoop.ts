@@ -3,7 +3,10 @@
  * never from the margins. Polynomials are built in x = s/k (k = geometric mean of the loop's
  * corner frequencies) for conditioning. A loop delay is replaced by Padé(n,n) with the lowest
  * n in 2…8 whose phase error stays below 0.5° up to `accurateToHz` (default: the highest
- * crossover × 2); margins themselves always use the exact delay.
+ * crossover × 2); margins themselves always use the exact delay. When only the verdict is
+ * needed, a Routh–Hurwitz test of the same polynomial decides "stable" without roots (an exact
+ * criterion for real polynomials [published: Routh–Hurwitz, any control text; from memory]);
+ * anything else (unstable, marginal, ill-conditioned) still goes to the roots.
  */
 import type { Complex } from '../math/complex';
 import { polyAdd, polyEvalComplex, polyProduct, polyScale, polyShift, degree } from '../math/polynomial';
@@ -18,7 +21,47 @@ export interface ClosedLoopResult {
 	poles: Complex[];
 	/** Padé order used for the delay (0 without delay). */
 	padeOrder: number;
+	/** 'roots': from the poles; 'routh': stable by Routh–Hurwitz, poles not computed (empty). */
+	method: 'roots' | 'routh';
 	reason?: string;
+}
+
+/**
+ * Routh–Hurwitz test of a real polynomial (ascending coefficients): true when every coefficient
+ * has the leading coefficient's sign and every first-column entry is positive by more than 1e-8
+ * of the terms it was computed from (so cancellation cannot have made it so), i.e. all roots
+ * clearly in the open left half plane; null when the test cannot say so (unstable, marginal or
+ * ill-conditioned: use the roots).
+ */
+export function routhHurwitzStable(ascending: readonly number[]): true | null {
+	const n = ascending.length - 1;
+	if (n < 1) return null;
+	const lead = ascending[n];
+	if (!(lead !== 0)) return null;
+	const sign = lead > 0 ? 1 : -1;
+	for (let i = 0; i <= n; i++) if (!(sign * ascending[i] > 0)) return null;
+	// Two rows of the array at a time, highest power first: r0 = a_n, a_{n−2}, …; r1 = a_{n−1}, a_{n−3}, ….
+	const width = (n >> 1) + 2;
+	let r0 = new Float64Array(width);
+	let r1 = new Float64Array(width);
+	let next = new Float64Array(width);
+	for (let i = 0; i <= n; i++) {
+		const v = sign * ascending[n - i];
+		if (i % 2 === 0) r0[i >> 1] = v;
+		else r1[i >> 1] = v;
+	}
+	for (let row = 2; row <= n; row++) {
+		const p = r1[0];
+		const ratio = r0[0] / p;
+		for (let j = 0; j + 1 < width; j++) next[j] = r0[j + 1] - ratio * r1[j + 1];
+		next[width - 1] = 0;
+		if (!(next[0] > 1e-8 * (Math.abs(r0[1]) + Math.abs(ratio * r1[1])))) return null;
+		const t = r0;
+		r0 = r1;
+		r1 = next;
+		next = t;
+	}
+	return true;
 }
 
 const rootMag = (r: Root) => (r.kind === 'real' ? Math.abs(r.omega) : r.omega0);
@@ -48,7 +91,12 @@ export function choosePadeOrder(delayS: number, accurateToHz: number): number {
 
 export function closedLoopStability(
 	loop: FactoredTf,
-	options: { padeOrder?: number; accurateToHz?: number } = {}
+	options: {
+		padeOrder?: number;
+		accurateToHz?: number;
+		/** The poles are wanted [true]; false allows the Routh–Hurwitz shortcut for a stable loop. */
+		poles?: boolean;
+	} = {}
 ): ClosedLoopResult {
 	const roots = [...loop.zeros, ...loop.poles];
 	const delay = loop.delayS ?? 0;
@@ -69,18 +117,19 @@ export function closedLoopStability(
 	}
 	const ch = polyAdd(den, num);
 	const n = degree(ch);
-	if (n < 0) return { stable: null, poles: [], padeOrder, reason: '1 + T is identically zero' };
+	if (n < 0) return { stable: null, poles: [], padeOrder, method: 'roots', reason: '1 + T is identically zero' };
 	// An improper cancellation (T(∞) = −1) lowers the degree: poles have gone to infinity.
 	const nd = degree(den);
 	if (n < Math.max(nd, degree(num))) {
-		return { stable: null, poles: [], padeOrder, reason: '1 + T loses degree at s → ∞ (T(∞) = −1)' };
+		return { stable: null, poles: [], padeOrder, method: 'roots', reason: '1 + T loses degree at s → ∞ (T(∞) = −1)' };
 	}
-	if (!ch.every(Number.isFinite)) return { stable: null, poles: [], padeOrder, reason: 'non-finite characteristic polynomial' };
+	if (!ch.every(Number.isFinite)) return { stable: null, poles: [], padeOrder, method: 'roots', reason: 'non-finite characteristic polynomial' };
+	if (options.poles === false && routhHurwitzStable(ch.slice(0, n + 1)) === true) return { stable: true, poles: [], padeOrder, method: 'routh' };
 	const r = polyRoots(ch);
 	const poles = r.roots.map((z) => ({ re: z.re * k, im: z.im * k }));
 	if (!(r.backwardError < 1e-8)) {
-		return { stable: null, poles, padeOrder, reason: `closed-loop poles inaccurate (backward error ${r.backwardError.toExponential(1)})` };
+		return { stable: null, poles, padeOrder, method: 'roots', reason: `closed-loop poles inaccurate (backward error ${r.backwardError.toExponential(1)})` };
 	}
 	const stable = poles.every((p) => p.re < -1e-12 * Math.hypot(p.re, p.im));
-	return { stable, poles, padeOrder };
+	return { stable, poles, padeOrder, method: 'roots' };
 }

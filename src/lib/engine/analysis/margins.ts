@@ -64,6 +64,9 @@ export interface MarginOptions extends GridOptions {
 	padeOrder?: number;
 	/** Skip the closed-loop pole computation [false]. */
 	skipClosedLoop?: boolean;
+	/** Compute the closed-loop poles [true]; false needs only the stability verdict, which a
+	 * Routh–Hurwitz test gives without roots for a clearly stable loop (poles then empty). */
+	closedLoopPoles?: boolean;
 }
 
 /** Reduce an angle in degrees to (−180, 180]. */
@@ -207,7 +210,7 @@ export function loopMetrics(
 	let stable: boolean | null = null;
 	if (!options.skipClosedLoop) {
 		const highest = crossovers.length ? Math.max(...crossovers.map((x) => x.freqHz)) : range.stopHz;
-		closedLoop = closedLoopStability(loop, { padeOrder: options.padeOrder, accurateToHz: 2 * highest });
+		closedLoop = closedLoopStability(loop, { padeOrder: options.padeOrder, accurateToHz: 2 * highest, poles: options.closedLoopPoles });
 		stable = closedLoop.stable;
 		if (stable === null) unavailable.closedLoopStable = closedLoop.reason ?? 'closed-loop poles not available';
 	}

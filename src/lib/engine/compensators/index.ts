@@ -16,7 +16,8 @@ import {
 import { partWarnings } from '../synthesis/practicality';
 import { DEFAULT_SERIES, partFamily, roundParts, type SeriesChoice } from '../synthesis/rounding';
 import { crossoverWarnings, loopWarnings, opampWarnings, poleWarnings } from './checks';
-import { checkLoop, type LoopCheck } from './loopCheck';
+import { loopMetrics, type LoopMetrics } from '../analysis/margins';
+import { checkLoop, loopCheckFromMetrics, type LoopCheck } from './loopCheck';
 import {
 	CompensatorDesignError,
 	placeByFeatures,
@@ -32,7 +33,7 @@ import { compensatorTf, idealCompensatorTf } from './transfer';
 export { compensatorSchema, type CompensatorDoc } from './schema';
 export { CompensatorDesignError, type DesignWarning, type PlantFeatures } from './placement';
 export { compensatorTf, idealCompensatorTf, finiteOpampCompensatorTf, type OpampModel } from './transfer';
-export { checkLoop, type LoopCheck, type CrossoverPoint } from './loopCheck';
+export { checkLoop, loopCheckFromMetrics, type LoopCheck, type CrossoverPoint } from './loopCheck';
 export { kFactorFor, boostForK, requiredBoostDeg } from './placement';
 
 export interface CompensatorContext {
@@ -44,6 +45,12 @@ export interface CompensatorContext {
 	vref: number;
 	/** Divider top resistor, Ω (feedback.r1); kept as entered. */
 	r1: number;
+	/**
+	 * The caller's own metrics range, Hz. When given, the built loop is analysed once over the
+	 * union of it and the compensator's check range, with closed-loop poles, and the result comes
+	 * back as `builtLoopMetrics` for the caller to reuse (analyzeDesign does).
+	 */
+	metricsRangeHz?: { startHz: number; stopHz: number };
 }
 
 export interface NetworkReport {
@@ -73,6 +80,11 @@ export interface ResolvedCompensator {
 	achieved: { ideal: AchievedLoop; rounded: AchievedLoop | null };
 	/** How the network was obtained; K-factor details when used. */
 	placement: { method: 'parts' | 'k-factor' | 'features' | 'manual'; k?: number; requiredBoostDeg?: number; usedBoostDeg?: number };
+	/** T = built Gc · plant. */
+	builtLoop: FactoredTf;
+	/** Full metrics of builtLoop over builtLoopRangeHz (closed-loop poles only with ctx.metricsRangeHz). */
+	builtLoopMetrics: LoopMetrics;
+	builtLoopRangeHz: { startHz: number; stopHz: number };
 }
 
 /**
@@ -83,7 +95,11 @@ export interface ResolvedCompensator {
 export function resolveCompensator(doc: CompensatorDoc, ctx: CompensatorContext): ResolvedCompensator {
 	const parsed = compensatorSchema.safeParse(doc);
 	if (!parsed.success) throw fromZod(parsed.error);
-	const c = parsed.data;
+	return resolveParsedCompensator(parsed.data, ctx);
+}
+
+/** resolveCompensator for a section already validated by compensatorSchema (the design document's schema does). */
+export function resolveParsedCompensator(c: CompensatorDoc, ctx: CompensatorContext): ResolvedCompensator {
 	checkContext(ctx);
 	const rb = bottomResistor(ctx.r1, ctx.vout, ctx.vref);
 	const warnings: DesignWarning[] = [];
@@ -111,17 +127,28 @@ export function resolveCompensator(doc: CompensatorDoc, ctx: CompensatorContext)
 	const opamp = c.opamp ?? null;
 	const builtParts = rounded ?? ideal;
 	const built = compensatorTf(builtParts, opamp);
-	const range = analysisRange(ctx, [...report(ideal).polesHz, ...report(ideal).zerosHz]);
-	const idealLoop = checkLoop(multiply(compensatorTf(ideal, opamp), ctx.plant), range.startHz, range.stopHz);
-	const roundedLoop = rounded ? checkLoop(multiply(built, ctx.plant), range.startHz, range.stopHz) : null;
-	const builtLoop = roundedLoop ?? idealLoop;
+	const idealReport = report(ideal);
+	const builtReport = rounded ? report(rounded) : idealReport;
+	const range = analysisRange(ctx, [...idealReport.polesHz, ...idealReport.zerosHz]);
+	// One metrics pass on the built loop; poles only when the caller will reuse the metrics,
+	// otherwise the stability verdict (Routh–Hurwitz when clearly stable) is all the checks need.
+	const wanted = ctx.metricsRangeHz;
+	const builtRange = wanted
+		? { startHz: Math.min(range.startHz, wanted.startHz), stopHz: Math.max(range.stopHz, wanted.stopHz) }
+		: range;
+	const builtLoop = multiply(built, ctx.plant);
+	const builtLoopMetrics = loopMetrics(builtLoop, builtRange, { closedLoopPoles: wanted !== undefined });
+	const builtCheck = loopCheckFromMetrics(builtLoopMetrics);
+	const roundedLoop = rounded ? builtCheck : null;
+	const idealLoop = rounded
+		? checkLoop(multiply(compensatorTf(ideal, opamp), ctx.plant), range.startHz, range.stopHz, { closedLoopPoles: false })
+		: builtCheck;
 
-	const builtReport = report(builtParts);
-	const fcForChecks = c.target?.crossoverHz ?? builtLoop.crossoverHz;
+	const fcForChecks = c.target?.crossoverHz ?? builtCheck.crossoverHz;
 	if (fcForChecks !== null) warnings.push(...crossoverWarnings(fcForChecks, ctx.fswHz, ctx.features));
 	// Judged on the placed (ideal) corners: rounding moves them a few percent, which the achieved margins show.
-	warnings.push(...poleWarnings(report(ideal).polesHz, ctx.fswHz));
-	warnings.push(...loopWarnings(builtLoop, c.target));
+	warnings.push(...poleWarnings(idealReport.polesHz, ctx.fswHz));
+	warnings.push(...loopWarnings(builtCheck, c.target));
 	warnings.push(...partWarnings(builtParts));
 	if (opamp && fcForChecks !== null) warnings.push(...opampWarnings(builtParts, opamp, fcForChecks, builtReport.polesHz));
 	if (rounded && ideal.rb !== null && rounded.rb !== null) {
@@ -136,14 +163,17 @@ export function resolveCompensator(doc: CompensatorDoc, ctx: CompensatorContext)
 
 	return {
 		kind: c.kind,
-		ideal: report(ideal),
-		rounded: rounded ? report(rounded) : null,
+		ideal: idealReport,
+		rounded: rounded ? builtReport : null,
 		built,
 		warnings,
 		achieved: { ideal: achieved(idealLoop), rounded: roundedLoop ? achieved(roundedLoop) : null },
 		placement: placement?.kFactor
 			? { method: 'k-factor', k: placement.kFactor.k, requiredBoostDeg: placement.kFactor.requiredBoostDeg, usedBoostDeg: placement.kFactor.usedBoostDeg }
-			: { method: givenParts ? 'parts' : c.target!.method }
+			: { method: givenParts ? 'parts' : c.target!.method },
+		builtLoop,
+		builtLoopMetrics,
+		builtLoopRangeHz: builtRange
 	};
 }
 

@@ -1,7 +1,7 @@
 // The compensator's view of a loop: every gain crossover with its phase margin, the governing one, conditional
 // stability (a −180° crossing while |T| > 1) and the closed-loop verdict, all from the engine's margins module
 // (analysis/margins.ts, domain sheet §7.1–§7.5), so placement and the analysis response agree exactly.
-import { loopMetrics } from '../analysis/margins';
+import { loopMetrics, type LoopMetrics, type MarginOptions } from '../analysis/margins';
 import type { FactoredTf } from '../tf';
 
 export interface CrossoverPoint {
@@ -26,8 +26,12 @@ export interface LoopCheck {
 	closedLoopStable: boolean | null;
 }
 
-export function checkLoop(loop: FactoredTf, startHz: number, stopHz: number): LoopCheck {
-	const m = loopMetrics(loop, { startHz, stopHz });
+export function checkLoop(loop: FactoredTf, startHz: number, stopHz: number, options: MarginOptions = {}): LoopCheck {
+	return loopCheckFromMetrics(loopMetrics(loop, { startHz, stopHz }, options));
+}
+
+/** The compensator's view of loop metrics already computed (one metrics pass serves both). */
+export function loopCheckFromMetrics(m: LoopMetrics): LoopCheck {
 	let conditional: { freqHz: number; gainMarginDb: number } | null = null;
 	for (const p of m.phaseCrossovers) {
 		if (p.gainMarginDb < 0 && (conditional === null || p.gainMarginDb > conditional.gainMarginDb)) conditional = p;
