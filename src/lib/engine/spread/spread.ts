@@ -94,12 +94,35 @@ export interface SpreadRun {
 	result(): SpreadResult;
 }
 
-export function createSpreadRun(spec: LoopSpec, config: SpreadConfig): SpreadRun {
+interface Sampler {
+	total: number;
+	seed: number;
+	/** The next sample's perturbed loop spec. */
+	next(): LoopSpec;
+}
+
+/** The one source of a run's samples, shared by createSpreadRun and sampleParameters. */
+function createSampler(spec: LoopSpec, config: SpreadConfig): Sampler {
 	const total = Math.floor(config.samples ?? DEFAULT_SAMPLES);
 	if (!(total >= 1 && total <= MAX_SAMPLES)) throw new RangeError(`spread.samples must be 1…${MAX_SAMPLES}`);
 	const seed = Math.floor(config.seed ?? 1);
 	const rng = createRng(seed);
 	const present = new Set(partsPresent(spec));
+	return { total, seed, next: () => applyVariation(spec, sampleVariation(rng, spec, config.tolerances, present)) };
+}
+
+/**
+ * The perturbed loop specs a run with this config evaluates, in sample order (the same draws
+ * as runSpread), so an outside tool (the numpy bench) can analyse exactly the same parts.
+ */
+export function sampleParameters(spec: LoopSpec, config: SpreadConfig): LoopSpec[] {
+	const sampler = createSampler(spec, config);
+	return Array.from({ length: sampler.total }, () => sampler.next());
+}
+
+export function createSpreadRun(spec: LoopSpec, config: SpreadConfig): SpreadRun {
+	const sampler = createSampler(spec, config);
+	const { total, seed } = sampler;
 	const fc = new Float64Array(total).fill(NaN);
 	const pm = new Float64Array(total).fill(NaN);
 	const gm = new Float64Array(total).fill(NaN);
@@ -120,9 +143,8 @@ export function createSpreadRun(spec: LoopSpec, config: SpreadConfig): SpreadRun
 		step(maxSamples: number) {
 			const end = Math.min(total, done + Math.max(1, Math.floor(maxSamples)));
 			while (!cancelled && done < end) {
-				const v = sampleVariation(rng, spec, config.tolerances, present);
+				const s = sampler.next();
 				try {
-					const s = applyVariation(spec, v);
 					const m = loopMetrics(buildLoop(s).loop, s.rangeHz);
 					fc[done] = m.crossoverHz ?? NaN;
 					pm[done] = m.phaseMarginDeg ?? NaN;

@@ -1,0 +1,60 @@
+// sampleParameters: the perturbed part values of a Monte Carlo run, exported for the numpy bench.
+// They must be exactly the samples runSpread evaluates, or the bench compares different designs.
+import { describe, expect, it } from 'vitest';
+import { loopMetrics } from '../../../../src/lib/engine/analysis/margins';
+import { buildLoop, loopSpecFromDetail } from '../../../../src/lib/engine/corners/loopModel';
+import { runSpread, sampleParameters } from '../../../../src/lib/engine/spread/spread';
+import { detail } from '../closedloop/helpers';
+
+const tolerances = {
+	l: { tol: 0.2, dist: 'normal' as const },
+	c: { tol: 0.2, dist: 'uniform' as const },
+	esr: { tol: 0.5, dist: 'uniform' as const },
+	dcr: { tol: 0.1, dist: 'normal' as const },
+	r2: { tol: 0.01, dist: 'uniform' as const },
+	c1: { tol: 0.1, dist: 'normal' as const },
+	c3: { tol: 0.1, dist: 'uniform' as const }
+};
+
+describe('sampleParameters', () => {
+	for (const name of ['buck-ceramic-1v2', 'boost-ceramic-5v-12v']) {
+		it(`${name}: the exported samples are the ones runSpread evaluates, sample by sample`, () => {
+			const spec = loopSpecFromDetail(detail(name));
+			const config = { samples: 150, seed: 2026, tolerances };
+			const samples = sampleParameters(spec, config);
+			const run = runSpread(spec, config);
+			expect(samples).toHaveLength(150);
+			for (let i = 0; i < samples.length; i++) {
+				const m = loopMetrics(buildLoop(samples[i]).loop, samples[i].rangeHz);
+				expect(m.phaseMarginDeg).toBe(run.phaseMarginDeg[i]);
+				expect(m.crossoverHz).toBe(run.crossoverHz[i]);
+				expect(m.gainMarginDb ?? NaN).toBe(run.gainMarginDb[i]);
+			}
+			// Another seed gives other parts.
+			const other = sampleParameters(spec, { ...config, seed: 2027 });
+			expect(other[0].stage.l).not.toBe(samples[0].stage.l);
+		});
+	}
+
+	it('varies only the toleranced parts, each within its limit', () => {
+		const spec = loopSpecFromDetail(detail('buck-ceramic-1v2'));
+		const samples = sampleParameters(spec, { samples: 400, seed: 5, tolerances });
+		const within = (x: number, nominal: number, tol: number) => Math.abs(x / nominal - 1) <= tol * (1 + 1e-12);
+		const p0 = spec.parts as unknown as Record<string, number>;
+		let lMoved = 0;
+		for (const s of samples) {
+			const p = s.parts as unknown as Record<string, number>;
+			expect(within(s.stage.l, spec.stage.l, 0.2)).toBe(true);
+			expect(within(s.stage.capacitors[0].c, spec.stage.capacitors[0].c, 0.2)).toBe(true);
+			expect(within(s.stage.capacitors[0].esr, spec.stage.capacitors[0].esr, 0.5)).toBe(true);
+			expect(within(s.stage.dcr, spec.stage.dcr, 0.1)).toBe(true);
+			expect(within(p.r2, p0.r2, 0.01)).toBe(true);
+			expect(within(p.c1, p0.c1, 0.1)).toBe(true);
+			expect(within(p.c3, p0.c3, 0.1)).toBe(true);
+			// No tolerance given: exactly as built.
+			expect([p.r1, p.r3, p.c2, s.stage.rdsOn, s.stage.vin, s.modulator.vramp]).toEqual([p0.r1, p0.r3, p0.c2, spec.stage.rdsOn, spec.stage.vin, spec.modulator.vramp]);
+			if (s.stage.l !== spec.stage.l) lMoved++;
+		}
+		expect(lMoved).toBe(400);
+	});
+});
