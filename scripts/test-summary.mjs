@@ -12,7 +12,11 @@ const vitestFile = join(dir, 'vitest.json');
 if (existsSync(vitestFile)) {
 	const v = JSON.parse(readFileSync(vitestFile, 'utf8'));
 	passed += v.numPassedTests ?? 0;
-	failed += (v.numFailedTests ?? 0) + (v.numFailedTestSuites ?? 0);
+	failed += v.numFailedTests ?? 0;
+	// A file that failed to load has no failed test of its own; count it once. (numFailedTestSuites
+	// counts describe blocks too, so it would count a failing test twice.)
+	for (const file of v.testResults ?? [])
+		if (file.status === 'failed' && !(file.assertionResults ?? []).some((a) => a.status === 'failed')) failed += 1;
 	skipped += (v.numPendingTests ?? 0) + (v.numTodoTests ?? 0);
 } else failed += 1;
 
