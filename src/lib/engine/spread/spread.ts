@@ -4,7 +4,7 @@
  * [common practice: tolerance as a hard limit, 3σ by default]; capacitor c/esr/esl drawn per
  * branch. A seeded generator (prng.ts) makes a run reproduce for any chunking. Pure and
  * chunked (step / cancel / progress) so a Web Worker can drive it; margins from
- * analysis/margins (formulas §7), closed-loop stability from the poles (§7.3).
+ * analysis/margins (formulas §7), closed-loop stability by Routh–Hurwitz or the poles (§7.3).
  */
 import { buildLoop, type LoopSpec } from '../corners/loopModel';
 import { applyVariation, PART_NAMES, partsPresent, type PartName, type Variation } from '../corners/variation';
@@ -58,6 +58,8 @@ export interface SpreadResult {
 	stats: { crossoverHz: Statistics; phaseMarginDeg: Statistics; gainMarginDb: Statistics };
 	targets: SpreadTargets;
 }
+
+const SAMPLE_METRICS = { closedLoopPoles: false } as const;
 
 /** One draw of δ for a tolerance. */
 function draw(rng: Rng, t: PartTolerance): number {
@@ -145,7 +147,8 @@ export function createSpreadRun(spec: LoopSpec, config: SpreadConfig): SpreadRun
 			while (!cancelled && done < end) {
 				const s = sampler.next();
 				try {
-					const m = loopMetrics(buildLoop(s).loop, s.rangeHz);
+					// Only the stability verdict is kept per sample, so Routh–Hurwitz may stand in for the poles.
+					const m = loopMetrics(buildLoop(s).loop, s.rangeHz, SAMPLE_METRICS);
 					fc[done] = m.crossoverHz ?? NaN;
 					pm[done] = m.phaseMarginDeg ?? NaN;
 					gm[done] = m.gainMarginDb ?? NaN;

@@ -29,12 +29,32 @@ describe('sampleParameters', () => {
 				expect(m.phaseMarginDeg).toBe(run.phaseMarginDeg[i]);
 				expect(m.crossoverHz).toBe(run.crossoverHz[i]);
 				expect(m.gainMarginDb ?? NaN).toBe(run.gainMarginDb[i]);
+				// runSpread takes the verdict-only path; the verdict must be the one the poles give.
+				expect(m.closedLoopStable === null ? -1 : m.closedLoopStable ? 1 : 0).toBe(run.stable[i]);
 			}
 			// Another seed gives other parts.
 			const other = sampleParameters(spec, { ...config, seed: 2027 });
 			expect(other[0].stage.l).not.toBe(samples[0].stage.l);
 		});
 	}
+
+	it('stability verdicts equal those from the closed-loop poles when some samples are unstable', () => {
+		// A ramp down to 10 % of nominal raises the boost loop gain by up to 20 dB, more than its
+		// ≈ 15 dB gain margin, so part of the samples are unstable (gain margin, formulas §7.1).
+		const spec = loopSpecFromDetail(detail('boost-ceramic-5v-12v'));
+		const config = { samples: 120, seed: 11, tolerances: { vramp: { tol: 0.9, dist: 'uniform' as const } } };
+		const samples = sampleParameters(spec, config);
+		const run = runSpread(spec, config);
+		const counts = { stable: 0, unstable: 0 };
+		samples.forEach((s, i) => {
+			const m = loopMetrics(buildLoop(s).loop, s.rangeHz);
+			expect(m.closedLoopStable === null ? -1 : m.closedLoopStable ? 1 : 0).toBe(run.stable[i]);
+			if (m.closedLoopStable === true) counts.stable++;
+			if (m.closedLoopStable === false) counts.unstable++;
+		});
+		expect(counts.stable).toBeGreaterThan(0);
+		expect(counts.unstable).toBeGreaterThan(0);
+	});
 
 	it('varies only the toleranced parts, each within its limit', () => {
 		const spec = loopSpecFromDetail(detail('buck-ceramic-1v2'));
