@@ -28,8 +28,17 @@ if [ "$mode" = "--dev" ]; then
 	exec npx vite dev --host "$HOST" --port "$PORT" --strictPort
 fi
 
-log "building"
-npx vite build --logLevel warn
+# Rebuild only when a source, asset or config file is newer than the last build.
+stale_build() {
+	[ -f build/handler.js ] || return 0
+	[ -n "$(find src static svelte.config.js vite.config.ts package-lock.json -newer build/handler.js -print -quit)" ]
+}
+if stale_build; then
+	log "building"
+	npx vite build --logLevel warn
+else
+	log "build is up to date"
+fi
 banner
 export NODE_ENV=production
 # exec: SIGTERM reaches the server itself, which closes the pool and exits.
