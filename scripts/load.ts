@@ -10,14 +10,19 @@
 // Prints the figures and writes them to .tmp/load-records.json. Options: --no-build, --skip-faults.
 import autocannon from 'autocannon';
 import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
+import { randomBytes } from 'node:crypto';
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { createServer } from 'node:net';
+import { loadavg } from 'node:os';
 import mysql from 'mysql2/promise';
 import { analyzeDesign } from '../src/lib/engine/analyze';
 
 const args = new Set(process.argv.slice(2));
 const ROOT = process.cwd();
-const SECRET = process.env.BETTER_AUTH_SECRET || 'load-test-secret-0123456789abcdef0123456789';
+const SECRET = process.env.BETTER_AUTH_SECRET || randomBytes(32).toString('base64url');
+/** The throwaway load users' password, new each run; the wrong one for the rate-limit check. */
+const PASSWORD = randomBytes(12).toString('base64url');
+const WRONG = PASSWORD + '-not';
 const TEST_DB = process.env.DB_NAME_TEST || 'loopwright_test';
 const FAULT_DB_PORT = Number(process.env.FAULT_DB_PORT || 3317);
 const records: Record<string, unknown> = { date: new Date().toISOString(), node: process.version };
@@ -95,7 +100,7 @@ async function startServer(env: Record<string, string>): Promise<Server> {
 /** A signed-up user (better-auth's /api/auth) with a workspace, a board, a rail and a saved loop. */
 async function signedInTeam(origin: string, label: string) {
 	const email = `${label}-${Date.now()}@example.test`;
-	const up = await fetch(`${origin}/api/auth/sign-up/email`, { method: 'POST', headers: { origin, 'content-type': 'application/json' }, body: JSON.stringify({ email, password: 'load-test-pass-123', name: `Load ${label}` }) });
+	const up = await fetch(`${origin}/api/auth/sign-up/email`, { method: 'POST', headers: { origin, 'content-type': 'application/json' }, body: JSON.stringify({ email, password: PASSWORD, name: `Load ${label}` }) });
 	if (up.status !== 200) throw new Error(`sign-up failed: ${up.status} ${await up.text()}`);
 	const cookie = up.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
 	const call = async (method: string, path: string, body?: unknown) => {
@@ -148,8 +153,10 @@ async function loadRuns(server: Server) {
 	const analyze = { url: `${server.origin}/api/v1/analyze`, method: 'POST' as const, headers, body };
 	log('warming up');
 	await cannon({ ...analyze, connections: 4, amount: 300, duration: 20 });
-	const engine = engineMs();
-	log(`engine alone: ${engine.toFixed(3)} ms per analysis`);
+	// The engine's own time, measured in this process just before and just after the 50-client run
+	// (the machine may be shared; the two measurements bracket the conditions of the run).
+	const engineBefore = engineMs();
+	log(`engine alone: ${engineBefore.toFixed(3)} ms per analysis`);
 	const one = await cannon({ ...analyze, connections: 1, amount: 400, duration: 30 });
 	log('analyze, 1 client', one);
 	// What every signed-in request pays before any work: the session lookup (GET /api/v1/me).
@@ -158,10 +165,15 @@ async function loadRuns(server: Server) {
 	const session50 = await cannon({ url: `${server.origin}/api/v1/me`, headers, connections: 50, amount: 3000, duration: 60 });
 	const fifty = await cannon({ ...analyze, connections: 50, amount: 3000, duration: 60 });
 	log('analyze, 50 clients', fifty);
+	const engineAfter = engineMs();
+	const engine = (engineBefore + engineAfter) / 2;
 	// One Node process answers on one JavaScript thread, so its time per answer is 1/throughput.
 	const serverMsPerAnalysis = 1000 / fifty.throughputRps;
 	records.analyze = {
 		engineMs: round(engine, 3),
+		engineMsBeforeAfter: [round(engineBefore, 3), round(engineAfter, 3)],
+		responseBytes: JSON.stringify(analyzeDesign(DESIGN)).length,
+		loadAverage: loadavg().map((x) => round(x, 1)),
 		oneClient: one,
 		fiftyClients: fifty,
 		serverMsPerAnalysisAt50: round(serverMsPerAnalysis, 3),
@@ -186,13 +198,13 @@ async function productionChecks(server: Server, team: { cookie: string; railId: 
 	// Sign-in: better-auth limits /sign-in to 3 per 10 s per client in production.
 	const statuses: number[] = [];
 	for (let i = 0; i < 5; i++) {
-		const r = await fetch(`${server.origin}/api/auth/sign-in/email`, { method: 'POST', headers: { origin: server.origin, 'content-type': 'application/json' }, body: JSON.stringify({ email: team.email, password: 'wrong-password-0' }) });
+		const r = await fetch(`${server.origin}/api/auth/sign-in/email`, { method: 'POST', headers: { origin: server.origin, 'content-type': 'application/json' }, body: JSON.stringify({ email: team.email, password: WRONG }) });
 		statuses.push(r.status);
 	}
 	// The sign-in form calls better-auth in-process (auth.api), which the limiter does not see.
 	const form: number[] = [];
 	for (let i = 0; i < 5; i++) {
-		const r = await fetch(`${server.origin}/sign-in`, { method: 'POST', redirect: 'manual', headers: { origin: server.origin, 'content-type': 'application/x-www-form-urlencoded' }, body: new URLSearchParams({ email: team.email, password: 'wrong-password-0' }).toString() });
+		const r = await fetch(`${server.origin}/sign-in`, { method: 'POST', redirect: 'manual', headers: { origin: server.origin, 'content-type': 'application/x-www-form-urlencoded' }, body: new URLSearchParams({ email: team.email, password: WRONG }).toString() });
 		form.push(r.status);
 	}
 	// A 2 MB analyzer file (19 000 rows with a notes column), inside the documented 5 MB bench limit.

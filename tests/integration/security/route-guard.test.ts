@@ -13,7 +13,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { invitation, member } from '../../../src/lib/server/db/schema';
 import { and, eq } from 'drizzle-orm';
 import { servedApp } from '../support/app';
-import { Client } from '../support/client';
+import { Client, signUp } from '../support/client';
 import { buckDesign } from '../support/designs';
 import { buildTeam, railBody, testDb, type Team } from '../support/fixtures';
 import { apiHandlers, BODY_CALLS, firstIndex, GUARD_CALLS, pageServerExports, ROLE_CALLS, ROUTES_DIR, routeOf } from './routes';
@@ -168,6 +168,20 @@ describe('every /api/v1 handler refuses strangers (dynamic)', () => {
 		expect((await team.as.owner.get(`/api/v1/projects/${ids.project}`)).status).toBe(200);
 		expect((await team.as.owner.get(`/api/v1/loops/${ids.loop}`)).status).toBe(200);
 		if (unresolved.length) console.info(`[route-guard] parameters without a known row (tried with a fresh id): ${[...new Set(unresolved)].join(', ')}`);
+	});
+
+	it('a member whose role is not one of ours (better-auth’s admin or member) is refused every workspace route with 403', async () => {
+		const stranger = await signUp(app.origin, 'foreign-role');
+		await db.insert(member).values({ id: randomUUID(), organizationId: team.workspaceId, userId: stranger.userId, role: 'admin', createdAt: new Date() });
+		const wrong: string[] = [];
+		for (const h of handlers.filter((h) => firstIndex(h.source, ROLE_CALLS) >= 0)) {
+			const missing: string[] = [];
+			const path = withQuery(h, concrete(h.route, missing));
+			if (missing.length) continue; // a fresh id is 404 before any role is asked
+			const reply = await stranger.request(h.method, path, bodyFor(h.method));
+			if (reply.status !== 403) wrong.push(`${label(h)}: ${reply.status} ${JSON.stringify(reply.body).slice(0, 120)}`);
+		}
+		expect(wrong).toEqual([]);
 	});
 
 	it('an owner cannot reach another workspace’s member or invitation through their own workspace id', async () => {
