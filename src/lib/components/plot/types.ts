@@ -13,6 +13,8 @@ export interface BodeTrace {
 	label: string;
 	/** The nominal case is drawn bold; corners thin and faint. */
 	nominal: boolean;
+	/** Optional stroke dash overriding the kind's, to tell an overlaid revision apart. */
+	dash?: string;
 	magDb: ArrayLike<number>;
 	phaseDeg: ArrayLike<number>;
 }
