@@ -35,6 +35,9 @@ else
 			--auth-root-authentication-method=socket --skip-test-db >"$DB_DATA_DIR/install.log" 2>&1 ||
 			{ tail -20 "$DB_DATA_DIR/install.log" >&2; die "mariadb-install-db failed"; }
 	fi
+	if (exec 3<>"/dev/tcp/$DB_HOST/$DB_PORT") 2>/dev/null; then
+		die "port $DB_PORT on $DB_HOST is taken by another process, not this checkout's MariaDB: set DB_PORT to a free port"
+	fi
 	log "starting MariaDB on $DB_HOST:$DB_PORT"
 	# setsid: the server must outlive the npm process that started it.
 	setsid "$MARIADBD" --no-defaults --datadir="$DB_DATA_DIR" --user="$(id -un)" \
@@ -42,14 +45,16 @@ else
 		--log-error="$DB_LOG_FILE" --character-set-server=utf8mb4 --collation-server=utf8mb4_unicode_ci \
 		--skip-name-resolve --innodb-buffer-pool-size=128M --max-connections=300 \
 		</dev/null >/dev/null 2>&1 &
+	server_pid=$!
 	for _ in $(seq 1 120); do
 		answers && break
+		kill -0 "$server_pid" 2>/dev/null || break # it exited: the log says why
 		sleep 0.5
 	done
 	if ! answers; then
 		echo "---- last lines of ${DB_LOG_FILE#$ROOT_DIR/} ----" >&2
 		tail -25 "$DB_LOG_FILE" >&2 || true
-		die "MariaDB did not answer on $DB_HOST:$DB_PORT within 60 s"
+		die "MariaDB did not answer on $DB_HOST:$DB_PORT (it stopped, or 60 s passed)"
 	fi
 fi
 
