@@ -16,6 +16,7 @@ import { createServer } from 'node:net';
 import { loadavg } from 'node:os';
 import mysql from 'mysql2/promise';
 import { analyzeDesign } from '../src/lib/engine/analyze';
+import { buckDesign } from '../tests/integration/support/designs';
 
 const args = new Set(process.argv.slice(2));
 const ROOT = process.cwd();
@@ -34,13 +35,7 @@ const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
 const round = (x: number, digits = 2) => Number(x.toFixed(digits));
 
 /** The design the load sends: the integration tests' 12 V → 5 V buck, Type III placed by K-factor. */
-const DESIGN = {
-	schemaVersion: 1,
-	plant: { topology: 'buck', vin: 12, vout: 5, iout: 2, fsw: 500_000, inductor: { l: 10e-6, dcr: 0.015 }, capacitors: [{ c: 22e-6, esr: 0.003, esl: 0, count: 3 }], rdsOn: 0.01 },
-	modulator: { vramp: 1.5, feedForward: false, delay: 0 },
-	feedback: { vref: 0.8, r1: 10_000 },
-	compensator: { kind: 'type3', target: { method: 'k-factor', crossoverHz: 40_000, phaseMarginDeg: 60 }, series: { resistors: 'E96', capacitors: 'E12' } }
-};
+const DESIGN = buckDesign();
 
 function freePort(): Promise<number> {
 	return new Promise((resolve, reject) => {
