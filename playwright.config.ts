@@ -36,7 +36,9 @@ export default defineConfig({
 			PORT: String(port),
 			HOST: '127.0.0.1',
 			ORIGIN: origin,
-			BETTER_AUTH_URL: origin
+			BETTER_AUTH_URL: origin,
+			// adapter-node's default 512 kB would refuse bench files the API accepts (5 MB).
+			BODY_SIZE_LIMIT: process.env.BODY_SIZE_LIMIT ?? '7M'
 		}
 	}
 });

@@ -15,6 +15,8 @@ start_mail_fake
 export ORIGIN="${ORIGIN:-http://$HOST:$PORT}"
 export BETTER_AUTH_URL="${BETTER_AUTH_URL:-$ORIGIN}"
 export LOOPWRIGHT_ENV="${LOOPWRIGHT_ENV:-development}"
+# adapter-node refuses bodies above 512 kB by default; bench files may be 5 MB (multipart).
+export BODY_SIZE_LIMIT="${BODY_SIZE_LIMIT:-7M}"
 
 banner() {
 	log "Loopwright is at $ORIGIN"

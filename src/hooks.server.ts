@@ -11,6 +11,7 @@ import { isProduction } from '$lib/server/env';
 import { errorResponse, ApiError, databaseUnavailable, isDatabaseUnavailable } from '$lib/server/http/errors';
 import { databaseAnswers } from '$lib/server/health';
 import { MAX_BODY_BYTES } from '$lib/server/http/request';
+import { BENCH_MAX_BYTES } from '$lib/bench';
 import * as tokens from '$lib/server/services/tokens';
 
 const identify: Handle = async ({ event, resolve }) => {
@@ -44,13 +45,20 @@ const identify: Handle = async ({ event, resolve }) => {
 	return svelteKitHandler({ event, resolve, auth, building });
 };
 
+/** Bench uploads may carry a whole analyzer file (the route checks the exact 5 MB rule itself,
+ * multipart framing included); every other API body is a JSON document of at most 1 MB. */
+function bodyLimitFor(path: string): number {
+	return /^\/api\/v1\/rails\/[^/]+\/bench\/?$/.test(path) ? Math.ceil(BENCH_MAX_BYTES * 1.25) : MAX_BODY_BYTES;
+}
+
 /** Page trees only signed-in users may open (their loads check again). */
 const SIGNED_IN_AREAS = ['/w', '/app'];
 
 const guard: Handle = async ({ event, resolve }) => {
 	const path = event.url.pathname;
-	if (path.startsWith('/api/v1/') && Number(event.request.headers.get('content-length') ?? 0) > MAX_BODY_BYTES) {
-		const response = errorResponse(new ApiError(413, 'payload-too-large', `the body exceeds ${MAX_BODY_BYTES} bytes`));
+	const limit = bodyLimitFor(path);
+	if (path.startsWith('/api/v1/') && Number(event.request.headers.get('content-length') ?? 0) > limit) {
+		const response = errorResponse(new ApiError(413, 'payload-too-large', `the body exceeds ${limit} bytes`));
 		// The unread body is still on the socket: close it rather than let the client reuse it.
 		response.headers.set('connection', 'close');
 		return response;

@@ -97,6 +97,13 @@ describe('bench upload limits', () => {
 		expect(reply.status, await reply.clone().text()).toBe(201);
 	});
 
+	it('fixed: a 1.8 MB file, inside the documented 5 MB, is no longer refused by the 1 MB JSON limit', async () => {
+		const form = new FormData();
+		form.set('file', new Blob([benchText(1_800_000)], { type: 'text/csv' }), 'long-sweep.csv');
+		const reply = await fetch(app.origin + path(), { method: 'POST', headers: { origin: app.origin, cookie: team.as.engineer.cookie }, body: form });
+		expect(reply.status, await reply.clone().text()).not.toBe(413);
+	});
+
 	it('refuses a file over the limit with 413, before reading it', async () => {
 		const body = `--b\r\nContent-Disposition: form-data; name="file"; filename="huge.csv"\r\nContent-Type: text/csv\r\n\r\n${benchText(BENCH_MAX_BYTES + 100_000)}\r\n--b--\r\n`;
 		const status = await rawPost(path(), { 'content-type': 'multipart/form-data; boundary=b', cookie: team.as.engineer.cookie }, body);
