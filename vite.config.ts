@@ -16,6 +16,7 @@ export default defineConfig({
 				test: {
 					name: 'unit',
 					include: ['tests/unit/**/*.test.ts'],
+					setupFiles: ['tests/unit/fast-check-seed.ts'],
 					environment: 'node'
 				}
 			},
