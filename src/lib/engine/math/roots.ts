@@ -51,20 +51,24 @@ export function polyRoots(p: Poly, options: RootsOptions = {}): RootsResult {
 	const maxIterations = options.maxIterations ?? 500;
 	const accept = options.acceptBackwardError ?? 1e-11;
 	let xs = aberth(b, maxIterations);
-	xs = xs.map((x) => newtonPolish(b, x));
-	let err = maxBackwardError(b, xs);
+	let err = polishAll(b, xs);
 	let method: RootsResult['method'] = 'aberth';
 	if (!(err <= accept)) {
-		const alt = companionRoots(b).map((x) => newtonPolish(b, x));
-		const altErr = maxBackwardError(b, alt);
+		const alt = companionRoots(b);
+		const altErr = polishAll(b, alt);
 		if (altErr < err || !Number.isFinite(err)) {
 			xs = alt;
 			err = altErr;
 			method = 'companion';
 		}
 	}
-	const roots = xs.map((x) => ({ re: x.re * k, im: x.im * k }));
-	return { roots: [...zeroRoots, ...conjugateSymmetric(roots)], backwardError: err, method };
+	for (const x of xs) {
+		x.re *= k;
+		x.im *= k;
+	}
+	const roots = conjugateSymmetric(xs);
+	if (low === 0) return { roots, backwardError: err, method };
+	return { roots: [...zeroRoots, ...roots], backwardError: err, method };
 }
 
 /** Initial radii from the upper convex hull of (i, log|b_i|) (Newton polygon). */
@@ -204,28 +208,66 @@ function aberth(b: number[], maxIterations: number): Complex[] {
 	return out;
 }
 
-/** A few Newton steps; keeps the step only while it lowers |p|. */
-function newtonPolish(b: number[], x: Complex): Complex {
-	let cur = x;
-	let [pr, pi] = evalWithDerivative(b, cur.re, cur.im);
-	let best = Math.hypot(pr, pi);
-	for (let k = 0; k < 6 && best > 0; k++) {
-		const [, , dr, di] = evalWithDerivative(b, cur.re, cur.im);
-		const dd = dr * dr + di * di;
-		if (dd === 0) break;
-		const next = {
-			re: cur.re - (pr * dr + pi * di) / dd,
-			im: cur.im - (pi * dr - pr * di) / dd
-		};
-		const [nr, ni] = evalWithDerivative(b, next.re, next.im);
-		const val = Math.hypot(nr, ni);
-		if (!(val < best)) break;
-		cur = next;
-		pr = nr;
-		pi = ni;
-		best = val;
+/**
+ * A few Newton steps on each root in place, each kept only while it lowers |p|; returns the
+ * largest backward error |p(x)| / Σ|b_i||x|^i over the polished roots (NaN propagates).
+ */
+function polishAll(b: number[], xs: Complex[]): number {
+	const n = b.length - 1;
+	let worst = 0;
+	for (const x of xs) {
+		let xr = x.re;
+		let xi = x.im;
+		// p and p' at the current point, by Horner
+		let pr = 0;
+		let pi = 0;
+		let dr = 0;
+		let di = 0;
+		for (let i = n; i >= 0; i--) {
+			const ndr = dr * xr - di * xi + pr;
+			di = dr * xi + di * xr + pi;
+			dr = ndr;
+			const npr = pr * xr - pi * xi + b[i];
+			pi = pr * xi + pi * xr;
+			pr = npr;
+		}
+		let best = Math.sqrt(pr * pr + pi * pi);
+		for (let step = 0; step < 6 && best > 0; step++) {
+			const dd = dr * dr + di * di;
+			if (dd === 0) break;
+			const yr = xr - (pr * dr + pi * di) / dd;
+			const yi = xi - (pi * dr - pr * di) / dd;
+			let qr = 0;
+			let qi = 0;
+			let er = 0;
+			let ei = 0;
+			for (let i = n; i >= 0; i--) {
+				const ner = er * yr - ei * yi + qr;
+				ei = er * yi + ei * yr + qi;
+				er = ner;
+				const nqr = qr * yr - qi * yi + b[i];
+				qi = qr * yi + qi * yr;
+				qr = nqr;
+			}
+			const val = Math.sqrt(qr * qr + qi * qi);
+			if (!(val < best)) break;
+			xr = yr;
+			xi = yi;
+			pr = qr;
+			pi = qi;
+			dr = er;
+			di = ei;
+			best = val;
+		}
+		x.re = xr;
+		x.im = xi;
+		const r = Math.sqrt(xr * xr + xi * xi);
+		let scale = 0;
+		for (let i = n; i >= 0; i--) scale = scale * r + Math.abs(b[i]);
+		const e = scale === 0 ? 0 : best / scale;
+		if (!(e <= worst)) worst = e; // NaN propagates as "worst"
 	}
-	return cur;
+	return worst;
 }
 
 /** max over roots of |p(x)| / Σ |b_i| |x|^i. */
@@ -272,13 +314,18 @@ function companionRoots(b: number[]): Complex[] {
  * conjugate pair; unmatched roots become real.
  */
 function conjugateSymmetric(roots: Complex[]): Complex[] {
-	const upper = roots.filter((r) => r.im > 0);
-	const lower = roots.filter((r) => r.im < 0);
-	const real = roots.filter((r) => r.im === 0).map((r) => ({ re: r.re, im: 0 }));
-	const out: Complex[] = [...real];
+	const out: Complex[] = [];
+	const upper: Complex[] = [];
+	const lower: Complex[] = [];
+	for (const r of roots) {
+		if (r.im > 0) upper.push(r);
+		else if (r.im < 0) lower.push(r);
+		else out.push({ re: r.re, im: 0 });
+	}
+	if (upper.length === 0 && lower.length === 0) return out;
 	const used = new Array<boolean>(lower.length).fill(false);
 	// Pair the most clearly complex roots first.
-	upper.sort((a, b) => b.im / Math.hypot(b.re, b.im) - a.im / Math.hypot(a.re, a.im));
+	if (upper.length > 1) upper.sort(byDecreasingImagRatio);
 	for (const u of upper) {
 		let best = -1;
 		let bestD = Infinity;
@@ -301,8 +348,10 @@ function conjugateSymmetric(roots: Complex[]): Complex[] {
 			out.push({ re: u.re, im: 0 });
 		}
 	}
-	lower.forEach((l, j) => {
-		if (!used[j]) out.push({ re: l.re, im: 0 });
-	});
+	for (let j = 0; j < lower.length; j++) if (!used[j]) out.push({ re: lower[j].re, im: 0 });
 	return out;
+}
+
+function byDecreasingImagRatio(a: Complex, b: Complex): number {
+	return b.im / Math.hypot(b.re, b.im) - a.im / Math.hypot(a.re, a.im);
 }

@@ -71,6 +71,13 @@ function scaled(mantissa: number, exponent: number): number {
 	return exponent >= 0 ? mantissa * 10 ** exponent : mantissa / 10 ** -exponent;
 }
 
+/** The i-th candidate counting from the lowest decade's first mantissa (exponent `first`). */
+function candidateAt(table: readonly number[], first: number, i: number): number {
+	const len = table.length;
+	const k = Math.floor(i / len);
+	return scaled(table[i - k * len], first + k);
+}
+
 export interface SeriesRounding {
 	/** The chosen series member. */
 	value: number;
@@ -88,20 +95,27 @@ export function nearestInSeries(value: number, series: ESeriesName): SeriesRound
 		throw new RangeError(`E-series rounding needs a finite value > 0, got ${value}`);
 	}
 	const table = E_SERIES[series];
-	const digits = seriesDigits(series);
+	const shift = 1 - seriesDigits(series);
 	const decade = Math.floor(Math.log10(value));
-	let best = value;
-	let bestDistance = Infinity;
-	// Three decades of candidates make the choice robust to log10 landing one ulp off a decade boundary.
-	for (let k = decade - 1; k <= decade + 1; k++) {
-		for (const mantissa of table) {
-			const candidate = scaled(mantissa, k - (digits - 1));
-			const distance = Math.abs(Math.log(value / candidate));
-			if (distance < bestDistance) {
-				best = candidate;
-				bestDistance = distance;
-			}
+	// The candidates, decade − 1 to decade + 1 in order, ascend strictly, and |ln(value/c)| falls
+	// then rises along them: binary-search the first candidate ≥ value and compare it with the
+	// one before (ties go to the smaller). Three decades keep the choice robust to log10 landing
+	// one ulp off a decade boundary.
+	const first = decade - 1 + shift;
+	let lo = 0;
+	let hi = 3 * table.length - 1;
+	if (candidateAt(table, first, hi) < value) lo = hi;
+	else {
+		while (lo < hi) {
+			const mid = (lo + hi) >> 1;
+			if (candidateAt(table, first, mid) < value) lo = mid + 1;
+			else hi = mid;
 		}
+	}
+	let best = candidateAt(table, first, lo);
+	if (lo > 0) {
+		const below = candidateAt(table, first, lo - 1);
+		if (Math.abs(Math.log(value / below)) <= Math.abs(Math.log(value / best))) best = below;
 	}
 	return { value: best, relativeChange: best / value - 1 };
 }
@@ -111,7 +125,25 @@ export function roundToSeries(value: number, series: ESeriesName): number {
 	return nearestInSeries(value, series).value;
 }
 
-/** True when `value` is (to 1e-9 relative) a member of `series` in some decade. */
+/** Mantissa sets per series, for membership tests without a search. */
+const MEMBERS = Object.fromEntries(E_SERIES_NAMES.map((name) => [name, new Set(E_SERIES[name])])) as Record<ESeriesName, Set<number>>;
+
+/**
+ * True when `value` is (to 1e-9 relative) a member of `series` in some decade; the same answer
+ * as |nearestInSeries(value).relativeChange| < 1e-9 (any member that close is the nearest, the
+ * next being ≥ 1 % away), found by rounding the mantissa in the three decades around value.
+ */
 export function isInSeries(value: number, series: ESeriesName): boolean {
-	return Math.abs(nearestInSeries(value, series).relativeChange) < 1e-9;
+	if (!Number.isFinite(value) || value <= 0) {
+		throw new RangeError(`E-series rounding needs a finite value > 0, got ${value}`);
+	}
+	const members = MEMBERS[series];
+	const shift = 1 - seriesDigits(series);
+	const decade = Math.floor(Math.log10(value));
+	for (let k = decade - 1; k <= decade + 1; k++) {
+		const e = k + shift;
+		const mantissa = Math.round(e >= 0 ? value / 10 ** e : value * 10 ** -e);
+		if (members.has(mantissa) && Math.abs(scaled(mantissa, e) / value - 1) < 1e-9) return true;
+	}
+	return false;
 }

@@ -3,6 +3,7 @@
 import { readFileSync } from 'node:fs';
 import { resolve } from 'node:path';
 import { describe, expect, it } from 'vitest';
+import fc from 'fast-check';
 import {
 	E_SERIES,
 	E_SERIES_NAMES,
@@ -104,4 +105,54 @@ describe('roundToSeries (nearest in log ratio)', () => {
 			expect(() => roundToSeries(bad, 'E12')).toThrow(/finite value > 0/);
 		}
 	});
+
+	it('property: the search equals the rule applied to every member of three decades', () => {
+		// [common practice: minimise |ln(x/v)| over the members; exact ties to the smaller]
+		const bruteForce = (value: number, series: ESeriesName) => {
+			const table = E_SERIES[series];
+			const digits = table.length <= 24 ? 2 : 3;
+			const decade = Math.floor(Math.log10(value));
+			let best = NaN;
+			let bestD = Infinity;
+			for (let k = decade - 1; k <= decade + 1; k++) {
+				for (const m of table) {
+					const e = k - (digits - 1);
+					const c = e >= 0 ? m * 10 ** e : m / 10 ** -e;
+					const d = Math.abs(Math.log(value / c));
+					if (d < bestD) {
+						best = c;
+						bestD = d;
+					}
+				}
+			}
+			return best;
+		};
+		fc.assert(
+			fc.property(fc.double({ min: -13, max: 10, noNaN: true }), fc.constantFrom(...E_SERIES_NAMES), (logV, series) => {
+				const value = 10 ** logV;
+				expect(roundToSeries(value, series)).toBe(bruteForce(value, series));
+				// a member rounds to itself
+				const m = bruteForce(value, series);
+				expect(roundToSeries(m, series)).toBe(m);
+			}),
+			{ numRuns: 3000, seed: 60063 }
+		);
+	});
+
+	it('property: isInSeries agrees with the nearest member being within 1e-9', () => {
+		// [common practice: membership = the nearest-in-log-ratio member equals the value]
+		fc.assert(
+			fc.property(
+				fc.double({ min: -13, max: 10, noNaN: true }),
+				fc.constantFrom(...E_SERIES_NAMES),
+				fc.constantFrom(0, 1e-12, 5e-10, 2e-9, 1e-3),
+				(logV, series, nudge) => {
+					const member = roundToSeries(10 ** logV, series) * (1 + nudge);
+					expect(isInSeries(member, series)).toBe(Math.abs(nearestInSeries(member, series).relativeChange) < 1e-9);
+				}
+			),
+			{ numRuns: 3000, seed: 192 }
+		);
+	});
 });
+
