@@ -98,11 +98,24 @@ export function closedLoopStability(
 		poles?: boolean;
 	} = {}
 ): ClosedLoopResult {
-	const roots = [...loop.zeros, ...loop.poles];
 	const delay = loop.delayS ?? 0;
-	const scales = roots.map(rootMag).filter((w) => w > 0 && Number.isFinite(w));
-	if (delay > 0) scales.push(1 / delay);
-	const k = scales.length ? Math.exp(scales.reduce((a, w) => a + Math.log(w), 0) / scales.length) : 1;
+	// k = geometric mean of the corner frequencies (and 1/Td).
+	let logSum = 0;
+	let count = 0;
+	for (const list of [loop.zeros, loop.poles]) {
+		for (const r of list) {
+			const w = rootMag(r);
+			if (w > 0 && Number.isFinite(w)) {
+				logSum += Math.log(w);
+				count++;
+			}
+		}
+	}
+	if (delay > 0) {
+		logSum += Math.log(1 / delay);
+		count++;
+	}
+	const k = count ? Math.exp(logSum / count) : 1;
 
 	let num = polyScale(polyProduct(loop.zeros.map((r) => factorPolyScaled(r, k))), loop.gain * Math.pow(k, loop.originPower));
 	let den = polyProduct(loop.poles.map((r) => factorPolyScaled(r, k)));
@@ -126,10 +139,15 @@ export function closedLoopStability(
 	if (!ch.every(Number.isFinite)) return { stable: null, poles: [], padeOrder, method: 'roots', reason: 'non-finite characteristic polynomial' };
 	if (options.poles === false && routhHurwitzStable(ch.slice(0, n + 1)) === true) return { stable: true, poles: [], padeOrder, method: 'routh' };
 	const r = polyRoots(ch);
-	const poles = r.roots.map((z) => ({ re: z.re * k, im: z.im * k }));
+	const poles = r.roots;
+	let stable = true;
+	for (const p of poles) {
+		p.re *= k;
+		p.im *= k;
+		if (!(p.re < -1e-12 * Math.hypot(p.re, p.im))) stable = false;
+	}
 	if (!(r.backwardError < 1e-8)) {
 		return { stable: null, poles, padeOrder, method: 'roots', reason: `closed-loop poles inaccurate (backward error ${r.backwardError.toExponential(1)})` };
 	}
-	const stable = poles.every((p) => p.re < -1e-12 * Math.hypot(p.re, p.im));
 	return { stable, poles, padeOrder, method: 'roots' };
 }

@@ -18,8 +18,15 @@ export function trim(p: Poly): number[] {
 	return p.slice(0, degree(p) + 1);
 }
 
+/** n zeros in a packed array (new Array(n).fill(0) gives a holey one, slower to use in V8). */
+function zeros(n: number): number[] {
+	const out: number[] = [];
+	for (let i = 0; i < n; i++) out.push(0);
+	return out;
+}
+
 export function polyAdd(a: Poly, b: Poly): number[] {
-	const out = new Array<number>(Math.max(a.length, b.length)).fill(0);
+	const out = zeros(Math.max(a.length, b.length));
 	for (let i = 0; i < a.length; i++) out[i] += a[i];
 	for (let i = 0; i < b.length; i++) out[i] += b[i];
 	return out;
@@ -31,7 +38,7 @@ export function polyScale(a: Poly, k: number): number[] {
 
 export function polyMul(a: Poly, b: Poly): number[] {
 	if (a.length === 0 || b.length === 0) return [];
-	const out = new Array<number>(a.length + b.length - 1).fill(0);
+	const out = zeros(a.length + b.length - 1);
 	for (let i = 0; i < a.length; i++) {
 		if (a[i] === 0) continue;
 		for (let j = 0; j < b.length; j++) out[i + j] += a[i] * b[j];
@@ -48,7 +55,9 @@ export function polyProduct(factors: readonly Poly[]): number[] {
 
 /** Multiply by s^n (n ≥ 0). */
 export function polyShift(a: Poly, n: number): number[] {
-	return [...new Array<number>(n).fill(0), ...a];
+	const out = zeros(n);
+	for (let i = 0; i < a.length; i++) out.push(a[i]);
+	return out;
 }
 
 /** Substitute s = k·x: returns coefficients in x. */
