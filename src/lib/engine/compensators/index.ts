@@ -197,14 +197,27 @@ function partsFromDoc(kind: CompensatorKind, p: NonNullable<CompensatorDoc['part
 /** Parts and ideal-amplifier corners of a network, for the response. */
 function report(parts: NetworkParts): NetworkReport {
 	const tf = idealCompensatorTf(parts);
-	const corners = (list: FactoredTf['zeros']) => list.flatMap((r) => (r.kind === 'real' ? [rootFreqHz(r)] : [rootFreqHz(r), rootFreqHz(r)]));
-	const origin = (n: number) => new Array<number>(Math.max(0, n)).fill(0);
-	const record = partsRecord(parts);
 	return {
-		parts: record,
-		zerosHz: [...origin(tf.originPower), ...corners(tf.zeros)].sort((a, b) => a - b),
-		polesHz: [...origin(-tf.originPower), ...corners(tf.poles)].sort((a, b) => a - b)
+		parts: partsRecord(parts),
+		zerosHz: cornersHz(tf.originPower, tf.zeros),
+		polesHz: cornersHz(-tf.originPower, tf.poles)
 	};
+}
+
+/** n zeros at the origin, then each factor's corner (a pair twice), ascending, Hz. */
+function cornersHz(originCount: number, list: FactoredTf['zeros']): number[] {
+	const out: number[] = [];
+	for (let i = 0; i < originCount; i++) out.push(0);
+	for (const r of list) {
+		const f = rootFreqHz(r);
+		out.push(f);
+		if (r.kind === 'pair') out.push(f);
+	}
+	return out.length > 1 ? out.sort(ascending) : out;
+}
+
+function ascending(a: number, b: number): number {
+	return a - b;
 }
 
 function achieved(loop: LoopCheck): AchievedLoop {
@@ -221,8 +234,10 @@ function analysisRange(ctx: CompensatorContext, cornersHz: number[]) {
 
 function notInSeries(parts: NetworkParts, series: SeriesChoice): DesignWarning[] {
 	const out: DesignWarning[] = [];
-	for (const [name, value] of Object.entries(partsRecord(parts))) {
-		if (name === 'r1' || name === 'rb') continue;
+	const record = parts as unknown as Record<string, unknown>;
+	for (const name in record) {
+		const value = record[name];
+		if (name === 'kind' || name === 'r1' || name === 'rb' || typeof value !== 'number') continue;
 		const family = partFamily(name);
 		const s = family === 'resistor' ? series.resistors : family === 'capacitor' ? series.capacitors : null;
 		if (s && !isInSeries(value, s)) {

@@ -65,19 +65,22 @@ export interface OutputNetwork {
 
 export function outputNetwork(bank: readonly CapacitorBranch[]): OutputNetwork {
 	const branches = equivalentBranches(bank);
-	const polys = branches.map(branchPoly);
+	const polys: number[][] = [];
+	const qFactors: Root[] = [];
+	let cTotal = 0;
+	for (const b of branches) {
+		polys.push(branchPoly(b));
+		for (const f of branchZeroFactors(b)) qFactors.push(f);
+		cTotal += b.c;
+	}
 	let sPoly: number[] = [0];
-	branches.forEach((b, i) => {
-		const others = polyProduct(polys.filter((_, j) => j !== i));
-		sPoly = polyAdd(sPoly, polyShift(polyScale(others, b.c), 1));
-	});
-	return {
-		branches,
-		qPoly: polyProduct(polys),
-		sPoly,
-		qFactors: branches.flatMap(branchZeroFactors),
-		cTotal: branches.reduce((a, b) => a + b.c, 0)
-	};
+	for (let i = 0; i < branches.length; i++) {
+		// s·C_i·Π_{j≠i} q_j
+		let others: number[] = [1];
+		for (let j = 0; j < polys.length; j++) if (j !== i) others = polyMul(others, polys[j]);
+		sPoly = polyAdd(sPoly, polyShift(polyScale(others, branches[i].c), 1));
+	}
+	return { branches, qPoly: polyProduct(polys), sPoly, qFactors, cTotal };
 }
 
 /** Complex impedance of the capacitor bank alone at angular frequency omega: [re, im]. */

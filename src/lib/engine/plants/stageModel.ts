@@ -100,18 +100,22 @@ export function dominantResonance(poles: readonly Root[]): { omega0: number; q: 
 
 const mag = (r: Root) => (r.kind === 'real' ? Math.abs(r.omega) : r.omega0);
 
+function ascending(a: number, b: number): number {
+	return a - b;
+}
+
 export function stageFeatures(p: StageParameters, t: StageTransferFunctions): PlantFeatures {
 	const { omega0, q } = dominantResonance(t.poles);
-	const esrZeroHz = t.network.branches
-		.filter((b) => b.esr > 0)
-		.map((b) => 1 / (2 * Math.PI * b.esr * b.c))
-		.filter(Number.isFinite)
-		.sort((a, b) => a - b);
-	const selfResonanceHz = t.network.branches
-		.filter((b) => b.esl > 0)
-		.map((b) => 1 / (2 * Math.PI * Math.sqrt(b.esl * b.c)))
-		.filter(Number.isFinite)
-		.sort((a, b) => a - b);
+	const esrZeroHz: number[] = [];
+	const selfResonanceHz: number[] = [];
+	for (const b of t.network.branches) {
+		const fz = 1 / (2 * Math.PI * b.esr * b.c);
+		if (b.esr > 0 && Number.isFinite(fz)) esrZeroHz.push(fz);
+		const fr = 1 / (2 * Math.PI * Math.sqrt(b.esl * b.c));
+		if (b.esl > 0 && Number.isFinite(fr)) selfResonanceHz.push(fr);
+	}
+	if (esrZeroHz.length > 1) esrZeroHz.sort(ascending);
+	if (selfResonanceHz.length > 1) selfResonanceHz.sort(ascending);
 	const dc = 1 - p.duty;
 	const rhpZeroHz = p.topology === 'boost' ? (dc * dc * p.rLoad - p.rSeries) / (2 * Math.PI * p.l) : null;
 	return { f0Hz: omega0 / (2 * Math.PI), q, esrZeroHz, selfResonanceHz, rhpZeroHz };

@@ -243,7 +243,9 @@ export function pairType3(zerosHz: readonly number[], polesHz: readonly number[]
 /** Network parts as a flat record (kind dropped, optional ro/rb left out when absent) for reports. */
 export function partsRecord(p: NetworkParts): Record<string, number> {
 	const out: Record<string, number> = {};
-	for (const [key, value] of Object.entries(p)) {
+	const record = p as unknown as Record<string, unknown>;
+	for (const key in record) {
+		const value = record[key];
 		if (key !== 'kind' && typeof value === 'number') out[key] = value;
 	}
 	return out;

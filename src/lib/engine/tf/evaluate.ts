@@ -28,21 +28,8 @@ export interface CompiledTf {
 }
 
 export function compileTf(tf: FactoredTf): CompiledTf {
-	const split = (roots: FactoredTf['zeros']) => {
-		const real: number[] = [];
-		const invW: number[] = [];
-		const invQ: number[] = [];
-		for (const r of roots) {
-			if (r.kind === 'real') real.push(1 / r.omega);
-			else {
-				invW.push(1 / r.omega0);
-				invQ.push(Number.isFinite(r.q) ? 1 / r.q : 0);
-			}
-		}
-		return { real: Float64Array.from(real), invW: Float64Array.from(invW), invQ: Float64Array.from(invQ) };
-	};
-	const z = split(tf.zeros);
-	const p = split(tf.poles);
+	const z = splitRoots(tf.zeros);
+	const p = splitRoots(tf.poles);
 	return {
 		lnAbsGain: Math.log(Math.abs(tf.gain)),
 		phase0: tf.gain < 0 ? Math.PI : 0,
@@ -55,6 +42,25 @@ export function compileTf(tf: FactoredTf): CompiledTf {
 		pPairInvW: p.invW,
 		pPairInvQ: p.invQ
 	};
+}
+
+/** Reciprocal corners of a factor list, filled straight into typed arrays (Float64Array.from is slow). */
+function splitRoots(roots: FactoredTf['zeros']): { real: Float64Array; invW: Float64Array; invQ: Float64Array } {
+	let nReal = 0;
+	for (const r of roots) if (r.kind === 'real') nReal++;
+	const real = new Float64Array(nReal);
+	const invW = new Float64Array(roots.length - nReal);
+	const invQ = new Float64Array(roots.length - nReal);
+	let i = 0;
+	let j = 0;
+	for (const r of roots) {
+		if (r.kind === 'real') real[i++] = 1 / r.omega;
+		else {
+			invW[j] = 1 / r.omega0;
+			invQ[j++] = Number.isFinite(r.q) ? 1 / r.q : 0;
+		}
+	}
+	return { real, invW, invQ };
 }
 
 /** ln|T(jω)| and the unwrapped phase in rad, written into out[0], out[1]. */
