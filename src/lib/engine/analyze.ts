@@ -240,14 +240,18 @@ function loopWarnings(m: LoopMetrics, fswHz: number): EngineWarning[] {
 }
 
 function mergeWarnings(...lists: EngineWarning[][]): EngineWarning[] {
-	const seen = new Set<string>();
+	// A handful of warnings: a linear duplicate check beats building code|message keys.
 	const out: EngineWarning[] = [];
 	for (const list of lists) {
 		for (const w of list) {
-			const key = `${w.code}|${w.message}`;
-			if (seen.has(key)) continue;
-			seen.add(key);
-			out.push({ code: w.code, message: w.message });
+			let dup = false;
+			for (const o of out) {
+				if (o.code === w.code && o.message === w.message) {
+					dup = true;
+					break;
+				}
+			}
+			if (!dup) out.push({ code: w.code, message: w.message });
 		}
 	}
 	return out;
@@ -259,6 +263,10 @@ const sig = (x: number) => Number(x.toPrecision(3)).toString();
 
 function stripUndefined(o: object): Record<string, string | number> {
 	const out: Record<string, string | number> = {};
-	for (const [k, v] of Object.entries(o)) if (typeof v === 'string' || (typeof v === 'number' && Number.isFinite(v))) out[k] = v;
+	const record = o as Record<string, unknown>;
+	for (const k in record) {
+		const v = record[k];
+		if (typeof v === 'string' || (typeof v === 'number' && Number.isFinite(v))) out[k] = v;
+	}
 	return out;
 }

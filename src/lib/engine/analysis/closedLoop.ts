@@ -9,7 +9,7 @@
  * anything else (unstable, marginal, ill-conditioned) still goes to the roots.
  */
 import type { Complex } from '../math/complex';
-import { polyAdd, polyEvalComplex, polyProduct, polyScale, polyShift, degree } from '../math/polynomial';
+import { polyAdd, polyEvalComplex, polyProduct, polyShift, degree } from '../math/polynomial';
 import { polyRoots } from '../math/roots';
 import { padeDelay } from '../tf/convert';
 import type { FactoredTf, Root } from '../tf/types';
@@ -66,11 +66,25 @@ export function routhHurwitzStable(ascending: readonly number[]): true | null {
 
 const rootMag = (r: Root) => (r.kind === 'real' ? Math.abs(r.omega) : r.omega0);
 
-function factorPolyScaled(r: Root, k: number): number[] {
-	if (r.kind === 'real') return [1, k / r.omega];
-	const invQ = Number.isFinite(r.q) ? 1 / r.q : 0;
-	const x = k / r.omega0;
-	return [1, invQ * x, x * x];
+/** Π of the factors in x = s/k (ascending), multiplied in place: [1, k/ω] or [1, x/q, x²] with x = k/ω0. */
+function expandScaled(roots: readonly Root[], k: number, scale: number): number[] {
+	const p: number[] = [scale];
+	for (const r of roots) {
+		if (r.kind === 'real') {
+			const a = k / r.omega;
+			p.push(0);
+			for (let i = p.length - 1; i >= 1; i--) p[i] += a * p[i - 1];
+			continue;
+		}
+		const invQ = Number.isFinite(r.q) ? 1 / r.q : 0;
+		const x = k / r.omega0;
+		const a = invQ * x;
+		const b = x * x;
+		p.push(0, 0);
+		for (let i = p.length - 1; i >= 2; i--) p[i] += a * p[i - 1] + b * p[i - 2];
+		p[1] += a * p[0];
+	}
+	return p;
 }
 
 /** Phase error (deg) of Padé(n,n) for e^(−jx) at x = ω·Td. */
@@ -117,8 +131,8 @@ export function closedLoopStability(
 	}
 	const k = count ? Math.exp(logSum / count) : 1;
 
-	let num = polyScale(polyProduct(loop.zeros.map((r) => factorPolyScaled(r, k))), loop.gain * Math.pow(k, loop.originPower));
-	let den = polyProduct(loop.poles.map((r) => factorPolyScaled(r, k)));
+	let num = expandScaled(loop.zeros, k, loop.gain * Math.pow(k, loop.originPower));
+	let den = expandScaled(loop.poles, k, 1);
 	if (loop.originPower > 0) num = polyShift(num, loop.originPower);
 	if (loop.originPower < 0) den = polyShift(den, -loop.originPower);
 	let padeOrder = 0;
@@ -144,7 +158,7 @@ export function closedLoopStability(
 	for (const p of poles) {
 		p.re *= k;
 		p.im *= k;
-		if (!(p.re < -1e-12 * Math.hypot(p.re, p.im))) stable = false;
+		if (!(p.re < -1e-12 * Math.sqrt(p.re * p.re + p.im * p.im))) stable = false;
 	}
 	if (!(r.backwardError < 1e-8)) {
 		return { stable: null, poles, padeOrder, method: 'roots', reason: `closed-loop poles inaccurate (backward error ${r.backwardError.toExponential(1)})` };

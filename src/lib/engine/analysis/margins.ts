@@ -6,10 +6,10 @@
  * margin, modulus margin min|1 + T| (Brent's minimiser). A margin that does not exist is null,
  * with its reason in `unavailable`.
  */
-import { brentMin, newtonBracketed } from '../math/scalarRoot';
+import { brentMin, brentRoot, newtonBracketed } from '../math/scalarRoot';
 import { compileTf, lnMagPhaseAt, lnMagPhaseSlopeAt, type CompiledTf } from '../tf/evaluate';
 import type { FactoredTf } from '../tf/types';
-import { distanceToMinusOne, sampleLoop, type GridOptions } from './analysisGrid';
+import { bracketingGrid, distanceToMinusOne, type GridOptions } from './analysisGrid';
 import { closedLoopStability, type ClosedLoopResult } from './closedLoop';
 
 const RAD2DEG = 180 / Math.PI;
@@ -82,22 +82,42 @@ const probe = { c: null as unknown as CompiledTf, line: 0, buf: new Float64Array
 
 /** ln|T| and its slope at u = ln ω. */
 function lnMagAndSlopeAtLog(u: number, out: Float64Array): void {
-	lnMagPhaseSlopeAt(probe.c, Math.exp(u), probe.buf);
+	lnMagPhaseSlopeAt(probe.c, Math.exp(u), probe.buf, u);
 	out[0] = probe.buf[0];
 	out[1] = probe.buf[2];
 }
 
 /** Phase less the current −180° + k·360° line, and its slope, at u = ln ω. */
 function phaseLessLineAndSlopeAtLog(u: number, out: Float64Array): void {
-	lnMagPhaseSlopeAt(probe.c, Math.exp(u), probe.buf);
+	lnMagPhaseSlopeAt(probe.c, Math.exp(u), probe.buf, u);
 	out[0] = probe.buf[1] - probe.line;
 	out[1] = probe.buf[3];
 }
 
+/**
+ * d|1 + T|²/d ln ω from ln|T|, the phase and their slopes: with |1 + T|² = 1 + 2m·cos φ + m²,
+ * it is 2m·[λ'(m + cos φ) − φ'·sin φ] (λ = ln m) [derived here].
+ */
+function distanceSlope(lnMag: number, phase: number, lnMagSlope: number, phaseSlope: number): number {
+	const m = Math.exp(lnMag);
+	return 2 * m * (lnMagSlope * (m + Math.cos(phase)) - phaseSlope * Math.sin(phase));
+}
+
+/** d|1 + T|²/d ln ω at u = ln ω. */
+function distanceSlopeAtLog(u: number): number {
+	lnMagPhaseSlopeAt(probe.c, Math.exp(u), probe.buf, u);
+	return distanceSlope(probe.buf[0], probe.buf[1], probe.buf[2], probe.buf[3]);
+}
+
 /** |1 + T| at u = ln ω. */
 function distanceAtLog(u: number): number {
-	lnMagPhaseAt(probe.c, Math.exp(u), probe.buf);
+	lnMagPhaseAt(probe.c, Math.exp(u), probe.buf, u);
 	return distanceToMinusOne(probe.buf[0], probe.buf[1]);
+}
+
+function isSortedByFreq(list: readonly { freqHz: number }[]): boolean {
+	for (let i = 1; i < list.length; i++) if (list[i].freqHz < list[i - 1].freqHz) return false;
+	return true;
 }
 
 function phaseCrossoverAt(c: CompiledTf, omega: number, lineRad: number, direction: 'falling' | 'rising'): PhaseCrossover {
@@ -113,7 +133,7 @@ export function loopMetrics(
 	const c = compileTf(loop);
 	const wA = TWO_PI * range.startHz;
 	const wB = TWO_PI * range.stopHz;
-	const g = sampleLoop(c, wA, wB, options);
+	const g = bracketingGrid(c, wA, wB, options); // scratch: read before any other grid is built
 	const buf = probe.buf;
 	probe.c = c;
 	const n = g.n;
@@ -164,7 +184,7 @@ export function loopMetrics(
 			phaseCrossovers.push(phaseCrossoverAt(c, Math.exp(u), line, pb < pa ? 'falling' : 'rising'));
 		}
 	}
-	phaseCrossovers.sort((a, b) => a.freqHz - b.freqHz);
+	if (!isSortedByFreq(phaseCrossovers)) phaseCrossovers.sort((a, b) => a.freqHz - b.freqHz);
 
 	const unavailable: LoopMetrics['unavailable'] = {};
 	let governing: GainCrossover | null = null;
@@ -191,7 +211,9 @@ export function loopMetrics(
 	if (!grm) unavailable.gainReductionMarginDb = 'no phase crossover with |T| > 1';
 
 	// Modulus margin: the grid brackets the global minimum of |1 + T| to modulusRelTol; refine
-	// each sampled local minimum that could hold it by Brent's minimiser between its neighbours.
+	// each sampled local minimum that could hold it. Where d|1 + T|²/d ln ω (known at every
+	// sample from its slopes) changes sign beside it, Brent's root finder on that derivative
+	// converges in a few steps; otherwise (a minimum at a range edge) Brent's minimiser.
 	const relTol = options.modulusRelTol ?? 0.01;
 	let best = g.distance[g.iMinDistance];
 	let smW = g.omega[g.iMinDistance];
@@ -199,10 +221,28 @@ export function loopMetrics(
 	for (let i = 0; i < n && n > 1; i++) {
 		const d = g.distance[i];
 		if (d > limit || (i > 0 && g.distance[i - 1] < d) || (i < n - 1 && g.distance[i + 1] < d)) continue;
-		const r = brentMin(distanceAtLog, g.logOmega[Math.max(0, i - 1)], g.logOmega[Math.min(n - 1, i + 1)], 1e-9);
-		if (r.fx < best) {
-			best = r.fx;
-			smW = Math.exp(r.x);
+		const gi = distanceSlope(g.lnMag[i], g.phase[i], g.lnMagSlope[i], g.phaseSlope[i]);
+		let j = -1; // bracket [j, j + 1] with the derivative rising through 0
+		if (gi < 0 && i + 1 < n && distanceSlope(g.lnMag[i + 1], g.phase[i + 1], g.lnMagSlope[i + 1], g.phaseSlope[i + 1]) > 0) j = i;
+		else if (gi > 0 && i > 0 && distanceSlope(g.lnMag[i - 1], g.phase[i - 1], g.lnMagSlope[i - 1], g.phaseSlope[i - 1]) < 0) j = i - 1;
+		let x: number;
+		let fx: number;
+		if (gi === 0) {
+			x = g.logOmega[i];
+			fx = d;
+		} else if (j >= 0) {
+			const ga = distanceSlope(g.lnMag[j], g.phase[j], g.lnMagSlope[j], g.phaseSlope[j]);
+			const gb = distanceSlope(g.lnMag[j + 1], g.phase[j + 1], g.lnMagSlope[j + 1], g.phaseSlope[j + 1]);
+			x = brentRoot(distanceSlopeAtLog, g.logOmega[j], g.logOmega[j + 1], ga, gb, 1e-10);
+			fx = distanceAtLog(x);
+		} else {
+			const r = brentMin(distanceAtLog, g.logOmega[Math.max(0, i - 1)], g.logOmega[Math.min(n - 1, i + 1)], 1e-9);
+			x = r.x;
+			fx = r.fx;
+		}
+		if (fx < best) {
+			best = fx;
+			smW = Math.exp(x);
 		}
 	}
 

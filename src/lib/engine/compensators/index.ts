@@ -127,7 +127,8 @@ export function resolveParsedCompensator(c: CompensatorDoc, ctx: CompensatorCont
 	const opamp = c.opamp ?? null;
 	const builtParts = rounded ?? ideal;
 	const built = compensatorTf(builtParts, opamp);
-	const idealReport = report(ideal);
+	// Without an op-amp model the built Gc of unrounded parts is the ideal one: no need to rebuild it.
+	const idealReport = report(ideal, !rounded && !opamp ? built : undefined);
 	const builtReport = rounded ? report(rounded) : idealReport;
 	const range = analysisRange(ctx, [...idealReport.polesHz, ...idealReport.zerosHz]);
 	// One metrics pass on the built loop; poles only when the caller will reuse the metrics,
@@ -195,8 +196,8 @@ function partsFromDoc(kind: CompensatorKind, p: NonNullable<CompensatorDoc['part
 }
 
 /** Parts and ideal-amplifier corners of a network, for the response. */
-function report(parts: NetworkParts): NetworkReport {
-	const tf = idealCompensatorTf(parts);
+function report(parts: NetworkParts, idealTf: FactoredTf = idealCompensatorTf(parts)): NetworkReport {
+	const tf = idealTf;
 	return {
 		parts: partsRecord(parts),
 		zerosHz: cornersHz(tf.originPower, tf.zeros),
@@ -213,11 +214,17 @@ function cornersHz(originCount: number, list: FactoredTf['zeros']): number[] {
 		out.push(f);
 		if (r.kind === 'pair') out.push(f);
 	}
-	return out.length > 1 ? out.sort(ascending) : out;
-}
-
-function ascending(a: number, b: number): number {
-	return a - b;
+	// Insertion sort: two to five values (Array#sort allocates a work array each call).
+	for (let i = 1; i < out.length; i++) {
+		const v = out[i];
+		let j = i - 1;
+		while (j >= 0 && out[j] > v) {
+			out[j + 1] = out[j];
+			j--;
+		}
+		out[j + 1] = v;
+	}
+	return out;
 }
 
 function achieved(loop: LoopCheck): AchievedLoop {
@@ -247,8 +254,11 @@ function notInSeries(parts: NetworkParts, series: SeriesChoice): DesignWarning[]
 	return out;
 }
 
+function bad(field: string, rule: string): CompensatorDesignError {
+	return new CompensatorDesignError(`${field} ${rule}`, field, 'invalid-design');
+}
+
 function checkContext(ctx: CompensatorContext): void {
-	const bad = (field: string, rule: string) => new CompensatorDesignError(`${field} ${rule}`, field, 'invalid-design');
 	if (!(ctx.r1 > 0 && Number.isFinite(ctx.r1))) throw bad('feedback.r1', 'must be > 0');
 	if (!(ctx.vref > 0 && Number.isFinite(ctx.vref))) throw bad('feedback.vref', 'must be > 0');
 	if (!(ctx.vout >= ctx.vref)) throw bad('feedback.vref', 'must not exceed the output voltage');

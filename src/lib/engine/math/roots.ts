@@ -34,7 +34,8 @@ export function polyRoots(p: Poly, options: RootsOptions = {}): RootsResult {
 	for (const c of p) if (!Number.isFinite(c)) throw new Error('polyRoots: non-finite coefficient');
 	let low = 0;
 	while (p[low] === 0) low++;
-	const zeroRoots: Complex[] = Array.from({ length: low }, () => ({ re: 0, im: 0 }));
+	const zeroRoots: Complex[] = [];
+	for (let i = 0; i < low; i++) zeroRoots.push({ re: 0, im: 0 });
 	const q = p.slice(low, n + 1); // q[0] ≠ 0, q[m] ≠ 0
 	const m = q.length - 1;
 	if (m === 0) return { roots: zeroRoots, backwardError: 0, method: 'closed-form' };
@@ -44,18 +45,25 @@ export function polyRoots(p: Poly, options: RootsOptions = {}): RootsResult {
 
 	// Scale s = k·x and make the polynomial monic in x.
 	const k = Math.pow(Math.abs(q[0] / q[m]), 1 / m);
-	const b = new Array<number>(m + 1);
-	for (let i = 0; i <= m; i++) b[i] = (q[i] * Math.pow(k, i - m)) / q[m];
+	// b_i = q_i·k^(i−m)/q_m, powers by repeated multiplication (within m ulps of Math.pow).
+	const b: number[] = [];
+	for (let i = 0; i <= m; i++) b.push(0);
 	b[m] = 1;
+	let power = q[m];
+	for (let i = m - 1; i >= 0; i--) {
+		power *= k;
+		b[i] = q[i] / power;
+	}
 
 	const maxIterations = options.maxIterations ?? 500;
 	const accept = options.acceptBackwardError ?? 1e-11;
-	let xs = aberth(b, maxIterations);
-	let err = polishAll(b, xs);
+	const settled = scratch(3, b.length - 1);
+	let xs = aberth(b, maxIterations, settled);
+	let err = polishAll(b, xs, settled);
 	let method: RootsResult['method'] = 'aberth';
 	if (!(err <= accept)) {
 		const alt = companionRoots(b);
-		const altErr = polishAll(b, alt);
+		const altErr = polishAll(b, alt, null);
 		if (altErr < err || !Number.isFinite(err)) {
 			xs = alt;
 			err = altErr;
@@ -74,26 +82,28 @@ export function polyRoots(p: Poly, options: RootsOptions = {}): RootsResult {
 /** Initial radii from the upper convex hull of (i, log|b_i|) (Newton polygon). */
 function initialGuesses(b: number[]): Complex[] {
 	const m = b.length - 1;
-	const pts: { i: number; y: number }[] = [];
-	for (let i = 0; i <= m; i++) if (b[i] !== 0) pts.push({ i, y: Math.log(Math.abs(b[i])) });
-	const hull: { i: number; y: number }[] = [];
-	for (const pt of pts) {
-		while (hull.length >= 2) {
-			const a = hull[hull.length - 2];
-			const c = hull[hull.length - 1];
-			// Remove c if it lies on or below the segment a → pt.
-			if ((c.y - a.y) * (pt.i - a.i) <= (pt.y - a.y) * (c.i - a.i)) hull.pop();
-			else break;
+	// Hull vertices as parallel arrays (index, log|b_i|).
+	const hi: number[] = [];
+	const hy: number[] = [];
+	for (let i = 0; i <= m; i++) {
+		if (b[i] === 0) continue;
+		const y = Math.log(Math.abs(b[i]));
+		while (hi.length >= 2) {
+			const k = hi.length;
+			// Remove the last vertex if it lies on or below the segment from the one before to (i, y).
+			if ((hy[k - 1] - hy[k - 2]) * (i - hi[k - 2]) <= (y - hy[k - 2]) * (hi[k - 1] - hi[k - 2])) {
+				hi.pop();
+				hy.pop();
+			} else break;
 		}
-		hull.push(pt);
+		hi.push(i);
+		hy.push(y);
 	}
 	const out: Complex[] = [];
 	const sigma = 0.7; // angular offset so no start point sits on the real axis
-	for (let h = 0; h + 1 < hull.length; h++) {
-		const lo = hull[h];
-		const hi = hull[h + 1];
-		const count = hi.i - lo.i;
-		const radius = Math.exp((lo.y - hi.y) / count);
+	for (let h = 0; h + 1 < hi.length; h++) {
+		const count = hi[h + 1] - hi[h];
+		const radius = Math.exp((hy[h] - hy[h + 1]) / count);
 		for (let j = 0; j < count; j++) {
 			const angle = (2 * Math.PI * j) / count + (2 * Math.PI * h) / m + sigma;
 			out.push({ re: radius * Math.cos(angle), im: radius * Math.sin(angle) });
@@ -119,25 +129,37 @@ function evalWithDerivative(b: number[], xr: number, xi: number): [number, numbe
 	return [pr, pi, dr, di];
 }
 
+// Work arrays reused across calls (polyRoots is synchronous and calls nothing that re-enters
+// it); typed arrays beyond a few elements are costly to allocate each time.
+const work: Float64Array[] = [new Float64Array(16), new Float64Array(16), new Float64Array(17), new Float64Array(16), new Float64Array(16)];
+
+/** Work array `slot` with at least `size` entries (the first `size` are the caller's; no view is made). */
+function scratch(slot: number, size: number): Float64Array {
+	if (work[slot].length < size) work[slot] = new Float64Array(2 * size);
+	return work[slot];
+}
+
 /**
  * Aberth–Ehrlich sweeps (Gauss–Seidel order: each update uses the newest neighbours). A root
  * stops once |p(z)| is at the level of the rounding error of evaluating p there
  * (|p(z)| ≤ 4ε·Σ|b_k||z|^k, Bini 1996) or its step is below 4ε·|z|; further sweeps could not
  * improve it and would only cost time.
  */
-function aberth(b: number[], maxIterations: number): Complex[] {
+function aberth(b: number[], maxIterations: number, settled: Float64Array): Complex[] {
 	const z0 = initialGuesses(b);
 	const m = z0.length;
-	const zr = new Float64Array(m);
-	const zi = new Float64Array(m);
+	const zr = scratch(0, m);
+	const zi = scratch(1, m);
 	for (let i = 0; i < m; i++) {
 		zr[i] = z0[i].re;
 		zi[i] = z0[i].im;
 	}
 	const n = b.length - 1;
-	const absB = new Float64Array(n + 1);
+	const absB = scratch(2, n + 1);
 	for (let k = 0; k <= n; k++) absB[k] = Math.abs(b[k]);
-	const done = new Uint8Array(m);
+	const done = scratch(4, m); // 0 or 1
+	done.fill(0, 0, m);
+	settled.fill(NaN, 0, m);
 	let left = m;
 	for (let iter = 0; iter < maxIterations && left > 0; iter++) {
 		for (let i = 0; i < m; i++) {
@@ -162,6 +184,8 @@ function aberth(b: number[], maxIterations: number): Complex[] {
 			}
 			const pAbs = Math.sqrt(pr * pr + pi * pi);
 			if (pAbs <= 4 * Number.EPSILON * bound) {
+				// At the rounding level of p: Newton cannot improve it; its backward error is known.
+				settled[i] = bound === 0 ? 0 : pAbs / bound;
 				done[i] = 1;
 				left--;
 				continue;
@@ -210,12 +234,19 @@ function aberth(b: number[], maxIterations: number): Complex[] {
 
 /**
  * A few Newton steps on each root in place, each kept only while it lowers |p|; returns the
- * largest backward error |p(x)| / Σ|b_i||x|^i over the polished roots (NaN propagates).
+ * largest backward error |p(x)| / Σ|b_i||x|^i over the roots (NaN propagates). Roots whose
+ * backward error is already known (`settled[i]` finite: Aberth stopped them at the rounding
+ * level) are left as they are.
  */
-function polishAll(b: number[], xs: Complex[]): number {
+function polishAll(b: number[], xs: Complex[], settled: Float64Array | null): number {
 	const n = b.length - 1;
 	let worst = 0;
-	for (const x of xs) {
+	for (let idx = 0; idx < xs.length; idx++) {
+		const x = xs[idx];
+		if (settled && Number.isFinite(settled[idx])) {
+			if (!(settled[idx] <= worst)) worst = settled[idx];
+			continue;
+		}
 		let xr = x.re;
 		let xi = x.im;
 		// p and p' at the current point, by Horner
@@ -331,7 +362,9 @@ function conjugateSymmetric(roots: Complex[]): Complex[] {
 		let bestD = Infinity;
 		for (let j = 0; j < lower.length; j++) {
 			if (used[j]) continue;
-			const d = Math.hypot(u.re - lower[j].re, u.im + lower[j].im);
+			const dr = u.re - lower[j].re;
+			const di = u.im + lower[j].im;
+			const d = Math.sqrt(dr * dr + di * di);
 			if (d < bestD) {
 				bestD = d;
 				best = j;

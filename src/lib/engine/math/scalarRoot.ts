@@ -163,9 +163,13 @@ export function brentMin(f: (x: number) => number, a: number, b: number, xtol = 
 /**
  * Root of f in [a, b] (f(a)·f(b) ≤ 0) by Newton's method kept inside the shrinking bracket,
  * falling back to bisection when a step leaves it or does not halve the error; `fdf(x, out)`
- * writes f(x) to out[0] and f'(x) to out[1]. Same tolerance convention as brentRoot.
+ * writes f(x) to out[0] and f'(x) to out[1] (fdf must not itself call newtonBracketed). Same
+ * tolerance convention as brentRoot.
  * [published: W. H. Press et al., Numerical Recipes, "rtsafe" (Newton with bisection); from memory]
  */
+// Reused by newtonBracketed (synchronous; fdf must not call newtonBracketed itself).
+const newtonScratch = new Float64Array(2);
+
 export function newtonBracketed(
 	fdf: (x: number, out: Float64Array) => void,
 	a: number,
@@ -180,7 +184,7 @@ export function newtonBracketed(
 	// Orient so that f(lo) < 0 < f(hi).
 	let lo = fa < 0 ? a : b;
 	let hi = fa < 0 ? b : a;
-	const out = new Float64Array(2);
+	const out = newtonScratch;
 	// Start from the secant point: the function is monotone on the bracket in practice.
 	let x = a - (fa * (b - a)) / (fb - fa);
 	if (!(x > Math.min(a, b) && x < Math.max(a, b))) x = 0.5 * (a + b);

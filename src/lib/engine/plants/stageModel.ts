@@ -86,11 +86,17 @@ export function stageTransferFunctions(p: StageParameters, net: OutputNetwork): 
 
 /** f0 and Q of the lowest resonance among the poles (two lowest real poles count as one pair). */
 export function dominantResonance(poles: readonly Root[]): { omega0: number; q: number } {
-	const sorted = [...poles].sort((a, b) => mag(a) - mag(b));
-	const first = sorted[0];
+	// The two lowest by corner frequency (ties keep list order, as a stable sort would).
+	let first: Root | undefined;
+	let second: Root | undefined;
+	for (const r of poles) {
+		if (!first || mag(r) < mag(first)) {
+			second = first;
+			first = r;
+		} else if (!second || mag(r) < mag(second)) second = r;
+	}
 	if (!first) return { omega0: 0, q: 0 };
 	if (first.kind === 'pair') return { omega0: first.omega0, q: first.q };
-	const second = sorted[1];
 	if (!second) return { omega0: Math.abs(first.omega), q: 0 };
 	if (second.kind === 'pair') return { omega0: second.omega0, q: second.q };
 	const w1 = Math.abs(first.omega);

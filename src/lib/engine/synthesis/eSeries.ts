@@ -131,19 +131,18 @@ const MEMBERS = Object.fromEntries(E_SERIES_NAMES.map((name) => [name, new Set(E
 /**
  * True when `value` is (to 1e-9 relative) a member of `series` in some decade; the same answer
  * as |nearestInSeries(value).relativeChange| < 1e-9 (any member that close is the nearest, the
- * next being ≥ 1 % away), found by rounding the mantissa in the three decades around value.
+ * next being ≥ 1 % away). A member that close has the exponent e0 = floor(log10 value) + 1 −
+ * digits, or one off it when log10 lands an ulp across a decade; the rounded mantissa shows which.
  */
 export function isInSeries(value: number, series: ESeriesName): boolean {
 	if (!Number.isFinite(value) || value <= 0) {
 		throw new RangeError(`E-series rounding needs a finite value > 0, got ${value}`);
 	}
 	const members = MEMBERS[series];
-	const shift = 1 - seriesDigits(series);
-	const decade = Math.floor(Math.log10(value));
-	for (let k = decade - 1; k <= decade + 1; k++) {
-		const e = k + shift;
-		const mantissa = Math.round(e >= 0 ? value / 10 ** e : value * 10 ** -e);
-		if (members.has(mantissa) && Math.abs(scaled(mantissa, e) / value - 1) < 1e-9) return true;
-	}
-	return false;
+	const digits = seriesDigits(series);
+	const e0 = Math.floor(Math.log10(value)) + 1 - digits;
+	const mantissa = Math.round(e0 >= 0 ? value / 10 ** e0 : value * 10 ** -e0);
+	const e = mantissa >= 10 ** digits ? e0 + 1 : mantissa < 10 ** (digits - 1) ? e0 - 1 : e0;
+	const m = e === e0 ? mantissa : Math.round(e >= 0 ? value / 10 ** e : value * 10 ** -e);
+	return members.has(m) && Math.abs(scaled(m, e) / value - 1) < 1e-9;
 }

@@ -63,9 +63,9 @@ function splitRoots(roots: FactoredTf['zeros']): { real: Float64Array; invW: Flo
 	return { real, invW, invQ };
 }
 
-/** ln|T(jω)| and the unwrapped phase in rad, written into out[0], out[1]. */
-export function lnMagPhaseAt(c: CompiledTf, omega: number, out: Float64Array | number[]): void {
-	let ln = c.lnAbsGain + c.originPower * Math.log(omega);
+/** ln|T(jω)| and the unwrapped phase in rad, written into out[0], out[1] (`logOmega`: ln ω, if known). */
+export function lnMagPhaseAt(c: CompiledTf, omega: number, out: Float64Array | number[], logOmega = Math.log(omega)): void {
+	let ln = c.lnAbsGain + c.originPower * logOmega;
 	let ph = c.phase0 + c.originPower * (Math.PI / 2) - omega * c.delayS;
 	// Running product of squared magnitudes; folded into ln when it leaves a safe range.
 	let prod = 1;
@@ -140,10 +140,11 @@ export function lnMagPhaseAt(c: CompiledTf, omega: number, out: Float64Array | n
  * in the same order), so brackets found with one hold for the other. Per factor, with x = ω/ωc:
  * real (1 + jx): slopes x²/(1 + x²) and x/(1 + x²) (x < 0 for a RHP root); pair
  * 1 − x² + jx/q: slopes x²(1/q² − 2(1 − x²))/D and (x/q)(1 + x²)/D, D = (1 − x²)² + x²/q²;
- * s^n: n and 0; delay: 0 and −ωTd [derived here: d/d ln ω = ω·d/dω].
+ * s^n: n and 0; delay: 0 and −ωTd [derived here: d/d ln ω = ω·d/dω]. `logOmega` saves the log
+ * when the caller already has ln ω.
  */
-export function lnMagPhaseSlopeAt(c: CompiledTf, omega: number, out: Float64Array | number[]): void {
-	let ln = c.lnAbsGain + c.originPower * Math.log(omega);
+export function lnMagPhaseSlopeAt(c: CompiledTf, omega: number, out: Float64Array | number[], logOmega = Math.log(omega)): void {
+	let ln = c.lnAbsGain + c.originPower * logOmega;
 	let ph = c.phase0 + c.originPower * (Math.PI / 2) - omega * c.delayS;
 	let sm = c.originPower;
 	let sp = -omega * c.delayS;

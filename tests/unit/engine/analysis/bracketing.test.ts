@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { analyzeDesignDetailed, loopMetrics, sampleLoop, slopeBounds } from '$lib/engine';
+import { analyzeDesignDetailed, loopMetrics, modulusLowerBound, sampleLoop, slopeBounds } from '$lib/engine';
 import { compileTf, lnMagPhaseAt, lnMagPhaseSlopeAt, pairRoot, realRoot, type FactoredTf } from '$lib/engine/tf';
 
 const TWO_PI = 2 * Math.PI;
@@ -171,6 +171,32 @@ describe('slopes of the factored loop', () => {
 				}
 			),
 			{ numRuns: 300, seed: 99 }
+		);
+	});
+
+	it('the lower bound of |1 + T| on an interval never exceeds |1 + T| sampled inside it', () => {
+		// [hand-derivable: a lower bound must hold pointwise; 400 samples per interval]
+		fc.assert(
+			fc.property(
+				loopArb,
+				fc.double({ min: 1, max: 6.5, noNaN: true }),
+				fc.double({ min: 0.0005, max: 1, noNaN: true }),
+				(loop, logF, decades) => {
+					const c = compileTf(loop);
+					const wa = TWO_PI * Math.pow(10, logF);
+					const wb = wa * Math.pow(10, decades);
+					const bound = modulusLowerBound(c, wa, wb);
+					const out = new Float64Array(2);
+					let min = Infinity;
+					for (let i = 0; i <= 400; i++) {
+						lnMagPhaseAt(c, wa * Math.pow(wb / wa, i / 400), out);
+						const m = Math.exp(out[0]);
+						min = Math.min(min, Math.sqrt(Math.max(0, 1 + 2 * m * Math.cos(out[1]) + m * m)));
+					}
+					expect(bound).toBeLessThanOrEqual(min * (1 + 1e-12) + 1e-12);
+				}
+			),
+			{ numRuns: 1000, seed: 5 }
 		);
 	});
 });
