@@ -51,8 +51,17 @@ export function analyzeDesign(doc: unknown, options: AnalyzeOptions = {}): Analy
 export function analyzeDesignDetailed(doc: unknown, options: AnalyzeOptions = {}): AnalysisDetail | ContractError {
 	const parsed = designDocumentSchema.safeParse(doc);
 	if (!parsed.success) return contractError(zodFields(parsed.error));
+	return analyzeValidatedDesign(parsed.data, options);
+}
+
+/**
+ * Analyse a document that designDocumentSchema has already accepted (its parse output, defaults
+ * filled): for batch callers that validate once and analyse many times. The rules that need the
+ * model (duty, maximum boost gain) are still checked here and come back as the contract error.
+ */
+export function analyzeValidatedDesign(document: DesignDocument, options: AnalyzeOptions = {}): AnalysisDetail | ContractError {
 	try {
-		return run(parsed.data, options);
+		return run(document, options);
 	} catch (e) {
 		if (e instanceof DesignInputError) return contractError(e.fields);
 		if (e instanceof CompensatorDesignError) return contractError(e.fields, e.code, e.message);
