@@ -1,6 +1,7 @@
-// Request pipeline: identify the caller (better-auth session cookie, or an API token on
-// /api/v1), then guard the request (body size, signed-in areas, development-only pages).
-// Every endpoint still checks the caller's role itself through $lib/server/authz/guard.
+// Request pipeline: record the client address, identify the caller (better-auth session
+// cookie, or an API token on /api/v1), then guard the request (body size, signed-in areas,
+// development-only pages). Every endpoint still checks the caller's role itself through
+// $lib/server/authz/guard.
 import { building } from '$app/environment';
 import { redirect, type Handle } from '@sveltejs/kit';
 import { sequence } from '@sveltejs/kit/hooks';
@@ -13,6 +14,24 @@ import { databaseAnswers } from '$lib/server/health';
 import { MAX_BODY_BYTES } from '$lib/server/http/request';
 import { BENCH_MAX_BYTES } from '$lib/bench';
 import * as tokens from '$lib/server/services/tokens';
+import { CLIENT_IP_HEADER } from '$lib/server/sign-in-throttle';
+
+/**
+ * The client address better-auth's limiter and our sign-in throttle key on, always overwritten:
+ * a value sent by the client is never trusted. getClientAddress() is the socket's peer, or the
+ * address adapter-node reads from ADDRESS_HEADER / XFF_DEPTH behind a reverse proxy (README).
+ */
+const clientAddress: Handle = async ({ event, resolve }) => {
+	let address = '';
+	try {
+		address = event.getClientAddress();
+	} catch {
+		// Prerendering and some adapters have no client address: the header is then removed.
+	}
+	if (address) event.request.headers.set(CLIENT_IP_HEADER, address);
+	else event.request.headers.delete(CLIENT_IP_HEADER);
+	return resolve(event);
+};
 
 const identify: Handle = async ({ event, resolve }) => {
 	event.locals.user = null;
@@ -79,4 +98,4 @@ const guard: Handle = async ({ event, resolve }) => {
 	return response;
 };
 
-export const handle = sequence(identify, guard);
+export const handle = sequence(clientAddress, identify, guard);

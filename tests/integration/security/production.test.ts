@@ -2,8 +2,10 @@
 // process with NODE_ENV=production (better-auth reads it once, at import; the dev server of
 // these tests runs with NODE_ENV=test, where it neither rate-limits nor checks origins):
 // no secret or the public development default is refused; sign-in answers 429 after a burst
-// of wrong passwords from one client while another client is unaffected. Also: no secret is
-// written into the source, and production dependencies have no high or critical advisory.
+// of wrong passwords from one client while another client is unaffected, and a client cannot
+// choose its address with X-Forwarded-For (the per-account throttle: sign-in-limits.test.ts).
+// Also: no secret is written into the source, and production dependencies have no high or
+// critical advisory.
 import '../support/env';
 import { execFile } from 'node:child_process';
 import { readdirSync, readFileSync, statSync } from 'node:fs';
@@ -39,6 +41,8 @@ describe('production settings', () => {
 		const r = await inProduction('burst', { BETTER_AUTH_SECRET: 'a-real-secret-from-the-environment-0123456789' });
 		expect(r.sameClient).toEqual([401, 401, 401, 429, 429]);
 		expect(r.otherClient).toEqual([401, 401]);
+		// The address is only the one the request hook writes: a client's own X-Forwarded-For is ignored.
+		expect(r.rotatingForwardedFor).toEqual([401, 401, 401, 429]);
 	});
 });
 

@@ -4,6 +4,7 @@
 // default, and how the sign-in endpoint answers a burst of wrong passwords.
 import { createAuth } from '../../../../src/lib/server/auth-core';
 import { createDatabase } from '../../../../src/lib/server/db';
+import { CLIENT_IP_HEADER } from '../../../../src/lib/server/sign-in-throttle';
 
 const mode = process.argv[2];
 const { db, pool } = createDatabase();
@@ -17,12 +18,14 @@ function tryCreate(): string {
 	}
 }
 
-async function signInBurst(count: number, ip: string | null, email: string) {
+/** `ip`: the address the request hook writes (CLIENT_IP_HEADER); `forwarded`: an X-Forwarded-For a client sent itself. */
+async function signInBurst(count: number, ip: string | null, email: string, forwarded?: (i: number) => string) {
 	const auth = createAuth(db);
 	const statuses: number[] = [];
 	for (let i = 0; i < count; i++) {
 		const headers: Record<string, string> = { 'content-type': 'application/json', origin: process.env.ORIGIN! };
-		if (ip) headers['x-forwarded-for'] = ip;
+		if (ip) headers[CLIENT_IP_HEADER] = ip;
+		if (forwarded) headers['x-forwarded-for'] = forwarded(i);
 		const response = await auth.handler(
 			new Request(`${process.env.ORIGIN}/api/auth/sign-in/email`, { method: 'POST', headers, body: JSON.stringify({ email, password: 'wrong-password-0' }) })
 		);
@@ -45,7 +48,10 @@ if (mode === 'secret') {
 else {
 	const a = await signInBurst(5, '203.0.113.7', 'first@example.test');
 	const b = await signInBurst(2, '203.0.113.8', 'second@example.test');
-	result = { sameClient: a, otherClient: b };
+	// Without the hook's header the client has no address of its own: a new X-Forwarded-For on
+	// every request does not buy a fresh bucket.
+	const c = await signInBurst(4, null, 'third@example.test', (i) => `198.51.100.${i + 1}`);
+	result = { sameClient: a, otherClient: b, rotatingForwardedFor: c };
 }
 console.log(JSON.stringify(result));
 await pool.end();

@@ -1,0 +1,118 @@
+// Sign-in is throttled per client: after a handful of wrong passwords from one client address for
+// one account, the sign-in form and /api/auth/sign-in/email both answer 429 "too many attempts"
+// (the right password included) until the window ends; another client address is not blocked,
+// a client cannot pick its own address with a header, a right password resets the count, and one
+// address is capped over all accounts. Requests leave from chosen loopback source addresses
+// (Linux routes all of 127.0.0.0/8 to the loopback device), so the app sees distinct clients.
+import '../support/env';
+import { request } from 'node:http';
+import { describe, expect, it } from 'vitest';
+import { SIGN_IN_LIMITS } from '../../../src/lib/server/sign-in-throttle';
+import { servedApp } from '../support/app';
+import { PASSWORD, signUp, uniqueEmail } from '../support/client';
+
+const app = servedApp();
+const WRONG = 'not-the-password-0';
+
+interface Answer {
+	status: number;
+	text: string;
+	headers: Record<string, string | string[] | undefined>;
+}
+
+/** One POST from the loopback address `from`, as a browser (form) or a script (JSON) would send it. */
+function postFrom(from: string, path: string, kind: 'form' | 'json', fields: Record<string, string>, extra: Record<string, string> = {}): Promise<Answer> {
+	const body = kind === 'form' ? new URLSearchParams(fields).toString() : JSON.stringify(fields);
+	const url = new URL(path, app.origin);
+	return new Promise((resolve, reject) => {
+		const req = request(
+			{
+				host: url.hostname,
+				port: url.port,
+				path: url.pathname + url.search,
+				method: 'POST',
+				localAddress: from,
+				headers: {
+					origin: app.origin,
+					accept: kind === 'form' ? 'text/html' : 'application/json',
+					'content-type': kind === 'form' ? 'application/x-www-form-urlencoded' : 'application/json',
+					'content-length': Buffer.byteLength(body),
+					...extra
+				}
+			},
+			(res) => {
+				let text = '';
+				res.setEncoding('utf8');
+				res.on('data', (chunk) => (text += chunk));
+				res.on('end', () => resolve({ status: res.statusCode ?? 0, text, headers: res.headers }));
+			}
+		);
+		req.once('error', reject);
+		req.end(body);
+	});
+}
+
+const form = (from: string, email: string, password: string, extra?: Record<string, string>) => postFrom(from, '/sign-in', 'form', { email, password }, extra);
+const api = (from: string, email: string, password: string, extra?: Record<string, string>) => postFrom(from, '/api/auth/sign-in/email', 'json', { email, password }, extra);
+
+const { maxFailures } = SIGN_IN_LIMITS.perAccount;
+
+describe('sign-in throttle', () => {
+	// [common practice] lock further password tries for an account from one client after a handful of failures.
+	it('the form answers 429 "too many attempts" after the wrong passwords, even for the right one', async () => {
+		const user = await signUp(app.origin, 'throttle-form');
+		for (let i = 0; i < maxFailures; i++) {
+			const wrong = await form('127.0.0.11', user.email, WRONG);
+			expect(wrong.status).toBe(401);
+			expect(wrong.text).toContain('do not match an account');
+		}
+		const blocked = await form('127.0.0.11', user.email, PASSWORD);
+		expect(blocked.status).toBe(429);
+		expect(blocked.text).toContain('Too many sign-in attempts');
+		expect(blocked.headers['set-cookie'] ?? []).not.toEqual(expect.arrayContaining([expect.stringMatching(/session_token=[^;]+/)]));
+	});
+
+	it('another client address is not blocked by those attempts, and a header cannot choose the address', async () => {
+		const user = await signUp(app.origin, 'throttle-spoof');
+		for (let i = 0; i < maxFailures; i++) expect((await form('127.0.0.12', user.email, WRONG)).status).toBe(401);
+		// The blocked client claims another address in every header a proxy might set: still blocked.
+		const spoofed = await form('127.0.0.12', user.email, PASSWORD, { 'x-loopwright-client-ip': '127.0.0.13', 'x-forwarded-for': '127.0.0.13', 'x-real-ip': '127.0.0.13' });
+		expect(spoofed.status).toBe(429);
+		// The account's owner on another machine signs in as usual.
+		const owner = await form('127.0.0.13', user.email, PASSWORD);
+		expect(owner.status).toBe(303);
+		expect(owner.headers.location).toBe('/w');
+	});
+
+	it('the same count holds on /api/auth/sign-in/email, shared with the form', async () => {
+		const user = await signUp(app.origin, 'throttle-api');
+		for (let i = 0; i < maxFailures; i++) {
+			const wrong = i % 2 === 0 ? await api('127.0.0.14', user.email, WRONG) : await form('127.0.0.14', user.email, WRONG);
+			expect(wrong.status).toBe(401);
+		}
+		const blocked = await api('127.0.0.14', user.email, PASSWORD);
+		expect(blocked.status).toBe(429);
+		expect(JSON.parse(blocked.text)).toMatchObject({ code: 'TOO_MANY_ATTEMPTS', message: expect.stringContaining('Too many sign-in attempts') });
+		expect(Number(blocked.headers['retry-after'])).toBeGreaterThan(0);
+		expect((await form('127.0.0.14', user.email, PASSWORD)).status).toBe(429);
+		expect((await api('127.0.0.15', user.email, PASSWORD)).status).toBe(200);
+	});
+
+	it('a right password clears the count, so people who sign in often are never blocked', async () => {
+		const user = await signUp(app.origin, 'throttle-reset');
+		for (let round = 0; round < 3; round++) {
+			for (let i = 0; i < maxFailures - 1; i++) expect((await api('127.0.0.16', user.email, WRONG)).status).toBe(401);
+			expect((await form('127.0.0.16', user.email, PASSWORD)).status).toBe(303);
+		}
+	});
+
+	// [common practice] a wider cap per client address over all accounts, against one client trying many accounts.
+	it('one client address is capped over all accounts', async () => {
+		const user = await signUp(app.origin, 'throttle-address');
+		for (let i = 0; i < SIGN_IN_LIMITS.perAddress.maxFailures; i++) {
+			expect((await api('127.0.0.17', uniqueEmail(`nobody${i}`), WRONG)).status).toBe(401);
+		}
+		expect((await api('127.0.0.17', user.email, PASSWORD)).status).toBe(429);
+		expect((await api('127.0.0.18', user.email, PASSWORD)).status).toBe(200);
+	}, 60_000);
+});
