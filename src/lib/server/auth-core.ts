@@ -13,6 +13,7 @@ import { isProduction } from './env';
 import { sendMail } from './mail/transport';
 import { invitationMail, passwordResetMail } from './mail/messages';
 import * as audit from './services/audit';
+import { CLIENT_IP_HEADER, signInThrottle } from './sign-in-throttle';
 
 const DEV_SECRET = 'loopwright-development-secret-not-for-production-use';
 
@@ -28,6 +29,20 @@ function authSecret(): string {
 	if (secret) return secret;
 	if (isProduction()) throw new Error('BETTER_AUTH_SECRET must be set in production');
 	return DEV_SECRET;
+}
+
+/**
+ * Seconds a signed session may be trusted from its signed cookie copy before the database is asked
+ * again (better-auth's session cookie cache). 0 turns the cache off. Within this time a session
+ * ended elsewhere (sign-out on another device, password reset, expiry, a deleted session row)
+ * still opens the app for a client holding a copy of both cookies; workspace roles are read from
+ * the database on every request regardless. Default 60 s (SESSION_CACHE_SECONDS).
+ */
+export function sessionCacheSeconds(): number {
+	const raw = process.env.SESSION_CACHE_SECONDS;
+	const seconds = raw === undefined || raw === '' ? 60 : Number(raw);
+	if (!Number.isInteger(seconds) || seconds < 0) throw new Error('SESSION_CACHE_SECONDS must be a whole number of seconds (0 turns the cache off)');
+	return seconds;
 }
 
 /** Rejects any role string that is not exactly one of ours (the plugin also accepts `admin`, `member`, lists). */
@@ -49,6 +64,10 @@ export function createAuth(db: Database, extraPlugins: BetterAuthPlugin[] = []) 
 		trustedOrigins: [baseURL],
 		database: drizzleAdapter(db, { provider: 'mysql', schema: authSchema }),
 		telemetry: { enabled: false },
+		session: { cookieCache: { enabled: sessionCacheSeconds() > 0, maxAge: sessionCacheSeconds() } },
+		// The client address for better-auth's rate limiter and session records: only the header our
+		// request hook writes from the socket (or adapter-node's ADDRESS_HEADER), never one a client sent.
+		advanced: { ipAddress: { ipAddressHeaders: [CLIENT_IP_HEADER] } },
 		emailAndPassword: {
 			enabled: true,
 			minPasswordLength: 10,
@@ -93,6 +112,8 @@ export function createAuth(db: Database, extraPlugins: BetterAuthPlugin[] = []) 
 						})
 				}
 			}),
+			// Failed sign-ins per client address and account, also for the sign-in form's in-process call.
+			signInThrottle(),
 			...extraPlugins
 		]
 	});

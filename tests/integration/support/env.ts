@@ -3,4 +3,6 @@
 process.env.DB_NAME = process.env.DB_NAME_TEST || 'loopwright_test';
 process.env.LOOPWRIGHT_ENV = process.env.LOOPWRIGHT_ENV || 'test';
 process.env.BETTER_AUTH_SECRET = process.env.BETTER_AUTH_SECRET || 'integration-test-secret-0123456789abcdef';
+// A short session cookie cache (production default 60 s), so the session tests can wait it out.
+process.env.SESSION_CACHE_SECONDS = '2';
 export {};
