@@ -1,6 +1,8 @@
 // Wraps every /api/v1 handler: turns ApiError (and unexpected failures) into JSON error
-// bodies and marks responses as uncacheable.
-import { isHttpError, json, type RequestEvent } from '@sveltejs/kit';
+// bodies and marks responses as uncacheable. Bodies are serialised once and encoded once:
+// SvelteKit's json() encodes the string a second time only to compute content-length, which
+// costs ~0.5 ms on a 220 kB analysis (scripts/load.ts profiles).
+import { isHttpError, type RequestEvent } from '@sveltejs/kit';
 import { ApiError, databaseUnavailable, errorResponse, isDatabaseUnavailable } from './errors';
 
 export function endpoint<E extends RequestEvent>(handler: (event: E) => Promise<Response | unknown>) {
@@ -8,7 +10,7 @@ export function endpoint<E extends RequestEvent>(handler: (event: E) => Promise<
 		try {
 			const result = await handler(event);
 			if (result instanceof Response) return result;
-			return json(result, { headers: { 'cache-control': 'no-store' } });
+			return jsonBody(result, 200);
 		} catch (error) {
 			if (error instanceof ApiError) return errorResponse(error);
 			if (isHttpError(error)) {
@@ -21,5 +23,14 @@ export function endpoint<E extends RequestEvent>(handler: (event: E) => Promise<
 	};
 }
 
-export const created = (body: unknown) => json(body, { status: 201, headers: { 'cache-control': 'no-store' } });
+/** A JSON answer that must not be cached: one JSON.stringify, one UTF-8 encoding, exact content-length. */
+export function jsonBody(body: unknown, status: number): Response {
+	const bytes = Buffer.from(JSON.stringify(body) ?? 'null', 'utf8');
+	return new Response(bytes, {
+		status,
+		headers: { 'content-type': 'application/json', 'content-length': String(bytes.byteLength), 'cache-control': 'no-store' }
+	});
+}
+
+export const created = (body: unknown) => jsonBody(body, 201);
 export const noContent = () => new Response(null, { status: 204 });
