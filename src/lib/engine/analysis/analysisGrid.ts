@@ -82,6 +82,17 @@ function envelopes(a: Float64Array, ka: number, b: Float64Array, kb: number, sb:
 			env[2 * q + 1] = fMax;
 			continue;
 		}
+		if (span === Infinity) {
+			// Next to an undamped pair a slope bound is infinite; the general formula below would
+			// give ∞/∞ = NaN and fall back to the end values, claiming a bound that does not hold.
+			// With one side infinite, only the other line bounds f: f ≥ fa + sLo·t when sHi = ∞
+			// (lowest at t = Δ), f ≤ fb − sLo·(Δ − t) (highest at t = 0); mirrored for sLo = −∞.
+			const lo = sLo === -Infinity ? (sHi === Infinity ? -Infinity : fb - sHi * delta) : fa + sLo * delta;
+			const hi = sHi === Infinity ? (sLo === -Infinity ? Infinity : fb - sLo * delta) : fa + sHi * delta;
+			env[2 * q] = lo < fMin ? lo : fMin;
+			env[2 * q + 1] = hi > fMax ? hi : fMax;
+			continue;
+		}
 		let t = (fa - fb + sHi * delta) / span;
 		t = t < 0 ? 0 : t > delta ? delta : t;
 		const lo = fa + sLo * t;
@@ -218,6 +229,13 @@ function startingPoints(c: CompiledTf, omegaStart: number, omegaStop: number): F
 			if (w1 !== w0 && w1 > omegaStart && w1 < omegaStop) pts[k++] = w1;
 			if (w2 !== w0 && w2 > omegaStart && w2 < omegaStop) pts[k++] = w2;
 		}
+	}
+	// No sample exactly on an undamped pair's ω0 (another pair may share it): |T| is 0 or ∞
+	// there and the slopes are not defined; its neighbours at ω0(1 ± 1e-9) stand in for it.
+	if (hasUndampedPair(c)) {
+		let kept = 0;
+		for (let i = 0; i < k; i++) if (!containsUndampedPair(c, pts[i], pts[i], true)) pts[kept++] = pts[i];
+		k = kept;
 	}
 	// Insertion sort: a few dozen values, and no temporary array (TypedArray#sort allocates one).
 	for (let i = 1; i < k; i++) {

@@ -10,6 +10,7 @@ import { brentMin, brentRoot, newtonBracketed } from '../math/scalarRoot';
 import { compileTf, lnMagPhaseAt, lnMagPhaseSlopeAt, type CompiledTf } from '../tf/evaluate';
 import type { FactoredTf } from '../tf/types';
 import { bracketingGrid, distanceToMinusOne, type GridOptions } from './analysisGrid';
+import { containsUndampedPair, hasUndampedPair } from './slopeBounds';
 import { closedLoopStability, type ClosedLoopResult } from './closedLoop';
 
 const RAD2DEG = 180 / Math.PI;
@@ -163,6 +164,7 @@ export function loopMetrics(
 
 	// Phase crossovers: the unwrapped phase crossing any −π + 2πk line.
 	const phaseCrossovers: PhaseCrossover[] = [];
+	const undamped = hasUndampedPair(c);
 	const first = g.phase[0];
 	if (Number.isInteger((first + Math.PI) / TWO_PI)) {
 		phaseCrossovers.push(phaseCrossoverAt(c, g.omega[0], first, g.phase[1] < first ? 'falling' : 'rising'));
@@ -171,6 +173,11 @@ export function loopMetrics(
 		const pa = g.phase[i - 1];
 		const pb = g.phase[i];
 		if (pa === pb) continue;
+		// Across an undamped pair's ω0 the phase jumps by ±180° while |T| passes through 0 (zero
+		// pair) or ∞ (pole pair): the Nyquist curve goes through the origin or out to infinity,
+		// never near −1, so a line the jump steps over is no phase crossover. The grid samples
+		// ω0(1 ± 1e-9), so nothing else fits in that interval.
+		if (undamped && containsUndampedPair(c, g.omega[i - 1], g.omega[i], true)) continue;
 		const lo = Math.min(pa, pb);
 		const hi = Math.max(pa, pb);
 		// lines L_k = −π + 2πk with lo < L ≤ hi (falling) or lo ≤ L < hi (rising): each once
