@@ -23,7 +23,8 @@
  *   `closedLoopStability(loop, {padeOrder?, accurateToHz?})` (roots of den + num).
  * - Contract (contract/): `designDocumentSchema`, `analysisResponseSchema`, `contractError`, `zodFields`.
  * - Pipeline: `analyzeDesign(doc: unknown, {includeResponse?}) → AnalysisResponse | ContractError`,
- *   `analyzeDesignDetailed` (also returns the plant model, loop and metrics).
+ *   `analyzeDesignDetailed` (also returns the plant model, loop and metrics),
+ *   `analyzeValidatedDesign(document)` (the same for a document designDocumentSchema already parsed).
  */
 export * from './math';
 export * from './tf';
