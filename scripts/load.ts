@@ -2,8 +2,17 @@
 // build), on 127.0.0.1 only, every run bounded in request count and time. Not part of npm test.
 //  1. load: autocannon on POST /api/v1/analyze (1 and 50 clients) and on the rail page's API
 //     (rail, latest revisions, one revision); throughput, p50, p99, and the ratio of the API's
-//     time per analysis to the engine's own time for the same document (target < 1.5 at 50 clients)
-//  2. production checks: sign-in rate limit, a 2 MB bench upload, npm audit of production deps
+//     time per analysis to the engine's own time for the same document (target < 1.5 at 50 clients).
+//     Method of the ratio: the API's time is 1 / throughput of the one Node process at 50 clients
+//     (a mean over every request, GC included). The engine's time is the mean over 300 calls of
+//     analyzeDesign from the same built chunk the server runs, same document and response, JIT
+//     warmed, in a fresh Node process (scripts/load-engine.mjs) just before and just after the
+//     50-client run; the reference is the mean of the two. JSON.stringify of the response counts as
+//     the API's work (it is reported beside the ratio). The clients keep their session cookies fresh
+//     as a browser does (the session cookie cache), and the CPU used by the server and by autocannon
+//     in the same run is recorded, so a starved server would show (CPU per answer < wall per answer).
+//  2. production checks: sign-in rate limits (better-auth's per address on /api/auth, our
+//     per address + account throttle on the form), a 2 MB bench upload, npm audit of production deps
 //  3. faults: a private MariaDB (own port and data folder) stopped and restarted under a write
 //     load: how requests fail while it is down, recovery without an app restart, and every
 //     acknowledged write counted in the database afterwards
@@ -13,9 +22,9 @@ import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
 import { randomBytes } from 'node:crypto';
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { createServer } from 'node:net';
+import { readFileSync } from 'node:fs';
 import { loadavg } from 'node:os';
 import mysql from 'mysql2/promise';
-import { analyzeDesign } from '../src/lib/engine/analyze';
 import { buckDesign } from '../tests/integration/support/designs';
 
 const args = new Set(process.argv.slice(2));
@@ -27,6 +36,8 @@ const WRONG = PASSWORD + '-not';
 const TEST_DB = process.env.DB_NAME_TEST || 'loopwright_test';
 const FAULT_DB_PORT = Number(process.env.FAULT_DB_PORT || 3317);
 const records: Record<string, unknown> = { date: new Date().toISOString(), node: process.version };
+/** What the server uses for its session cookie cache (auth-core.ts: SESSION_CACHE_SECONDS, default 60). */
+const SESSION_CACHE_SECONDS = process.env.SESSION_CACHE_SECONDS ? Number(process.env.SESSION_CACHE_SECONDS) : 60;
 /** A private copy of the build, so another build in the same checkout cannot swap chunks under the server. */
 const BUILD_DIR = '.tmp/load-build';
 
@@ -64,7 +75,7 @@ async function startServer(env: Record<string, string>): Promise<Server> {
 	const port = await freePort();
 	const origin = `http://127.0.0.1:${port}`;
 	const child = spawn(process.execPath, [BUILD_DIR], {
-		env: { ...process.env, NODE_ENV: 'production', LOOPWRIGHT_ENV: 'production', HOST: '127.0.0.1', PORT: String(port), ORIGIN: origin, BETTER_AUTH_URL: origin, BETTER_AUTH_SECRET: SECRET, ...env },
+		env: { ...process.env, NODE_ENV: 'production', LOOPWRIGHT_ENV: 'production', HOST: '127.0.0.1', PORT: String(port), ORIGIN: origin, BETTER_AUTH_URL: origin, BETTER_AUTH_SECRET: SECRET, BODY_SIZE_LIMIT: '7M', ...env },
 		stdio: ['ignore', 'ignore', 'pipe']
 	});
 	child.stderr!.on('data', (d: Buffer) => {
@@ -92,12 +103,30 @@ async function startServer(env: Record<string, string>): Promise<Server> {
 	};
 }
 
+/** Cookie header from a jar of `name=value` pairs, updated from Set-Cookie answers as a browser would. */
+class CookieJar {
+	private readonly jar = new Map<string, string>();
+	update(response: Response) {
+		for (const header of response.headers.getSetCookie()) {
+			const [pair] = header.split(';');
+			const eq = pair.indexOf('=');
+			if (pair.slice(eq + 1) === '' || /max-age=0/i.test(header)) this.jar.delete(pair.slice(0, eq));
+			else this.jar.set(pair.slice(0, eq), pair.slice(eq + 1));
+		}
+	}
+	get header() {
+		return [...this.jar].map(([k, v]) => `${k}=${v}`).join('; ');
+	}
+}
+
 /** A signed-up user (better-auth's /api/auth) with a workspace, a board, a rail and a saved loop. */
 async function signedInTeam(origin: string, label: string) {
 	const email = `${label}-${Date.now()}@example.test`;
 	const up = await fetch(`${origin}/api/auth/sign-up/email`, { method: 'POST', headers: { origin, 'content-type': 'application/json' }, body: JSON.stringify({ email, password: PASSWORD, name: `Load ${label}` }) });
 	if (up.status !== 200) throw new Error(`sign-up failed: ${up.status} ${await up.text()}`);
-	const cookie = up.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
+	const jar = new CookieJar();
+	jar.update(up);
+	const cookie = jar.header;
 	const call = async (method: string, path: string, body?: unknown) => {
 		const r = await fetch(origin + path, { method, headers: { origin, cookie, 'content-type': 'application/json' }, body: body === undefined ? undefined : JSON.stringify(body) });
 		const json = await r.json().catch(() => null);
@@ -108,7 +137,29 @@ async function signedInTeam(origin: string, label: string) {
 	const projectId = (await call('POST', `/api/v1/projects?workspace=${workspaceId}`, { name: 'Load board' })).id as string;
 	const railId = (await call('POST', `/api/v1/projects/${projectId}/rails`, { name: '5V0_LOAD', topology: 'buck', vout: 5, vinNom: 12, vinMin: 9, vinMax: 16, ioutNom: 2, ioutMin: 0.2, ioutMax: 3, fsw: 500_000 })).id as string;
 	const loopId = (await call('POST', `/api/v1/rails/${railId}/loops`, { baseRevision: null, design: DESIGN, message: 'load' })).id as string;
-	return { origin, cookie, email, workspaceId, projectId, railId, loopId };
+	return { origin, cookie, jar, email, workspaceId, projectId, railId, loopId };
+}
+
+/**
+ * Keeps the jar's session cookies fresh during a run: the server trusts its signed session cookie
+ * for SESSION_CACHE_SECONDS and then asks the database and sends a new one; a browser stores it,
+ * autocannon does not. A GET /api/v1/me every 2 s (not counted in any figure) picks it up.
+ */
+function keepFresh(origin: string, jar: CookieJar) {
+	const timer = setInterval(() => {
+		fetch(`${origin}/api/v1/me`, { headers: { origin, cookie: jar.header } })
+			.then(async (r) => (jar.update(r), await r.arrayBuffer()))
+			.catch(() => undefined);
+	}, 2000);
+	return () => clearInterval(timer);
+}
+
+/** CPU seconds (user + system) the process `pid` has used, from /proc (Linux). */
+function processCpuS(pid: number): number {
+	const stat = readFileSync(`/proc/${pid}/stat`, 'utf8');
+	const fields = stat.slice(stat.lastIndexOf(')') + 2).split(' ');
+	const ticks = Number(spawnSync('getconf', ['CLK_TCK'], { encoding: 'utf8' }).stdout.trim()) || 100;
+	return (Number(fields[11]) + Number(fields[12])) / ticks;
 }
 
 function summary(r: autocannon.Result) {
@@ -128,51 +179,80 @@ async function cannon(opts: autocannon.Options) {
 	return summary(await autocannon({ timeout: 10, ...opts }));
 }
 
-/** Median time of the engine alone on the document, full response included (as the API returns it). */
-function engineMs(rounds = 400): number {
-	for (let i = 0; i < 50; i++) analyzeDesign(DESIGN);
-	const times: number[] = [];
-	for (let i = 0; i < rounds; i++) {
-		const t = process.hrtime.bigint();
-		analyzeDesign(DESIGN);
-		times.push(Number(process.hrtime.bigint() - t) / 1e6);
-	}
-	times.sort((a, b) => a - b);
-	return times[Math.floor(times.length / 2)];
+interface EngineTime {
+	meanMs: number;
+	medianMs: number;
+	stringifyMs: number;
+	responseBytes: number;
+}
+
+/** The engine alone on the load's document: the built chunk the server runs, in a fresh process. */
+function engineReference(): EngineTime {
+	const r = spawnSync(process.execPath, ['scripts/load-engine.mjs', BUILD_DIR, '300'], { input: JSON.stringify(DESIGN), encoding: 'utf8', timeout: 120_000 });
+	if (r.status !== 0) throw new Error(`engine reference failed: ${r.stderr}`);
+	return JSON.parse(r.stdout.trim().split('\n').pop()!);
+}
+
+/** Throughput run with the jar's current cookie on every request; CPU of server and of this process around it. */
+async function measuredRun(server: Server, jar: CookieJar, opts: autocannon.Options) {
+	const stop = keepFresh(server.origin, jar);
+	const setupRequest = (req: autocannon.Request) => ({ ...req, headers: { ...req.headers, cookie: jar.header } });
+	const single: autocannon.Request = opts.body === undefined ? { method: opts.method ?? 'GET' } : { method: opts.method ?? 'POST', body: opts.body };
+	const requests = (opts.requests ?? [single]).map((r) => ({ ...r, setupRequest }));
+	const serverCpu0 = processCpuS(server.child.pid!);
+	const ownCpu0 = process.cpuUsage();
+	const result = await cannon({ ...opts, requests });
+	const ownCpu = process.cpuUsage(ownCpu0);
+	const serverCpuS = processCpuS(server.child.pid!) - serverCpu0;
+	stop();
+	return {
+		...result,
+		serverCpuMsPerRequest: round((serverCpuS * 1000) / result.requests, 3),
+		loadGeneratorCpuMsPerRequest: round((ownCpu.user + ownCpu.system) / 1000 / result.requests, 3)
+	};
 }
 
 async function loadRuns(server: Server) {
 	const team = await signedInTeam(server.origin, 'perf');
-	const headers = { origin: server.origin, cookie: team.cookie, 'content-type': 'application/json' };
+	const headers = { origin: server.origin, 'content-type': 'application/json' };
 	const body = JSON.stringify(DESIGN);
 	const analyze = { url: `${server.origin}/api/v1/analyze`, method: 'POST' as const, headers, body };
+	const run = (opts: autocannon.Options) => measuredRun(server, team.jar, opts);
 	log('warming up');
-	await cannon({ ...analyze, connections: 4, amount: 300, duration: 20 });
-	// The engine's own time, measured in this process just before and just after the 50-client run
-	// (the machine may be shared; the two measurements bracket the conditions of the run).
-	const engineBefore = engineMs();
-	log(`engine alone: ${engineBefore.toFixed(3)} ms per analysis`);
-	const one = await cannon({ ...analyze, connections: 1, amount: 400, duration: 30 });
+	await run({ ...analyze, connections: 4, amount: 300, duration: 20 });
+	const engineFirst = engineReference();
+	log(`engine alone: ${engineFirst.meanMs.toFixed(3)} ms per analysis (mean), ${engineFirst.medianMs.toFixed(3)} ms (median)`);
+	const one = await run({ ...analyze, connections: 1, amount: 400, duration: 30 });
 	log('analyze, 1 client', one);
 	// What every signed-in request pays before any work: the session lookup (GET /api/v1/me).
-	const session = await cannon({ url: `${server.origin}/api/v1/me`, headers, connections: 1, amount: 400, duration: 30 });
+	const session = await run({ url: `${server.origin}/api/v1/me`, headers, connections: 1, amount: 400, duration: 30 });
 	log('session only (GET /api/v1/me), 1 client', session);
-	const session50 = await cannon({ url: `${server.origin}/api/v1/me`, headers, connections: 50, amount: 3000, duration: 60 });
-	const fifty = await cannon({ ...analyze, connections: 50, amount: 3000, duration: 60 });
+	const session50 = await run({ url: `${server.origin}/api/v1/me`, headers, connections: 50, amount: 3000, duration: 60 });
+	log('session only (GET /api/v1/me), 50 clients', session50);
+	// The engine's own time just before and just after the 50-client run (the machine may be shared;
+	// the two measurements bracket the conditions of the run).
+	const engineBefore = engineReference();
+	const fifty = await run({ ...analyze, connections: 50, amount: 3000, duration: 60 });
 	log('analyze, 50 clients', fifty);
-	const engineAfter = engineMs();
-	const engine = (engineBefore + engineAfter) / 2;
+	const engineAfter = engineReference();
+	const engine = (engineBefore.meanMs + engineAfter.meanMs) / 2;
 	// One Node process answers on one JavaScript thread, so its time per answer is 1/throughput.
 	const serverMsPerAnalysis = 1000 / fifty.throughputRps;
 	records.analyze = {
+		method: 'server: 1 / throughput at 50 clients (mean, GC included); engine: mean of 300 analyzeDesign calls from the built chunk in a fresh process, JIT warmed, just before and after the run',
 		engineMs: round(engine, 3),
-		engineMsBeforeAfter: [round(engineBefore, 3), round(engineAfter, 3)],
-		responseBytes: JSON.stringify(analyzeDesign(DESIGN)).length,
+		engineMeanMsBeforeAfter: [round(engineBefore.meanMs, 3), round(engineAfter.meanMs, 3)],
+		engineMedianMsBeforeAfter: [round(engineBefore.medianMs, 3), round(engineAfter.medianMs, 3)],
+		engineMsAtStart: round(engineFirst.meanMs, 3),
+		stringifyMs: round((engineBefore.stringifyMs + engineAfter.stringifyMs) / 2, 3),
+		responseBytes: engineAfter.responseBytes,
+		sessionCacheSeconds: SESSION_CACHE_SECONDS,
 		loadAverage: loadavg().map((x) => round(x, 1)),
 		oneClient: one,
 		fiftyClients: fifty,
 		serverMsPerAnalysisAt50: round(serverMsPerAnalysis, 3),
 		overheadRatioAt50: round(serverMsPerAnalysis / engine, 2),
+		overheadRatioAt50WithoutStringify: round((serverMsPerAnalysis - (engineBefore.stringifyMs + engineAfter.stringifyMs) / 2) / engine, 2),
 		latencyRatioOneClient: round(one.p50Ms / engine, 2),
 		sessionOnlyOneClient: session,
 		sessionOnlyFiftyClients: session50,
@@ -183,38 +263,44 @@ async function loadRuns(server: Server) {
 		{ method: 'GET' as const, path: `/api/v1/rails/${team.railId}/loops?limit=1` },
 		{ method: 'GET' as const, path: `/api/v1/loops/${team.loopId}` }
 	];
-	const railPage = await cannon({ url: server.origin, headers, requests: rail, connections: 50, amount: 3000, duration: 60 });
+	const railPage = await run({ url: server.origin, headers, requests: rail, connections: 50, amount: 3000, duration: 60 });
 	log('rail page API, 50 clients', railPage);
 	records.railPageApi = { requests: rail.map((r) => r.path.replace(/[0-9a-f-]{36}/g, '{id}')), fiftyClients: railPage };
 	return team;
 }
 
-async function productionChecks(server: Server, team: { cookie: string; railId: string; email: string }) {
-	// Sign-in: better-auth limits /sign-in to 3 per 10 s per client in production.
+async function productionChecks(server: Server, team: { jar: CookieJar; railId: string; email: string }) {
+	// Sign-in: better-auth limits /sign-in to 3 per 10 s per client address in production.
 	const statuses: number[] = [];
 	for (let i = 0; i < 5; i++) {
 		const r = await fetch(`${server.origin}/api/auth/sign-in/email`, { method: 'POST', headers: { origin: server.origin, 'content-type': 'application/json' }, body: JSON.stringify({ email: team.email, password: WRONG }) });
 		statuses.push(r.status);
 	}
-	// The sign-in form calls better-auth in-process (auth.api), which the limiter does not see.
+	// The sign-in form calls better-auth in-process (auth.api), which that limiter does not see; our
+	// throttle (sign-in-throttle.ts) answers 429 after 5 wrong passwords per client address + account.
 	const form: number[] = [];
-	for (let i = 0; i < 5; i++) {
-		const r = await fetch(`${server.origin}/sign-in`, { method: 'POST', redirect: 'manual', headers: { origin: server.origin, 'content-type': 'application/x-www-form-urlencoded' }, body: new URLSearchParams({ email: team.email, password: WRONG }).toString() });
+	const stranger = `nobody-${Date.now()}@example.test`;
+	for (let i = 0; i < 6; i++) {
+		const r = await fetch(`${server.origin}/sign-in`, { method: 'POST', redirect: 'manual', headers: { origin: server.origin, accept: 'text/html', 'content-type': 'application/x-www-form-urlencoded' }, body: new URLSearchParams({ email: stranger, password: WRONG }).toString() });
 		form.push(r.status);
+		await r.arrayBuffer();
 	}
 	// A 2 MB analyzer file (19 000 rows with a notes column), inside the documented 5 MB bench limit.
 	const pad = 'x'.repeat(60);
 	const csv = ['Frequency (Hz),Gain (dB),Phase (deg),Notes', ...Array.from({ length: 19_000 }, (_, i) => `${(10 * 1.0005 ** i).toPrecision(12)},${(40 - i * 1e-3).toFixed(6)},${(-90 - i * 1e-3).toFixed(6)},${pad}`)].join('\n');
 	const fd = new FormData();
 	fd.set('file', new Blob([csv], { type: 'text/csv' }), 'two-mb.csv');
-	const upload = await fetch(`${server.origin}/api/v1/rails/${team.railId}/bench`, { method: 'POST', headers: { origin: server.origin, cookie: team.cookie }, body: fd });
+	const upload = await fetch(`${server.origin}/api/v1/rails/${team.railId}/bench`, { method: 'POST', headers: { origin: server.origin, cookie: team.jar.header }, body: fd });
+	const benchStatus = upload.status;
+	const benchAnswer = benchStatus >= 300 ? (await upload.text()).slice(0, 300) : undefined;
 	records.production = {
 		signInApiStatuses: statuses,
 		signInFormStatuses: form,
-		benchUpload2MbStatus: upload.status,
+		benchUpload2MbStatus: benchStatus,
+		...(benchAnswer ? { benchUpload2MbAnswer: benchAnswer } : {}),
 		benchUpload2MbBytes: csv.length
 	};
-	await upload.text();
+	if (!benchAnswer) await upload.text();
 	const audit = spawnSync('npm', ['audit', '--omit=dev', '--json'], { encoding: 'utf8', timeout: 60_000 });
 	try {
 		const report = JSON.parse(audit.stdout);

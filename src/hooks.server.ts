@@ -26,7 +26,8 @@ const clientAddress: Handle = async ({ event, resolve }) => {
 	try {
 		address = event.getClientAddress();
 	} catch {
-		// Prerendering and some adapters have no client address: the header is then removed.
+		// No address (prerendering, or adapter-node's ADDRESS_HEADER missing from the request): the
+		// header is removed and such requests share one count, the strict side.
 	}
 	if (address) event.request.headers.set(CLIENT_IP_HEADER, address);
 	else event.request.headers.delete(CLIENT_IP_HEADER);
