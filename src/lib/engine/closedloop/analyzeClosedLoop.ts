@@ -14,6 +14,7 @@ import { loadStepRuleOfThumb, type RuleOfThumb } from '../timeresponse/ruleOfThu
 import type { StepFigures } from '../timeresponse/metrics';
 import { closedLoopDenominator, closedLoopTf, isStable } from './closedLoopTf';
 import { closedLoopResponses, type ClosedLoopResponses } from './responses';
+import { roundSignificant } from '../math/displayRounding';
 
 export interface ClosedLoopInput {
 	plant: PlantModel;
@@ -113,8 +114,11 @@ export function analyzeClosedLoop(input: ClosedLoopInput): ClosedLoopSection {
 	return { responses, polesHz, stable, padeOrder: cl.padeOrder, loadStep, referenceStep, warnings };
 }
 
+/** The figures come from the full waveform; the decimated one for display carries 7 significant digits. */
 function report(r: StepResult): TransientReport {
-	return { figures: r.figures, waveform: decimate(r.waveform), durationS: r.durationS };
+	const w = decimate(r.waveform);
+	const digits7 = (x: number) => roundSignificant(x, 7);
+	return { figures: r.figures, waveform: { timeS: w.timeS.map(digits7), value: w.value.map(digits7) }, durationS: r.durationS };
 }
 
 function guarded(fn: () => StepResult, warnings: EngineWarning[], what: string): StepResult | null {

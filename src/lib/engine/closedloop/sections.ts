@@ -16,6 +16,7 @@ import { analyzeInputFilter, type InputFilterReport } from '../inputfilter/analy
 import { runSpread, type PartTolerance, type SpreadResult } from '../spread/spread';
 import { analyzeClosedLoop, type ClosedLoopSection } from './analyzeClosedLoop';
 import type { Bode } from './responses';
+import { roundDecimals } from '../math/displayRounding';
 
 /** Largest Monte Carlo run done inline with an analysis. */
 export const INLINE_SPREAD_MAX = 2000;
@@ -40,8 +41,10 @@ export interface RobustnessOptions {
 
 const clampDb = (x: number) => (Number.isNaN(x) ? -1000 : Math.max(-1000, Math.min(1000, x)));
 const finiteOr0 = (x: number) => (Number.isFinite(x) ? x : 0);
-const cleanDb = (a: readonly number[]) => a.map(clampDb);
-const cleanBode = (b: Bode): Bode => ({ magDb: cleanDb(b.magDb), phaseDeg: b.phaseDeg.map(finiteOr0) });
+// Display traces: finite, and to 1e-4 dB and 1e-4° (displayRounding.ts says why).
+const cleanDb = (a: readonly number[]) => a.map((x) => roundDecimals(clampDb(x), 4));
+const cleanDeg = (a: readonly number[]) => a.map((x) => roundDecimals(finiteOr0(x), 4));
+const cleanBode = (b: Bode): Bode => ({ magDb: cleanDb(b.magDb), phaseDeg: cleanDeg(b.phaseDeg) });
 
 /** The grid the sections use: the response's sweep, or the document's sweep, or the default one. */
 function sectionGrid(detail: AnalysisDetail): number[] {
@@ -124,7 +127,7 @@ export function robustnessSections(detail: AnalysisDetail, options: RobustnessOp
 			runCorners(spec, { vin: cs.vin, iout: cs.iout, tolerances: tol, maxCorners: cs.maxCorners }, grid)
 		);
 		if (report) {
-			out.corners = { ...report, traces: report.traces.map((t) => ({ ...t, magDb: cleanDb(t.magDb), phaseDeg: t.phaseDeg.map(finiteOr0) })) };
+			out.corners = { ...report, traces: report.traces.map((t) => ({ ...t, magDb: cleanDb(t.magDb), phaseDeg: cleanDeg(t.phaseDeg) })) };
 			if (report.unstableCorners > 0) {
 				warnings.push({ code: 'corner-unstable', message: `${report.unstableCorners} of ${report.corners.length} corners give an unstable closed loop.` });
 			}

@@ -3,3 +3,4 @@ export * from './complex';
 export * from './polynomial';
 export * from './roots';
 export * from './scalarRoot';
+export * from './displayRounding';
