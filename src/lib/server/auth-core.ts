@@ -14,6 +14,7 @@ import { sendMail } from './mail/transport';
 import { invitationMail, passwordResetMail } from './mail/messages';
 import * as audit from './services/audit';
 import { CLIENT_IP_HEADER, signInThrottle } from './sign-in-throttle';
+import { accountRequestThrottle } from './account-request-throttle';
 
 const DEV_SECRET = 'loopwright-development-secret-not-for-production-use';
 
@@ -114,6 +115,8 @@ export function createAuth(db: Database, extraPlugins: BetterAuthPlugin[] = []) 
 			}),
 			// Failed sign-ins per client address and account, also for the sign-in form's in-process call.
 			signInThrottle(),
+			// Sign-ups and reset-link requests per client address, also for the forms' in-process calls.
+			accountRequestThrottle(),
 			...extraPlugins
 		]
 	});

@@ -5,52 +5,16 @@
 // address is capped over all accounts. Requests leave from chosen loopback source addresses
 // (Linux routes all of 127.0.0.0/8 to the loopback device), so the app sees distinct clients.
 import '../support/env';
-import { request } from 'node:http';
 import { describe, expect, it } from 'vitest';
 import { SIGN_IN_LIMITS } from '../../../src/lib/server/sign-in-throttle';
 import { servedApp } from '../support/app';
+import { postFromAddress } from './support/loopback';
 import { PASSWORD, signUp, uniqueEmail } from '../support/client';
 
 const app = servedApp();
+const postFrom = (from: string, path: string, kind: 'form' | 'json', fields: Record<string, string>, extra: Record<string, string> = {}) =>
+	postFromAddress(app.origin, from, path, kind, fields, extra);
 const WRONG = 'not-the-password-0';
-
-interface Answer {
-	status: number;
-	text: string;
-	headers: Record<string, string | string[] | undefined>;
-}
-
-/** One POST from the loopback address `from`, as a browser (form) or a script (JSON) would send it. */
-function postFrom(from: string, path: string, kind: 'form' | 'json', fields: Record<string, string>, extra: Record<string, string> = {}): Promise<Answer> {
-	const body = kind === 'form' ? new URLSearchParams(fields).toString() : JSON.stringify(fields);
-	const url = new URL(path, app.origin);
-	return new Promise((resolve, reject) => {
-		const req = request(
-			{
-				host: url.hostname,
-				port: url.port,
-				path: url.pathname + url.search,
-				method: 'POST',
-				localAddress: from,
-				headers: {
-					origin: app.origin,
-					accept: kind === 'form' ? 'text/html' : 'application/json',
-					'content-type': kind === 'form' ? 'application/x-www-form-urlencoded' : 'application/json',
-					'content-length': Buffer.byteLength(body),
-					...extra
-				}
-			},
-			(res) => {
-				let text = '';
-				res.setEncoding('utf8');
-				res.on('data', (chunk) => (text += chunk));
-				res.on('end', () => resolve({ status: res.statusCode ?? 0, text, headers: res.headers }));
-			}
-		);
-		req.once('error', reject);
-		req.end(body);
-	});
-}
 
 const form = (from: string, email: string, password: string, extra?: Record<string, string>) => postFrom(from, '/sign-in', 'form', { email, password }, extra);
 const api = (from: string, email: string, password: string, extra?: Record<string, string>) => postFrom(from, '/api/auth/sign-in/email', 'json', { email, password }, extra);
