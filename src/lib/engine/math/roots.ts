@@ -57,7 +57,7 @@ export function polyRoots(p: Poly, options: RootsOptions = {}): RootsResult {
 
 	const maxIterations = options.maxIterations ?? 500;
 	const accept = options.acceptBackwardError ?? 1e-11;
-	const settled = scratch(3, b.length - 1);
+	const settled = scratch(2, b.length - 1);
 	let xs = aberth(b, maxIterations, settled);
 	let err = polishAll(b, xs, settled);
 	let method: RootsResult['method'] = 'aberth';
@@ -112,26 +112,39 @@ function initialGuesses(b: number[]): Complex[] {
 	return out;
 }
 
-/** p(x) and p'(x) for real coefficients at complex x. */
-function evalWithDerivative(b: number[], xr: number, xi: number): [number, number, number, number] {
+/** [Re p, Im p, Re p', Im p', Σ|b_k||x|^k] at the last evaluateAt call (see there). */
+const at = new Float64Array(5);
+
+/**
+ * p(x), p'(x) and the rounding scale Σ|b_k||x|^k for real coefficients b at complex x, in one
+ * Horner pass, written to `at` (no tuple to allocate on the roots' hot path).
+ */
+function evaluateAt(b: ArrayLike<number>, xr: number, xi: number): void {
 	let pr = 0;
 	let pi = 0;
 	let dr = 0;
 	let di = 0;
-	for (let i = b.length - 1; i >= 0; i--) {
+	let scale = 0;
+	const ax = Math.sqrt(xr * xr + xi * xi);
+	for (let k = b.length - 1; k >= 0; k--) {
 		const ndr = dr * xr - di * xi + pr;
 		di = dr * xi + di * xr + pi;
 		dr = ndr;
-		const npr = pr * xr - pi * xi + b[i];
+		const npr = pr * xr - pi * xi + b[k];
 		pi = pr * xi + pi * xr;
 		pr = npr;
+		scale = scale * ax + Math.abs(b[k]);
 	}
-	return [pr, pi, dr, di];
+	at[0] = pr;
+	at[1] = pi;
+	at[2] = dr;
+	at[3] = di;
+	at[4] = scale;
 }
 
 // Work arrays reused across calls (polyRoots is synchronous and calls nothing that re-enters
 // it); typed arrays beyond a few elements are costly to allocate each time.
-const work: Float64Array[] = [new Float64Array(16), new Float64Array(16), new Float64Array(17), new Float64Array(16), new Float64Array(16)];
+const work: Float64Array[] = [new Float64Array(16), new Float64Array(16), new Float64Array(16), new Float64Array(16)];
 
 /** Work array `slot` with at least `size` entries (the first `size` are the caller's; no view is made). */
 function scratch(slot: number, size: number): Float64Array {
@@ -154,10 +167,7 @@ function aberth(b: number[], maxIterations: number, settled: Float64Array): Comp
 		zr[i] = z0[i].re;
 		zi[i] = z0[i].im;
 	}
-	const n = b.length - 1;
-	const absB = scratch(2, n + 1);
-	for (let k = 0; k <= n; k++) absB[k] = Math.abs(b[k]);
-	const done = scratch(4, m); // 0 or 1
+	const done = scratch(3, m); // 0 or 1
 	done.fill(0, 0, m);
 	settled.fill(NaN, 0, m);
 	let left = m;
@@ -166,22 +176,13 @@ function aberth(b: number[], maxIterations: number, settled: Float64Array): Comp
 			if (done[i]) continue;
 			const xr = zr[i];
 			const xi = zi[i];
-			// Horner for p, p' and the rounding bound Σ|b_k||x|^k, one pass.
-			let pr = 0;
-			let pi = 0;
-			let dr = 0;
-			let di = 0;
-			let bound = 0;
+			evaluateAt(b, xr, xi);
+			const pr = at[0];
+			const pi = at[1];
+			const dr = at[2];
+			const di = at[3];
+			const bound = at[4];
 			const ax = Math.sqrt(xr * xr + xi * xi);
-			for (let k = n; k >= 0; k--) {
-				const ndr = dr * xr - di * xi + pr;
-				di = dr * xi + di * xr + pi;
-				dr = ndr;
-				const npr = pr * xr - pi * xi + b[k];
-				pi = pr * xi + pi * xr;
-				pr = npr;
-				bound = bound * ax + absB[k];
-			}
 			const pAbs = Math.sqrt(pr * pr + pi * pi);
 			if (pAbs <= 4 * Number.EPSILON * bound) {
 				// At the rounding level of p: Newton cannot improve it; its backward error is known.
@@ -239,7 +240,6 @@ function aberth(b: number[], maxIterations: number, settled: Float64Array): Comp
  * level) are left as they are.
  */
 function polishAll(b: number[], xs: Complex[], settled: Float64Array | null): number {
-	const n = b.length - 1;
 	let worst = 0;
 	for (let idx = 0; idx < xs.length; idx++) {
 		const x = xs[idx];
@@ -249,52 +249,28 @@ function polishAll(b: number[], xs: Complex[], settled: Float64Array | null): nu
 		}
 		let xr = x.re;
 		let xi = x.im;
-		// p and p' at the current point, by Horner
-		let pr = 0;
-		let pi = 0;
-		let dr = 0;
-		let di = 0;
-		for (let i = n; i >= 0; i--) {
-			const ndr = dr * xr - di * xi + pr;
-			di = dr * xi + di * xr + pi;
-			dr = ndr;
-			const npr = pr * xr - pi * xi + b[i];
-			pi = pr * xi + pi * xr;
-			pr = npr;
-		}
-		let best = Math.sqrt(pr * pr + pi * pi);
+		evaluateAt(b, xr, xi);
+		let dr = at[2];
+		let di = at[3];
+		let scale = at[4];
+		let best = Math.sqrt(at[0] * at[0] + at[1] * at[1]);
 		for (let step = 0; step < 6 && best > 0; step++) {
 			const dd = dr * dr + di * di;
 			if (dd === 0) break;
-			const yr = xr - (pr * dr + pi * di) / dd;
-			const yi = xi - (pi * dr - pr * di) / dd;
-			let qr = 0;
-			let qi = 0;
-			let er = 0;
-			let ei = 0;
-			for (let i = n; i >= 0; i--) {
-				const ner = er * yr - ei * yi + qr;
-				ei = er * yi + ei * yr + qi;
-				er = ner;
-				const nqr = qr * yr - qi * yi + b[i];
-				qi = qr * yi + qi * yr;
-				qr = nqr;
-			}
-			const val = Math.sqrt(qr * qr + qi * qi);
+			const yr = xr - (at[0] * dr + at[1] * di) / dd;
+			const yi = xi - (at[1] * dr - at[0] * di) / dd;
+			evaluateAt(b, yr, yi);
+			const val = Math.sqrt(at[0] * at[0] + at[1] * at[1]);
 			if (!(val < best)) break;
 			xr = yr;
 			xi = yi;
-			pr = qr;
-			pi = qi;
-			dr = er;
-			di = ei;
+			dr = at[2];
+			di = at[3];
+			scale = at[4];
 			best = val;
 		}
 		x.re = xr;
 		x.im = xi;
-		const r = Math.sqrt(xr * xr + xi * xi);
-		let scale = 0;
-		for (let i = n; i >= 0; i--) scale = scale * r + Math.abs(b[i]);
 		const e = scale === 0 ? 0 : best / scale;
 		if (!(e <= worst)) worst = e; // NaN propagates as "worst"
 	}
@@ -305,11 +281,8 @@ function polishAll(b: number[], xs: Complex[], settled: Float64Array | null): nu
 export function maxBackwardError(b: Poly, xs: readonly Complex[]): number {
 	let worst = 0;
 	for (const x of xs) {
-		const [pr, pi] = evalWithDerivative(b as number[], x.re, x.im);
-		const r = Math.hypot(x.re, x.im);
-		let scale = 0;
-		for (let i = b.length - 1; i >= 0; i--) scale = scale * r + Math.abs(b[i]);
-		const e = scale === 0 ? 0 : Math.hypot(pr, pi) / scale;
+		evaluateAt(b, x.re, x.im);
+		const e = at[4] === 0 ? 0 : Math.hypot(at[0], at[1]) / at[4];
 		if (!(e <= worst)) worst = e; // NaN propagates as "worst"
 	}
 	return worst;
