@@ -14,9 +14,26 @@ import { loopSpecFromDetail } from '../corners/loopModel';
 import type { PartName } from '../corners/variation';
 import { analyzeInputFilter, type InputFilterReport } from '../inputfilter/analyzeInputFilter';
 import { runSpread, type PartTolerance, type SpreadResult } from '../spread/spread';
-import { analyzeClosedLoop, type ClosedLoopSection } from './analyzeClosedLoop';
+import { analyzeClosedLoop, type ClosedLoopInput, type ClosedLoopSection, type LoadStepSettings } from './analyzeClosedLoop';
 import type { Bode } from './responses';
 import { roundDecimals } from '../math/displayRounding';
+
+/** The closed-loop model's input for an analysed design: its built network, modulator and stage. */
+export function closedLoopInputOf(detail: AnalysisDetail, freqHz: ArrayLike<number>, loadStep?: LoadStepSettings): ClosedLoopInput {
+	const d = detail.document;
+	return {
+		plant: detail.plant,
+		compensator: detail.compensator.built,
+		modulator: modulatorTf({ vramp: d.modulator.vramp, feedForward: d.modulator.feedForward, delayS: d.modulator.delay }, d.plant.vin),
+		dividerRatio: d.feedback.vref / d.plant.vout,
+		vout: d.plant.vout,
+		capacitors: d.plant.capacitors,
+		freqHz,
+		crossoverHz: detail.metrics.crossoverHz,
+		phaseMarginDeg: detail.metrics.phaseMarginDeg,
+		loadStep
+	};
+}
 
 /** Largest Monte Carlo run done inline with an analysis. */
 export const INLINE_SPREAD_MAX = 2000;
@@ -77,22 +94,10 @@ export function robustnessSections(detail: AnalysisDetail, options: RobustnessOp
 	const wantSpread = wantSections && d.spread !== undefined;
 	if (!options.closedLoop && !wantCorners && !wantFilter && !wantSpread) return out;
 	const grid = sectionGrid(detail);
-	const m = detail.metrics;
 
 	if (options.closedLoop) {
 		const section = guarded('closed-loop', warnings, () =>
-			analyzeClosedLoop({
-				plant: detail.plant,
-				compensator: detail.compensator.built,
-				modulator: modulatorTf({ vramp: d.modulator.vramp, feedForward: d.modulator.feedForward, delayS: d.modulator.delay }, d.plant.vin),
-				dividerRatio: d.feedback.vref / d.plant.vout,
-				vout: d.plant.vout,
-				capacitors: d.plant.capacitors,
-				freqHz: grid,
-				crossoverHz: m.crossoverHz,
-				phaseMarginDeg: m.phaseMarginDeg,
-				loadStep: d.loadStep
-			})
+			analyzeClosedLoop(closedLoopInputOf(detail, grid, d.loadStep))
 		);
 		if (section) {
 			const { warnings: w, responses: r, ...rest } = section;

@@ -8,10 +8,10 @@ import type { AnalysisResponse } from '../../engine/contract/responseSchema';
 import type { DesignDocument } from '../../engine/contract/designSchema';
 import type { ContractError } from '../../engine/contract/errors';
 import { analyzeClosedLoop } from '../../engine/closedloop/analyzeClosedLoop';
+import { closedLoopInputOf } from '../../engine/closedloop/sections';
 import { loopSpecFromDetail } from '../../engine/corners/loopModel';
 import type { PartName } from '../../engine/corners/variation';
 import { runSpread, type PartTolerance } from '../../engine/spread/spread';
-import { modulatorTf } from '../../engine/plants/modulator';
 import { railCorners, type RailOperatingRange } from '../../corners';
 import type { MarginTargets, RailTolerances } from './types';
 
@@ -61,20 +61,9 @@ export function analyzeRevision(design: unknown, rail: RailOperatingRange | null
 
 /** Load step and reference step of the nominal loop (closed-loop model, delay as Padé). */
 export function stepResponses(detail: AnalysisDetail) {
-	const d = detail.document;
-	const m = detail.metrics;
 	try {
-		const section = analyzeClosedLoop({
-			plant: detail.plant,
-			compensator: detail.compensator.built,
-			modulator: modulatorTf({ vramp: d.modulator.vramp, feedForward: d.modulator.feedForward, delayS: d.modulator.delay }, d.plant.vin),
-			dividerRatio: d.feedback.vref / d.plant.vout,
-			vout: d.plant.vout,
-			capacitors: d.plant.capacitors,
-			freqHz: detail.response.response.freqHz.slice(0, 2),
-			crossoverHz: m.crossoverHz,
-			phaseMarginDeg: m.phaseMarginDeg
-		});
+		// Two grid points: only the steps are used here, not the closed-loop traces.
+		const section = analyzeClosedLoop(closedLoopInputOf(detail, detail.response.response.freqHz.slice(0, 2)));
 		return {
 			stable: section.stable,
 			loadStep: section.loadStep,

@@ -3,7 +3,7 @@ import { readFileSync, readdirSync } from 'node:fs';
 import { join } from 'node:path';
 import { analyzeDesignDetailed, type AnalysisDetail } from '../../../../src/lib/engine/analyze';
 import { analyzeClosedLoop, type ClosedLoopSection } from '../../../../src/lib/engine/closedloop/analyzeClosedLoop';
-import { modulatorTf } from '../../../../src/lib/engine/plants/modulator';
+import { closedLoopInputOf } from '../../../../src/lib/engine/closedloop/sections';
 
 export const ROOT = join(__dirname, '..', '..', '..', '..');
 export const CASES = readdirSync(join(ROOT, 'reference', 'cases'))
@@ -22,19 +22,7 @@ export function detail(name: string): AnalysisDetail {
 }
 
 export function closedLoopOf(det: AnalysisDetail, loadStep?: { step?: number; riseTime?: number; referenceStep?: number }): ClosedLoopSection {
-	const d = det.document;
-	return analyzeClosedLoop({
-		plant: det.plant,
-		compensator: det.compensator.built,
-		modulator: modulatorTf({ vramp: d.modulator.vramp, feedForward: d.modulator.feedForward, delayS: d.modulator.delay }, d.plant.vin),
-		dividerRatio: d.feedback.vref / d.plant.vout,
-		vout: d.plant.vout,
-		capacitors: d.plant.capacitors,
-		freqHz: det.response.response.freqHz,
-		crossoverHz: det.metrics.crossoverHz,
-		phaseMarginDeg: det.metrics.phaseMarginDeg,
-		loadStep
-	});
+	return analyzeClosedLoop(closedLoopInputOf(det, det.response.response.freqHz, loadStep));
 }
 
 export function closedRef(name: string): Record<string, any> {
