@@ -2,28 +2,12 @@
 // contract path, and the values shown in engineering notation with the field's unit.
 import { describe, expect, it } from 'vitest';
 import { diffDocuments, formatChangeValue } from '$lib/design/revisionDiff';
+import { contractExample } from '../support/contractExample';
 
-// The contract's example document (spec: design-document.md).
-const base = {
-	schemaVersion: 1,
-	plant: {
-		topology: 'buck',
-		vin: 5,
-		vout: 1.2,
-		iout: 8,
-		fsw: 600000,
-		inductor: { l: 1.0e-6, dcr: 0.004 },
-		capacitors: [{ c: 47e-6, esr: 0.002, esl: 0, count: 3 }],
-		rdsOn: 0.006
-	},
-	modulator: { vramp: 1.0, feedForward: false, delay: 0 },
-	feedback: { vref: 0.6, r1: 10000 },
-	compensator: {
-		kind: 'type3',
-		target: { method: 'k-factor', crossoverHz: 60000, phaseMarginDeg: 55 },
-		series: { resistors: 'E96', capacitors: 'E12' }
-	}
-};
+// The contract's example document without its parts and sweep (a placed network, the default grid).
+const { sweep: _sweep, compensator: exampleCompensator, ...exampleRest } = contractExample();
+const { parts: _parts, ...compensator } = exampleCompensator;
+const base = { ...exampleRest, compensator };
 const copy = () => structuredClone(base);
 
 describe('diffDocuments', () => {
