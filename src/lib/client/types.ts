@@ -2,6 +2,7 @@
 // from the shared zod schemas so that a rail here and a rail in the API are one definition.
 import type { z } from 'zod';
 import type { marginTargetsSchema, RailInput } from '$lib/schemas/workspace';
+import type { CornerMetrics } from '$lib/corners';
 
 export type MarginTargets = z.infer<typeof marginTargetsSchema>;
 
@@ -43,16 +44,8 @@ export type Rail = RailInput & {
 	updatedAt: string;
 };
 
-/** One corner's stored analysis summary (see the loops service). */
-export interface CornerMetrics {
-	corner: { vin: number; iout: number; label: string };
-	crossoverHz: number | null;
-	phaseMarginDeg: number | null;
-	gainMarginDb: number | null;
-	closedLoopStable: boolean | null;
-	warnings: string[];
-	error?: string;
-}
+/** One corner's stored analysis summary (see the loops service); the same type the server stores. */
+export type { CornerMetrics };
 
 export type LoopStatus = 'draft' | 'in-review' | 'approved' | 'changes-requested';
 
