@@ -200,7 +200,7 @@ const envelopeScratch = new Float64Array(4);
  * resonant (|Q| > 2) or its two real roots when overdamped, or points either side of ω0 when
  * undamped. Real corners are left to the bisection: their slopes are gentle, and seeding them
  * costs more evaluations (22 against 18 on the bench loops) than it saves. */
-function startingPoints(c: CompiledTf, omegaStart: number, omegaStop: number): Float64Array {
+function startingPoints(c: CompiledTf, omegaStart: number, omegaStop: number, undamped: boolean): Float64Array {
 	const size = 2 + 3 * (c.zPairInvW.length + c.pPairInvW.length);
 	if (pointScratch.length < size) pointScratch = new Float64Array(2 * size);
 	const pts = pointScratch;
@@ -232,7 +232,7 @@ function startingPoints(c: CompiledTf, omegaStart: number, omegaStop: number): F
 	}
 	// No sample exactly on an undamped pair's ω0 (another pair may share it): |T| is 0 or ∞
 	// there and the slopes are not defined; its neighbours at ω0(1 ± 1e-9) stand in for it.
-	if (hasUndampedPair(c)) {
+	if (undamped) {
 		let kept = 0;
 		for (let i = 0; i < k; i++) if (!containsUndampedPair(c, pts[i], pts[i], true)) pts[kept++] = pts[i];
 		k = kept;
@@ -370,7 +370,8 @@ function evaluateInto(c: CompiledTf, stack: Float64Array, k: number, depth: numb
 export function bracketingGrid(c: CompiledTf, omegaStart: number, omegaStop: number, options: GridOptions = {}): GridScratch {
 	const maxDepth = options.maxDepth ?? 60;
 	const relTol = options.modulusRelTol ?? 0.01;
-	const start = startingPoints(c, omegaStart, omegaStop);
+	const undamped = hasUndampedPair(c);
+	const start = startingPoints(c, omegaStart, omegaStop, undamped);
 
 	if (stackScratch.length < W * (start.length + 8)) stackScratch = new Float64Array(2 * W * (start.length + 8));
 	let stack = stackScratch;
@@ -387,7 +388,6 @@ export function bracketingGrid(c: CompiledTf, omegaStart: number, omegaStop: num
 	}
 	let evaluations = sp / W;
 	setModulusThreshold(best * (1 - relTol));
-	const undamped = hasUndampedPair(c);
 	let { omega, logOmega, lnMag, phase, lnMagSlope, phaseSlope, distance } = grid;
 	let n = 0;
 	while (sp > 0) {
