@@ -1,6 +1,7 @@
 /**
- * Scalar root finding and minimisation on a bracket: Brent's method (inverse quadratic
- * interpolation with bisection safeguard) and golden-section search.
+ * Scalar root finding and minimisation on a bracket: Brent's root finder (inverse quadratic
+ * interpolation with bisection safeguard), Brent's minimiser (parabolic interpolation with a
+ * golden-section safeguard) and a bracketed Newton for functions with a known derivative.
  * [published: R. P. Brent, "Algorithms for Minimization without Derivatives", 1973, ch. 4–5]
  */
 
@@ -63,31 +64,6 @@ export function brentRoot(f: (x: number) => number, a: number, b: number, fa = f
 		fb = f(b);
 	}
 	return b;
-}
-
-/** Minimiser of a unimodal f on [a, b] by golden-section search. */
-export function goldenMin(f: (x: number) => number, a: number, b: number, xtol = 1e-10): { x: number; fx: number } {
-	const g = (Math.sqrt(5) - 1) / 2;
-	let x1 = b - g * (b - a);
-	let x2 = a + g * (b - a);
-	let f1 = f(x1);
-	let f2 = f(x2);
-	for (let i = 0; i < 200 && Math.abs(b - a) > xtol * Math.max(1, Math.abs(a) + Math.abs(b)); i++) {
-		if (f1 < f2) {
-			b = x2;
-			x2 = x1;
-			f2 = f1;
-			x1 = b - g * (b - a);
-			f1 = f(x1);
-		} else {
-			a = x1;
-			x1 = x2;
-			f1 = f2;
-			x2 = a + g * (b - a);
-			f2 = f(x2);
-		}
-	}
-	return f1 < f2 ? { x: x1, fx: f1 } : { x: x2, fx: f2 };
 }
 
 /**
