@@ -5,8 +5,8 @@
 // own limiter (HTTP handler only) does not see. Every attempt counts, not only failed ones: the
 // abuse is volume (accounts made by a script, a mailbox flooded with reset links).
 import type { BetterAuthPlugin } from 'better-auth';
-import { APIError, createAuthMiddleware, getIP } from 'better-auth/api';
-import { FailureCounter, type Window } from './sign-in-throttle';
+import { APIError, createAuthMiddleware } from 'better-auth/api';
+import { clientAddressOf, FailureCounter, type Window } from './sign-in-throttle';
 
 export interface AccountRequestLimits {
 	signUpPerAddress: Window;
@@ -41,8 +41,6 @@ function tooMany(what: string, waitS: number): APIError {
 
 export function accountRequestThrottle(limits = accountRequestLimits()): BetterAuthPlugin {
 	const counter = new FailureCounter();
-	const addressOf = (ctx: { headers?: Headers; context: { options: Parameters<typeof getIP>[1] } }) =>
-		(ctx.headers && getIP(ctx.headers, ctx.context.options)) || 'unknown-address';
 	return {
 		id: 'loopwright-account-request-throttle',
 		hooks: {
@@ -50,7 +48,7 @@ export function accountRequestThrottle(limits = accountRequestLimits()): BetterA
 				{
 					matcher: (ctx) => ctx.path === SIGN_UP_PATH,
 					handler: createAuthMiddleware(async (ctx) => {
-						const key = `sign-up|${addressOf(ctx)}`;
+						const key = `sign-up|${clientAddressOf(ctx)}`;
 						const wait = counter.blockedFor(key, limits.signUpPerAddress);
 						if (wait > 0) throw tooMany('sign-ups', wait);
 						counter.fail(key, limits.signUpPerAddress);
@@ -59,7 +57,7 @@ export function accountRequestThrottle(limits = accountRequestLimits()): BetterA
 				{
 					matcher: (ctx) => ctx.path === RESET_PATH,
 					handler: createAuthMiddleware(async (ctx) => {
-						const address = addressOf(ctx);
+						const address = clientAddressOf(ctx);
 						const email = String((ctx.body as { email?: unknown } | undefined)?.email ?? '').trim().toLowerCase();
 						const perEmail = `reset|${address}|${email}`;
 						const perAddress = `reset|${address}`;

@@ -65,10 +65,17 @@ export class FailureCounter {
 
 const SIGN_IN_PATH = '/sign-in/email';
 
+type HookContext = { headers?: Headers; context: { options: Parameters<typeof getIP>[1] } };
+
+/** The trusted client address of a better-auth call (CLIENT_IP_HEADER via advanced.ipAddress), or one shared key when unknown. */
+export function clientAddressOf(ctx: HookContext): string {
+	return (ctx.headers && getIP(ctx.headers, ctx.context.options)) || 'unknown-address';
+}
+
 export function signInThrottle(limits = SIGN_IN_LIMITS): BetterAuthPlugin {
 	const counter = new FailureCounter();
-	const keys = (ctx: { headers?: Headers; body?: unknown; context: { options: Parameters<typeof getIP>[1] } }) => {
-		const address = (ctx.headers && getIP(ctx.headers, ctx.context.options)) || 'unknown-address';
+	const keys = (ctx: HookContext & { body?: unknown }) => {
+		const address = clientAddressOf(ctx);
 		const email = String((ctx.body as { email?: unknown } | undefined)?.email ?? '').trim().toLowerCase();
 		return { address: `address|${address}`, account: `account|${address}|${email}` };
 	};
