@@ -3,8 +3,9 @@
  * unwrapped phase passes −180° + k·360°, each located by linear interpolation on log-frequency between the two
  * bracketing points (magnitude in dB and phase in degrees are both interpolated linearly in log f).
  * Definitions as the engine's (formulas §7.1): PM = 180° + ∠T reduced to (−180°, 180°], GM = −|T|dB at ∠T = −180°;
- * the governing PM is the smallest, the reported GM the smallest positive one.
+ * the governing PM and GM are chosen by the engine's one rule (smallest |PM|, smallest |GM dB|: analysis/margins.ts).
  */
+import { governingCrossover, governingPhaseCrossover } from '../engine/analysis/margins';
 import type { BenchMetrics, MeasuredCrossover, MeasuredPhaseCrossover } from './types';
 
 export interface MeasuredResponse {
@@ -80,10 +81,8 @@ export function benchMetrics(r: MeasuredResponse): BenchMetrics {
 	const crossovers = measuredCrossovers(r);
 	const phaseCrossovers = measuredPhaseCrossovers(r);
 	const notes: string[] = [];
-	let governing: MeasuredCrossover | null = null;
-	for (const c of crossovers) if (governing === null || c.phaseMarginDeg < governing.phaseMarginDeg) governing = c;
-	let gm: MeasuredPhaseCrossover | null = null;
-	for (const p of phaseCrossovers) if (p.gainMarginDb > 0 && (gm === null || p.gainMarginDb < gm.gainMarginDb)) gm = p;
+	const governing: MeasuredCrossover | null = governingCrossover(crossovers);
+	const gm: MeasuredPhaseCrossover | null = governingPhaseCrossover(phaseCrossovers);
 	const n = r.freqHz.length;
 	if (governing === null && n > 0) {
 		notes.push(
@@ -93,11 +92,7 @@ export function benchMetrics(r: MeasuredResponse): BenchMetrics {
 		);
 	}
 	if (gm === null) {
-		notes.push(
-			phaseCrossovers.length === 0
-				? 'the measured phase never reaches −180°; no gain margin inside the measured band'
-				: 'every phase crossover has |T| ≥ 1; no positive gain margin'
-		);
+		notes.push('the measured phase never reaches −180°; no gain margin inside the measured band');
 	}
 	return {
 		crossoverHz: governing?.freqHz ?? null,

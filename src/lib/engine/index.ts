@@ -25,6 +25,10 @@
  * - Pipeline: `analyzeDesign(doc: unknown, {includeResponse?}) → AnalysisResponse | ContractError`,
  *   `analyzeDesignDetailed` (also returns the plant model, loop and metrics),
  *   `analyzeValidatedDesign(document)` (the same for a document designDocumentSchema already parsed).
+ * - Verdict (verify/): `verifyDesign(doc: unknown) → Verification | ContractError` and
+ *   `verifyValidatedDesign(document)`: operating × tolerance corners, worst PM/GM/fc with their
+ *   corners, stability, spread yield, warnings per corner, pass/caution/fail against `targets`,
+ *   stamped with `ENGINE_VERSION`.
  */
 export * from './math';
 export * from './tf';
@@ -34,3 +38,5 @@ export * from './plants';
 export * from './analysis';
 export * from './contract';
 export * from './analyze';
+export * from './verify';
+export { ENGINE_VERSION } from './version';

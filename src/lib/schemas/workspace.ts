@@ -10,18 +10,9 @@ export const topologySchema = z.enum(['buck', 'boost']);
 
 const positive = (what: string) => z.number({ error: `${what} must be a number` }).finite().positive(`${what} must be > 0`);
 
-export const marginTargetsSchema = z.object({
-	phaseMarginDeg: z.number().finite().min(0).max(120),
-	gainMarginDb: z.number().finite().min(0).max(60),
-	maxCrossoverFraction: z.number().finite().min(0.005).max(0.5)
-});
-
-/** Defaults [common practice]: PM ≥ 45°, GM ≥ 10 dB, crossover at most fsw/5. */
-export const DEFAULT_MARGIN_TARGETS: z.infer<typeof marginTargetsSchema> = {
-	phaseMarginDeg: 45,
-	gainMarginDb: 10,
-	maxCrossoverFraction: 0.2
-};
+/** The margin targets and their defaults have one definition, the engine's (a design document's `targets` use it too). */
+import { marginTargetsSchema, DEFAULT_MARGIN_TARGETS } from '../engine/contract/targetsSchema';
+export { marginTargetsSchema, DEFAULT_MARGIN_TARGETS };
 
 export const tolerancesSchema = z.object({
 	inductorPct: z.number().finite().min(0).max(60).default(20),

@@ -2,9 +2,16 @@
  * Loop metrics (formulas §7): every gain crossover (|T| = 1) and phase crossover
  * (∠T = −180° + k·360°) in the analysed range, each bracketed by the proven grid of
  * analysisGrid.ts and refined by bracketed Newton on the analytic ln|T| or unwrapped phase in
- * log f (exact slopes); PM per crossing, smallest positive GM, gain-reduction margin, delay
- * margin, modulus margin min|1 + T| (Brent's minimiser). A margin that does not exist is null,
- * with its reason in `unavailable`.
+ * log f (exact slopes); PM per crossing and GM per phase crossing, the governing (headline) PM and
+ * GM, gain-reduction margin, delay margin, modulus margin min|1 + T| (Brent's minimiser). A margin
+ * that does not exist is null, with its reason in `unavailable`.
+ *
+ * Governing margins: the headline PM is the gain crossing with the smallest |PM| and the headline
+ * GM the phase crossing with the smallest |GM dB|, i.e. the crossings whose point lies nearest the
+ * critical point −1 in angle or in gain (the convention of python-control's `stability_margins`
+ * [from memory]). A crossing where the loop phase is near 0° (PM ≈ ±180°) is far from −1 and never
+ * governs; every crossing stays listed with its own margin. Corners, spread, board health and the
+ * verdict all read these headline figures, so there is one rule.
  */
 import { brentMin, brentRoot, newtonBracketed } from '../math/scalarRoot';
 import { compileTf, lnMagPhaseAt, lnMagPhaseSlopeAt, type CompiledTf } from '../tf/evaluate';
@@ -39,10 +46,10 @@ export interface PhaseCrossover {
 }
 
 export interface LoopMetrics {
-	/** The crossing with the smallest phase margin. */
+	/** The governing gain crossing: smallest |PM| (see the module note). */
 	crossoverHz: number | null;
 	phaseMarginDeg: number | null;
-	/** Smallest positive gain margin and where it is taken. */
+	/** The governing phase crossing's gain margin (smallest |GM dB|; negative = the gain may only fall) and where it is taken. */
 	gainMarginDb: number | null;
 	phaseCrossoverHz: number | null;
 	/** Negative gain margin closest to zero (conditional stability), dB. */
@@ -126,6 +133,20 @@ function phaseCrossoverAt(c: CompiledTf, omega: number, lineRad: number, directi
 	return { freqHz: omega / TWO_PI, gainMarginDb: (-20 * probe.buf[0]) / Math.LN10, lineDeg: lineRad * RAD2DEG, direction };
 }
 
+/** The governing gain crossing: smallest |PM|; on a tie the lower frequency (the list is sorted). */
+export function governingCrossover<T extends { phaseMarginDeg: number }>(crossings: readonly T[]): T | null {
+	let best: T | null = null;
+	for (const x of crossings) if (!best || Math.abs(x.phaseMarginDeg) < Math.abs(best.phaseMarginDeg)) best = x;
+	return best;
+}
+
+/** The governing phase crossing: smallest |GM dB|; on a tie the lower frequency. */
+export function governingPhaseCrossover<T extends { gainMarginDb: number }>(crossings: readonly T[]): T | null {
+	let best: T | null = null;
+	for (const x of crossings) if (!best || Math.abs(x.gainMarginDb) < Math.abs(best.gainMarginDb)) best = x;
+	return best;
+}
+
 export function loopMetrics(
 	loop: FactoredTf,
 	range: { startHz: number; stopHz: number },
@@ -194,8 +215,7 @@ export function loopMetrics(
 	if (!isSortedByFreq(phaseCrossovers)) phaseCrossovers.sort((a, b) => a.freqHz - b.freqHz);
 
 	const unavailable: LoopMetrics['unavailable'] = {};
-	let governing: GainCrossover | null = null;
-	for (const x of crossovers) if (!governing || x.phaseMarginDeg < governing.phaseMarginDeg) governing = x;
+	const governing = governingCrossover(crossovers);
 	if (!governing) {
 		unavailable.crossoverHz =
 			g.lnMag[0] < 0
@@ -203,18 +223,10 @@ export function loopMetrics(
 				: '|T| stays above 0 dB over the analysed range (crossover above the range)';
 	}
 
-	let gm: PhaseCrossover | null = null;
+	const gm = governingPhaseCrossover(phaseCrossovers);
 	let grm: PhaseCrossover | null = null;
-	for (const p of phaseCrossovers) {
-		if (p.gainMarginDb > 0 && (!gm || p.gainMarginDb < gm.gainMarginDb)) gm = p;
-		if (p.gainMarginDb < 0 && (!grm || p.gainMarginDb > grm.gainMarginDb)) grm = p;
-	}
-	if (!gm) {
-		unavailable.gainMarginDb =
-			phaseCrossovers.length === 0
-				? 'the loop phase never reaches −180° (mod 360°) in the analysed range'
-				: 'every phase crossover has |T| ≥ 1';
-	}
+	for (const p of phaseCrossovers) if (p.gainMarginDb < 0 && (!grm || p.gainMarginDb > grm.gainMarginDb)) grm = p;
+	if (!gm) unavailable.gainMarginDb = 'the loop phase never reaches −180° (mod 360°) in the analysed range';
 	if (!grm) unavailable.gainReductionMarginDb = 'no phase crossover with |T| > 1';
 
 	// Modulus margin: the grid brackets the global minimum of |1 + T| to modulusRelTol; refine

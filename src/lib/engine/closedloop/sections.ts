@@ -17,6 +17,8 @@ import { runSpread, type PartTolerance, type SpreadResult } from '../spread/spre
 import { analyzeClosedLoop, type ClosedLoopInput, type ClosedLoopSection, type LoadStepSettings } from './analyzeClosedLoop';
 import type { Bode } from './responses';
 import { roundDecimals } from '../math/displayRounding';
+import { spreadTargetsOf, targetsOf } from '../contract/targetsSchema';
+import { cornerChecksFor } from '../verify/checks';
 
 /** The closed-loop model's input for an analysed design: its built network, modulator and stage. */
 export function closedLoopInputOf(detail: AnalysisDetail, freqHz: ArrayLike<number>, loadStep?: LoadStepSettings): ClosedLoopInput {
@@ -129,7 +131,7 @@ export function robustnessSections(detail: AnalysisDetail, options: RobustnessOp
 		for (const [name, t] of Object.entries(tolerances)) if (t) tol[name as PartName] = t.tol;
 		const cs = d.corners;
 		const report = guarded('corners', warnings, () =>
-			runCorners(spec, { vin: cs.vin, iout: cs.iout, tolerances: tol, maxCorners: cs.maxCorners }, grid)
+			runCorners(spec, { vin: cs.vin, iout: cs.iout, tolerances: tol, maxCorners: cs.maxCorners, checks: cornerChecksFor(d) }, grid)
 		);
 		if (report) {
 			out.corners = { ...report, traces: report.traces.map((t) => ({ ...t, magDb: cleanDb(t.magDb), phaseDeg: cleanDeg(t.phaseDeg) })) };
@@ -179,7 +181,7 @@ export function robustnessSections(detail: AnalysisDetail, options: RobustnessOp
 		} else if (Object.keys(tols).length === 0) {
 			warnings.push({ code: 'spread-without-tolerances', message: 'A spread was asked for, but the tolerances section gives no part a tolerance > 0.' });
 		} else {
-			const r = guarded('spread', warnings, () => runSpread(spec, { samples: s.samples, seed: s.seed, tolerances: tols, targets: s.targets, bins: s.bins }));
+			const r = guarded('spread', warnings, () => runSpread(spec, { samples: s.samples, seed: s.seed, tolerances: tols, targets: s.targets ?? spreadTargetsOf(targetsOf(d), d.plant.fsw), bins: s.bins }));
 			if (r) {
 				const { crossoverHz: _fc, phaseMarginDeg: _pm, gainMarginDb: _gm, stable: _st, ...summary } = r;
 				out.spread = summary;

@@ -63,7 +63,7 @@ export interface NetworkReport {
 }
 
 export interface AchievedLoop {
-	/** Governing crossing (smallest PM); null when there is none. */
+	/** Governing crossing (smallest |PM|, analysis/margins.ts); null when there is none. */
 	crossoverHz: number | null;
 	phaseMarginDeg: number | null;
 	crossovers: { freqHz: number; phaseMarginDeg: number }[];

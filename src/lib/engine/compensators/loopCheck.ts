@@ -13,10 +13,10 @@ export interface CrossoverPoint {
 export interface LoopCheck {
 	/** Every |T| = 1 crossing, ascending. */
 	crossovers: CrossoverPoint[];
-	/** The crossing with the smallest phase margin (null when |T| never crosses 1 in the range). */
+	/** The governing crossing, smallest |PM| (analysis/margins.ts; null when |T| never crosses 1 in the range). */
 	crossoverHz: number | null;
 	phaseMarginDeg: number | null;
-	/** Smallest positive gain margin, dB (null when none). */
+	/** The governing gain margin, smallest |GM| in dB (null when the phase never reaches −180°). */
 	gainMarginDb: number | null;
 	/** Where the phase crosses −180° + k·360° while |T| > 1 (nearest-to-zero such crossing), or null. */
 	conditionalAtHz: number | null;

@@ -11,6 +11,7 @@ import { cornersSchema, tolerancesSchema } from '../corners/schema';
 import { inputFilterSchema } from '../inputfilter/schema';
 import { spreadSchema } from '../spread/schema';
 import { loadStepSchema } from '../timeresponse/schema';
+import { targetsSchema } from './targetsSchema';
 
 export const SCHEMA_VERSION = 1;
 export const MAX_SWEEP_POINTS = 20000;
@@ -116,7 +117,9 @@ export const designDocumentSchema = z
 		feedback: feedbackSchema,
 		compensator: z.custom<unknown>((v) => v !== undefined, { error: 'is required' }).pipe(compensatorSchema),
 		sweep: sweepSchema.optional(),
-		// Optional robustness sections (closed loop, corners, Monte Carlo, input filter).
+		// The verification spec (targets, operating ranges, tolerances, spread settings) and the
+		// optional robustness sections (closed loop, corners, Monte Carlo, input filter).
+		targets: targetsSchema.optional(),
 		loadStep: loadStepSchema.optional(),
 		tolerances: tolerancesSchema.optional(),
 		corners: cornersSchema.optional(),

@@ -3,3 +3,4 @@ export * from './designSchema';
 export * from './responseSchema';
 export * from './errors';
 export * from './robustnessSchema';
+export * from './targetsSchema';

@@ -66,11 +66,15 @@ export const closedLoopSectionSchema = z.object({
 	referenceStep: transient.nullable()
 });
 
+const caseName = z.enum(['min', 'nom', 'max']);
 const cornerPoint = z.object({
 	vin: finite,
 	iout: finite,
+	vinCase: caseName,
+	ioutCase: caseName,
 	factors,
-	kind: z.enum(['nominal', 'operating', 'exhaustive', 'one-at-a-time', 'linearised-worst'])
+	kind: z.enum(['nominal', 'operating', 'exhaustive', 'one-at-a-time', 'linearised-worst']),
+	label: z.string()
 });
 const cornerResult = cornerPoint.extend({
 	crossoverHz: nullableFinite,
@@ -88,6 +92,7 @@ export const cornersSectionSchema = z.object({
 	worst: z.object({ phaseMarginDeg: worstCase, gainMarginDb: worstCase, crossoverLowHz: worstCase, crossoverHighHz: worstCase }),
 	unstableCorners: finite,
 	failedCorners: finite,
+	warningMessages: z.record(z.string(), z.string()),
 	traces: z.array(z.object({ label: z.string(), corner: cornerPoint, magDb: z.array(finite), phaseDeg: z.array(finite) }))
 });
 

@@ -1,16 +1,21 @@
 /**
- * Corner analysis: every input voltage (min/nom/max) × load (min/max) and the tolerance
- * corners of the parts (each at 1 ± tol). All sign combinations of the tolerances are run
- * when their count fits `maxCorners`; otherwise each part alone at ±tol, plus, per metric,
- * the combination whose one-at-a-time effects all worsen that metric (a linearised worst
- * case, labelled as such). Margins from analysis/margins (formulas §7); worst fc (lowest and
- * highest), PM and GM with the corner that sets each; the loop traces of those corners.
+ * Corner analysis: the operating cases (operatingCases.ts: Vin {min, nom, max} × Iout
+ * {min, nom, max}) and the tolerance corners of the parts (each at 1 ± tol). All sign
+ * combinations of the tolerances are run when their count fits `maxCorners`; otherwise each part
+ * alone at ±tol, plus, per metric, the combination whose one-at-a-time effects all worsen that
+ * metric (a linearised worst case, labelled as such). Margins from analysis/margins (the
+ * governing-margin rule, formulas §7); worst fc (lowest and highest), PM and GM with the corner
+ * that sets each; the warnings raised at each corner; the loop traces of the worst corners.
  */
-import { loopMetrics } from '../analysis/margins';
-import { isDesignInputError } from '../errors';
+import { loopMetrics, type LoopMetrics } from '../analysis/margins';
+import { isDesignInputError, type EngineWarning } from '../errors';
 import { frequencyResponse } from '../tf/evaluate';
-import { buildLoop, type LoopSpec } from './loopModel';
+import { buildLoop, type BuiltLoop, type LoopSpec } from './loopModel';
+import { cornerLabel, operatingCases, type CaseName } from './operatingCases';
 import { applyVariation, partsPresent, type PartName, type Variation } from './variation';
+
+/** Extra checks run at every corner (op-amp bandwidth, input filter …): warnings for that corner. */
+export type CornerCheck = (built: BuiltLoop, metrics: LoopMetrics, spec: LoopSpec) => EngineWarning[];
 
 export interface CornerSettings {
 	vin?: { min: number; max: number };
@@ -19,15 +24,21 @@ export interface CornerSettings {
 	tolerances?: Partial<Record<PartName, number>>;
 	/** Limit on the number of corners before falling back to one-at-a-time [4096]. */
 	maxCorners?: number;
+	/** Checks beyond the plant's own warnings, run at every corner. */
+	checks?: CornerCheck;
 }
 
 export interface CornerPoint {
 	vin: number;
 	iout: number;
+	vinCase: CaseName;
+	ioutCase: CaseName;
 	/** Multiplier applied to each toleranced part (only parts ≠ 1 listed). */
 	factors: Partial<Record<PartName, number>>;
 	/** How the corner was chosen. */
 	kind: 'nominal' | 'operating' | 'exhaustive' | 'one-at-a-time' | 'linearised-worst';
+	/** "Vin max, Iout min, L −20 %" (operatingCases.ts cornerLabel). */
+	label: string;
 }
 
 export interface CornerResult extends CornerPoint {
@@ -35,7 +46,7 @@ export interface CornerResult extends CornerPoint {
 	phaseMarginDeg: number | null;
 	gainMarginDb: number | null;
 	closedLoopStable: boolean | null;
-	/** Warning codes of the plant model at this corner (e.g. dcm-operating-point). */
+	/** Warning codes raised at this corner (plant model and checks, e.g. dcm-operating-point). */
 	warnings: string[];
 	/** The design cannot be modelled here (e.g. duty limit); metrics are null. */
 	error: string | null;
@@ -58,54 +69,59 @@ export interface CornerReport {
 	/** Any corner unstable or not modelled. */
 	unstableCorners: number;
 	failedCorners: number;
+	/** The message of each warning code raised at a corner (its first occurrence). */
+	warningMessages: Record<string, string>;
 	/** Loop Bode traces of the nominal and the worst corners, for overlaid plots. */
 	traces: { label: string; corner: CornerPoint; magDb: number[]; phaseDeg: number[] }[];
 }
 
-/** Metrics of one variant of the loop. */
-export function evaluateVariant(spec: LoopSpec, v: Variation): Omit<CornerResult, keyof CornerPoint> {
+type VariantResult = Omit<CornerResult, keyof CornerPoint> & { messages: EngineWarning[] };
+
+/** Metrics and warnings of one variant of the loop. */
+export function evaluateVariant(spec: LoopSpec, v: Variation, checks?: CornerCheck): VariantResult {
 	try {
 		const s = applyVariation(spec, v);
 		const built = buildLoop(s);
 		const m = loopMetrics(built.loop, s.rangeHz);
+		const messages = checks ? [...built.plant.warnings, ...checks(built, m, s)] : built.plant.warnings;
 		return {
 			crossoverHz: m.crossoverHz,
 			phaseMarginDeg: m.phaseMarginDeg,
 			gainMarginDb: m.gainMarginDb,
 			closedLoopStable: m.closedLoopStable,
-			warnings: built.plant.warnings.map((w) => w.code),
+			warnings: messages.map((w) => w.code),
+			messages,
 			error: null
 		};
 	} catch (e) {
 		if (!isDesignInputError(e) && !(e instanceof RangeError)) throw e;
-		return { crossoverHz: null, phaseMarginDeg: null, gainMarginDb: null, closedLoopStable: null, warnings: [], error: e.message };
+		return { crossoverHz: null, phaseMarginDeg: null, gainMarginDb: null, closedLoopStable: null, warnings: [], messages: [], error: e.message };
 	}
 }
 
-const uniq = (xs: number[]) => [...new Set(xs)];
-
 export function runCorners(spec: LoopSpec, settings: CornerSettings, freqHz?: ArrayLike<number>): CornerReport {
-	const vin0 = spec.stage.vin;
-	const iout0 = spec.stage.iout;
-	const vins = settings.vin ? uniq([settings.vin.min, vin0, settings.vin.max]) : [vin0];
-	const iouts = settings.iout ? uniq([settings.iout.min, settings.iout.max]) : [iout0];
+	const ops = operatingCases({ vin: spec.stage.vin, iout: spec.stage.iout, vinRange: settings.vin, ioutRange: settings.iout });
 	const present = new Set(partsPresent(spec));
 	const tol = Object.entries(settings.tolerances ?? {}).filter(
 		([name, t]) => present.has(name as PartName) && typeof t === 'number' && t > 0
 	) as [PartName, number][];
 	const maxCorners = settings.maxCorners ?? 4096;
-	const ops = vins.flatMap((vin) => iouts.map((iout) => ({ vin, iout })));
 	const exhaustive = ops.length * 2 ** tol.length <= maxCorners;
 
 	const corners: CornerResult[] = [];
-	const run = (p: CornerPoint) => {
-		const r = { ...p, ...evaluateVariant(spec, { vin: p.vin, iout: p.iout, factors: p.factors }) };
+	const warningMessages: Record<string, string> = {};
+	const run = (p: Omit<CornerPoint, 'label'>) => {
+		const { messages, ...metrics } = evaluateVariant(spec, { vin: p.vin, iout: p.iout, factors: p.factors }, settings.checks);
+		for (const w of messages) warningMessages[w.code] ??= w.message;
+		const r: CornerResult = { ...p, label: cornerLabel(p), ...metrics };
 		corners.push(r);
 		return r;
 	};
-	run({ vin: vin0, iout: iout0, factors: {}, kind: 'nominal' });
-	for (const op of ops) {
-		if (op.vin === vin0 && op.iout === iout0 && tol.length === 0) continue;
+	const nominal = ops[0];
+	run({ vin: nominal.vin, iout: nominal.iout, vinCase: 'nom', ioutCase: 'nom', factors: {}, kind: 'nominal' });
+	for (const o of ops) {
+		if (o.nominal && tol.length === 0) continue;
+		const op = { vin: o.vin, iout: o.iout, vinCase: o.vinCase, ioutCase: o.ioutCase };
 		if (exhaustive) {
 			for (let mask = 0; mask < 2 ** tol.length; mask++) {
 				const factors: Partial<Record<PartName, number>> = {};
@@ -114,7 +130,7 @@ export function runCorners(spec: LoopSpec, settings: CornerSettings, freqHz?: Ar
 			}
 			continue;
 		}
-		const centre = run({ ...op, factors: {}, kind: 'operating' });
+		const centre = o.nominal ? corners[0] : run({ ...op, factors: {}, kind: 'operating' });
 		// One part at a time, then the linearised worst combination per metric.
 		const effect: Record<string, { up: CornerResult; down: CornerResult }> = {};
 		for (const [name, t] of tol) {
@@ -181,8 +197,9 @@ export function runCorners(spec: LoopSpec, settings: CornerSettings, freqHz?: Ar
 		worst,
 		unstableCorners: corners.filter((c) => c.closedLoopStable === false).length,
 		failedCorners: corners.filter((c) => c.error !== null).length,
+		warningMessages,
 		traces
 	};
 }
 
-const strip = (c: CornerPoint): CornerPoint => ({ vin: c.vin, iout: c.iout, factors: c.factors, kind: c.kind });
+const strip = (c: CornerPoint): CornerPoint => ({ vin: c.vin, iout: c.iout, vinCase: c.vinCase, ioutCase: c.ioutCase, factors: c.factors, kind: c.kind, label: c.label });

@@ -14,6 +14,25 @@ export const MODULATOR_PARTS = ['vramp'] as const;
 export const PART_NAMES = [...PLANT_PARTS, ...COMPENSATOR_PARTS, ...MODULATOR_PARTS] as const;
 export type PartName = (typeof PART_NAMES)[number];
 
+/** How each part is named to people (corner labels, tolerance tables). */
+export const PART_LABELS: Record<PartName, string> = {
+	l: 'L',
+	dcr: 'DCR',
+	rdsOn: 'RDS(on)',
+	c: 'C',
+	esr: 'ESR',
+	esl: 'ESL',
+	r1: 'R1',
+	r2: 'R2',
+	r3: 'R3',
+	c1: 'C1',
+	c2: 'C2',
+	c3: 'C3',
+	gm: 'gm',
+	ro: 'Ro',
+	vramp: 'Ramp Vpp'
+};
+
 export interface Variation {
 	vin?: number;
 	iout?: number;

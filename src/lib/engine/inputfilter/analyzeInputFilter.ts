@@ -72,25 +72,30 @@ function figures(loop: FactoredTf, rangeHz: { startHz: number; stopHz: number })
 	};
 }
 
-export function analyzeInputFilter(
-	settings: InputFilterSettings,
-	plant: PlantModel,
-	loop: FactoredTf,
-	freqHz: ArrayLike<number>,
-	rangeHz: { startHz: number; stopHz: number }
-): InputFilterReport {
-	const { r0, f0Hz } = filterFeatures({ l: settings.l, c: settings.c });
-	let damping: { rd: number; cd: number } | null = null;
+export interface MiddlebrookCheck {
+	zs: FactoredTf;
+	impedances: InputFilterReport['impedances'];
+	middlebrook: InputFilterReport['middlebrook'];
+}
+
+/** The filter as a network (damping resolved: an optimal ratio becomes its Rd, Cd). */
+function filterOf(settings: InputFilterSettings): { filter: InputFilter; ratios: number[] } {
 	const ratios = [1, 2, 4, 8];
+	let damping: { rd: number; cd: number } | null = null;
 	if (settings.damping && 'optimalRatio' in settings.damping) {
 		const o = optimalDamping(settings.l, settings.c, settings.damping.optimalRatio);
 		damping = { rd: o.rd, cd: o.cd };
 		if (!ratios.includes(settings.damping.optimalRatio)) ratios.push(settings.damping.optimalRatio);
 	} else if (settings.damping) damping = { ...settings.damping };
-	const filter: InputFilter = { l: settings.l, dcr: settings.dcr ?? 0, c: settings.c, damping };
-	const zs = filterOutputImpedance(filter);
-	const peak = peakImpedance(zs, f0Hz / 100, f0Hz * 100);
+	return { filter: { l: settings.l, dcr: settings.dcr ?? 0, c: settings.c, damping }, ratios };
+}
 
+/**
+ * Middlebrook's criterion alone (§9): min over the grid of |ZN|/|Zs| and |ZD|/|Zs| in dB against
+ * the required margin. Cheap enough to run at every corner (verify/).
+ */
+export function middlebrookCheck(settings: InputFilterSettings, plant: PlantModel, freqHz: ArrayLike<number>): MiddlebrookCheck {
+	const zs = filterOutputImpedance(filterOf(settings).filter);
 	const cs = compileTf(zs);
 	const cn = compileTf(plant.zn);
 	const cd = compileTf(plant.zd);
@@ -119,6 +124,27 @@ export function analyzeInputFilter(
 	});
 	const requiredDb = settings.marginDb ?? 6;
 	const pass = mN >= requiredDb && mD >= requiredDb;
+	return {
+		zs,
+		impedances: { freqHz: grid, zsDb, znDb, zdDb },
+		middlebrook: { requiredDb, marginNDb: mN, marginNHz: mNHz, marginDDb: mD, marginDHz: mDHz, pass }
+	};
+}
+
+export function analyzeInputFilter(
+	settings: InputFilterSettings,
+	plant: PlantModel,
+	loop: FactoredTf,
+	freqHz: ArrayLike<number>,
+	rangeHz: { startHz: number; stopHz: number }
+): InputFilterReport {
+	const { r0, f0Hz } = filterFeatures({ l: settings.l, c: settings.c });
+	const { filter, ratios } = filterOf(settings);
+	const damping = filter.damping ?? null;
+	const { zs, impedances, middlebrook } = middlebrookCheck(settings, plant, freqHz);
+	const peak = peakImpedance(zs, f0Hz / 100, f0Hz * 100);
+	const grid = impedances.freqHz;
+	const { requiredDb, marginNDb: mN, marginNHz: mNHz, marginDDb: mD, marginDHz: mDHz, pass } = middlebrook;
 
 	const tWith = loopWithFilter(loop, filterCorrection(zs, plant.zn, plant.zd));
 	const withFilter = figures(tWith, rangeHz);
@@ -145,8 +171,8 @@ export function analyzeInputFilter(
 		damping,
 		optimal: ratios.map((n) => ({ n, ...optimalDamping(settings.l, settings.c, n) })),
 		peakZs: { value: peak.peak, freqHz: peak.freqHz },
-		impedances: { freqHz: grid, zsDb, znDb, zdDb },
-		middlebrook: { requiredDb, marginNDb: mN, marginNHz: mNHz, marginDDb: mD, marginDHz: mDHz, pass },
+		impedances,
+		middlebrook,
 		loopWithFilter: bodeOf(tWith, grid),
 		withFilter,
 		withoutFilter,

@@ -1,13 +1,17 @@
 /**
  * Builds the averaged small-signal model (VM, CCM) of a buck or boost at its operating point:
  * operating point, the five transfer functions and the salient features, plus warnings
- * (DCM: the CCM model does not apply [formulas §4]). Formulas: §1–§4.
+ * (DCM: the CCM model does not apply [formulas §4]; a load within 20 % of the CCM boundary).
+ * Formulas: §1–§4.
  */
 import type { EngineWarning } from '../errors';
 import { outputNetwork } from './capacitorBank';
 import { operatingPoint } from './operatingPoint';
 import { stageFeatures, stageTransferFunctions } from './stageModel';
 import type { PlantModel, PowerStageInput } from './types';
+
+/** A load within 20 % of the CCM boundary is flagged [common practice: margin for L tolerance and load steps]. */
+export const NEAR_BOUNDARY = 1.2;
 
 export function powerStage(input: PowerStageInput): PlantModel {
 	const net = outputNetwork(input.capacitors);
@@ -29,6 +33,12 @@ export function powerStage(input: PowerStageInput): PlantModel {
 		warnings.push({
 			code: 'dcm-operating-point',
 			message: `The inductor current runs discontinuous (L = ${sig(input.l)} H is below the critical ${sig(op.criticalInductance)} H, or the load current is below ${sig(op.criticalLoadCurrent)} A); the CCM averaged model does not apply.`
+		});
+	}
+	else if (input.iout < NEAR_BOUNDARY * op.criticalLoadCurrent) {
+		warnings.push({
+			code: 'near-ccm-boundary',
+			message: `The load (${sig(input.iout)} A) is within ${Math.round((NEAR_BOUNDARY - 1) * 100)} % of the CCM boundary (${sig(op.criticalLoadCurrent)} A): a little less load or inductance and the inductor current runs discontinuous, where the CCM averaged model does not apply.`
 		});
 	}
 	const halfFsw = input.fswHz / 2;

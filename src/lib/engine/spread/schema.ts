@@ -23,7 +23,8 @@ export const spreadSchema = z
 	.object({
 		samples: num('samples').int({ error: 'must be a whole number' }).min(1, { error: 'must be ≥ 1' }).max(MAX_SAMPLES, { error: `must be ≤ ${MAX_SAMPLES}` }).default(DEFAULT_SAMPLES),
 		seed: num('seed').int({ error: 'must be a whole number' }).min(0, { error: 'must be ≥ 0' }).max(2 ** 32 - 1, { error: 'must be < 2^32' }).default(1),
-		targets: spreadTargetsSchema.default({ phaseMarginDeg: 45, gainMarginDb: 6 }),
+		/** Absent = the document's targets (contract/targetsSchema.ts spreadTargetsOf). */
+		targets: spreadTargetsSchema.optional(),
 		bins: num('bins').int({ error: 'must be a whole number' }).min(2, { error: 'must be ≥ 2' }).max(400, { error: 'must be ≤ 400' }).default(40)
 	})
 	.strict();

@@ -10,7 +10,13 @@ describe('corners', () => {
 		const spec = loopSpecFromDetail(detail('buck-ceramic-1v2'));
 		const r = runCorners(spec, { vin: { min: 4.5, max: 5.5 }, iout: { min: 1, max: 8 }, tolerances: { l: 0.2, c: 0.2, c1: 0.1 } }, [1e3, 1e4, 1e5]);
 		expect(r.mode).toBe('exhaustive');
+		// the one corner set: Vin {min, nom, max} × Iout {min, nom, max} × 2³ tolerance signs, plus the nominal;
+		// this design's Iout nom is 8 A = Iout max, so that level is kept once
+		expect(spec.stage.iout).toBe(8);
 		expect(r.corners).toHaveLength(1 + 3 * 2 * 8);
+		expect(new Set(r.corners.map((c) => c.label)).size).toBe(r.corners.length);
+		expect(r.corners[0].label).toBe('Vin nom, Iout nom');
+		expect(r.corners.map((c) => c.label)).toContain('Vin max, Iout min, L +20 %, C −20 %, C1 +10 %');
 		const pms = r.corners.map((c) => c.phaseMarginDeg!);
 		expect(r.worst.phaseMarginDeg!.value).toBe(Math.min(...pms));
 		expect(r.worst.crossoverHighHz!.value).toBe(Math.max(...r.corners.map((c) => c.crossoverHz!)));
@@ -32,8 +38,8 @@ describe('corners', () => {
 		const tol = { l: 0.2, c: 0.2, esr: 0.3, esl: 0.3, dcr: 0.1, r2: 0.01, r3: 0.01, c1: 0.1, c2: 0.1, c3: 0.1 };
 		const r = runCorners(spec, { vin: { min: 10, max: 14 }, tolerances: tol, maxCorners: 64 });
 		expect(r.mode).toBe('one-at-a-time');
-		// per operating point: centre + 2 per part + 4 linearised worst; plus the nominal
-		expect(r.corners).toHaveLength(1 + 3 * (1 + 2 * 10 + 4));
+		// per operating point: centre + 2 per part + 4 linearised worst (the nominal is the nominal operating point's centre)
+		expect(r.corners).toHaveLength(3 * (1 + 2 * 10 + 4));
 		// The linearised worst PM corner is at least as bad as every single-part corner at its operating point
 		const lin = r.corners.filter((c) => c.kind === 'linearised-worst');
 		expect(lin.length).toBe(12);

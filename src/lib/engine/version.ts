@@ -1,0 +1,7 @@
+/**
+ * The engine's results version. Bump it whenever a change can move a stored figure (a margin,
+ * the corner set, a verdict rule): stored verdicts carry the version they were computed with, and
+ * a re-verification after a bump flags the rails whose verdict changed.
+ * History: 2 = governing margins by smallest |PM| / |GM|, one corner set, verdict from the document's targets.
+ */
+export const ENGINE_VERSION = '2';
