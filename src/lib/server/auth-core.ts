@@ -15,6 +15,7 @@ import { invitationMail, passwordResetMail } from './mail/messages';
 import * as audit from './services/audit';
 import { CLIENT_IP_HEADER, signInThrottle } from './sign-in-throttle';
 import { accountRequestThrottle } from './account-request-throttle';
+import { membershipGuard } from './membership-guard';
 
 const DEV_SECRET = 'loopwright-development-secret-not-for-production-use';
 
@@ -117,6 +118,8 @@ export function createAuth(db: Database, extraPlugins: BetterAuthPlugin[] = []) 
 			signInThrottle(),
 			// Sign-ups and reset-link requests per client address, also for the forms' in-process calls.
 			accountRequestThrottle(),
+			// Role changes and removals only through our API, which keeps one owner under a row lock.
+			membershipGuard(),
 			...extraPlugins
 		]
 	});

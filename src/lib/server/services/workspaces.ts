@@ -2,16 +2,16 @@
 // creation writes the same rows better-auth's organization plugin writes (organization + an
 // owner member), so both paths agree; invitations live in ./invitations.ts.
 import { randomUUID } from 'node:crypto';
-import { and, asc, eq, ne } from 'drizzle-orm';
+import { and, asc, eq } from 'drizzle-orm';
 import type { z } from 'zod';
 import type { Database } from '../db';
 import { member, organization, user, workspaceSetting } from '../db/schema';
-import { ApiError } from '../http/errors';
+import { ApiError, forbidden, notFound } from '../http/errors';
 import { DEFAULT_MARGIN_TARGETS, type workspaceCreateSchema, type workspaceUpdateSchema } from '../../schemas/workspace';
-import type { Role } from '../authz/permissions';
+import { can, type Role } from '../authz/permissions';
 import * as audit from './audit';
 import { uniqueOr409 } from './errors';
-import type { Actor, MarginTargets } from './types';
+import type { Actor, Executor, MarginTargets } from './types';
 
 export type Workspace = typeof organization.$inferSelect;
 
@@ -105,20 +105,36 @@ export async function getMember(db: Database, workspaceId: string, memberId: str
 	return row ?? null;
 }
 
-/** A workspace always keeps at least one owner. */
-async function assertAnotherOwner(db: Database, target: Member) {
-	if (target.role !== 'owner') return;
-	const others = await db
-		.select({ id: member.id })
-		.from(member)
-		.where(and(eq(member.organizationId, target.organizationId), eq(member.role, 'owner'), ne(member.id, target.id)))
-		.limit(1);
-	if (others.length === 0) throw new ApiError(422, 'last-owner', 'a workspace needs at least one owner; make someone else owner first');
+/**
+ * The workspace's member rows, locked until the transaction ends (SELECT … FOR UPDATE on the
+ * organisation index). Every role change and removal takes this lock first, so two of them on one
+ * workspace run one after the other and each decides on rows no one else can change meanwhile.
+ */
+async function lockMembers(tx: Executor, workspaceId: string) {
+	return tx.select({ id: member.id, userId: member.userId, role: member.role }).from(member).where(eq(member.organizationId, workspaceId)).for('update');
+}
+
+type LockedMember = Awaited<ReturnType<typeof lockMembers>>[number];
+
+/**
+ * Under the lock: the actor may still do this (a concurrent change may have demoted or removed
+ * them since the request's role check), the target still exists, and a workspace always keeps at
+ * least one owner after the change.
+ */
+function decideUnderLock(rows: LockedMember[], actor: Actor, targetId: string, action: 'member.updateRole' | 'member.remove', roleAfter: Role | null) {
+	const actorRow = rows.find((r) => r.userId === actor.userId);
+	if (!actorRow) throw notFound('member');
+	if (!can(actorRow.role, action)) throw forbidden(action);
+	const target = rows.find((r) => r.id === targetId);
+	if (!target) throw notFound('member');
+	const ownersAfter = rows.filter((r) => (r.id === target.id ? roleAfter : r.role) === 'owner').length;
+	if (ownersAfter === 0) throw new ApiError(422, 'last-owner', 'a workspace needs at least one owner; make someone else owner first');
+	return target;
 }
 
 export async function setMemberRole(db: Database, actor: Actor, target: Member, role: Role) {
-	if (role !== 'owner') await assertAnotherOwner(db, target);
-	await db.transaction(async (tx) => {
+	return db.transaction(async (tx) => {
+		const current = decideUnderLock(await lockMembers(tx, target.organizationId), actor, target.id, 'member.updateRole', role);
 		await tx.update(member).set({ role }).where(eq(member.id, target.id));
 		await audit.record(tx, {
 			workspaceId: target.organizationId,
@@ -126,16 +142,16 @@ export async function setMemberRole(db: Database, actor: Actor, target: Member, 
 			action: 'member.updateRole',
 			entityType: 'member',
 			entityId: target.id,
-			before: { userId: target.userId, role: target.role },
-			after: { userId: target.userId, role }
+			before: { userId: current.userId, role: current.role },
+			after: { userId: current.userId, role }
 		});
+		return { ...target, role };
 	});
-	return { ...target, role };
 }
 
 export async function removeMember(db: Database, actor: Actor, target: Member) {
-	await assertAnotherOwner(db, target);
 	await db.transaction(async (tx) => {
+		const current = decideUnderLock(await lockMembers(tx, target.organizationId), actor, target.id, 'member.remove', null);
 		await tx.delete(member).where(eq(member.id, target.id));
 		await audit.record(tx, {
 			workspaceId: target.organizationId,
@@ -143,7 +159,7 @@ export async function removeMember(db: Database, actor: Actor, target: Member) {
 			action: 'member.remove',
 			entityType: 'member',
 			entityId: target.id,
-			before: { userId: target.userId, role: target.role }
+			before: { userId: current.userId, role: current.role }
 		});
 	});
 }
