@@ -15,7 +15,7 @@ export function membershipGuard(): BetterAuthPlugin {
 		hooks: {
 			before: [
 				{
-					matcher: (ctx) => (MEMBERSHIP_PATHS as readonly string[]).includes(ctx.path),
+					matcher: (ctx) => (MEMBERSHIP_PATHS as readonly (string | undefined)[]).includes(ctx.path),
 					handler: createAuthMiddleware(async () => {
 						throw new APIError('FORBIDDEN', {
 							code: 'USE_WORKSPACE_API',

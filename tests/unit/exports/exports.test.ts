@@ -200,3 +200,19 @@ describe('design JSON export and import', () => {
 		expect(!big.ok && big.error.fields['(document)']).toMatch(/larger than/);
 	});
 });
+
+describe('fontkit and empty glyphs', () => {
+	it("JetBrains Mono's last glyph, the empty spacer of its code ligatures, is measured instead of throwing", async () => {
+		const { readFileSync: read } = await import('node:fs');
+		const { create } = await import('fontkit');
+		const { guardEmptyGlyphs } = await import('$lib/server/exports/fontkitEmptyGlyphs');
+		guardEmptyGlyphs();
+		const font = create(read(jetBrainsMonoTtf())) as import('fontkit').Font;
+		const run = font.layout('fc 40k -> 60k');
+		const last = font.getGlyph(font.numGlyphs - 1);
+		expect(run.glyphs.map((g) => g.id)).toContain(last.id); // the ligature does substitute the spacer
+		// A monospaced face: every glyph, the empty spacer included, advances the same width [published: JetBrains Mono, a monospaced typeface].
+		expect(last.advanceWidth).toBe(font.getGlyph(font.glyphsForString('x')[0].id).advanceWidth);
+		expect([last.cbox.width, last.cbox.height]).toEqual([0, 0]); // no outline, no box
+	});
+});

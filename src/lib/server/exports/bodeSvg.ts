@@ -6,6 +6,7 @@
  */
 import { scaleLinear, scaleLog, type ScaleLinear, type ScaleLogarithmic } from 'd3-scale';
 import { line } from 'd3-shape';
+import { drawableText } from './drawableText';
 import { formatDb, formatDeg, formatEng } from './format';
 import type { ExportPlot, ExportTrace, ExportTraceKind } from './plotTypes';
 import { PALETTES, PLOT_FONT_FAMILY, type Palette, type ThemeName } from './theme';
@@ -275,4 +276,5 @@ function logTicks(startHz: number, stopHz: number): { major: number[]; minor: nu
 
 const inRange = (f: number, lo: number, hi: number) => Number.isFinite(f) && f >= lo && f <= hi;
 const r = (v: number) => (Number.isFinite(v) ? Math.round(v * 100) / 100 : 0);
-const esc = (s: string) => s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;');
+/** Text content for XML: characters XML 1.0 forbids become U+FFFD first (drawableText), then the markup characters are escaped. */
+const esc = (s: string) => drawableText(s).replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;');

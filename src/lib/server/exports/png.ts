@@ -1,11 +1,11 @@
 /**
  * Bode plot as PNG: the exported SVG rasterised by resvg (@resvg/resvg-js, a prebuilt binary that arrives as an npm
- * optional dependency; no download step) with JetBrains Mono loaded from its npm TTFs and no system fonts, so the
+ * optional dependency; no download step) with JetBrains Mono and its fallbacks loaded from npm TTFs and no system fonts, so the
  * picture is the same on every server.
  */
 import { Resvg } from '@resvg/resvg-js';
 import { renderBodeSvg, type BodeSvgOptions } from './bodeSvg';
-import { jetBrainsMonoTtf } from './fonts';
+import { plotFontFiles } from './fonts';
 import type { ExportPlot } from './plotTypes';
 import { PLOT_FONT_FAMILY } from './theme';
 
@@ -20,7 +20,8 @@ export function svgToPng(svg: string, options: PngOptions = {}): Buffer {
 		fitTo: options.pixelWidth ? { mode: 'width', value: Math.round(options.pixelWidth) } : { mode: 'original' },
 		font: {
 			loadSystemFonts: false,
-			fontFiles: [jetBrainsMonoTtf('regular'), jetBrainsMonoTtf('bold')],
+			// JetBrains Mono first; resvg takes a glyph it lacks from the fallbacks (DejaVu Sans, Noto Emoji).
+			fontFiles: plotFontFiles(),
 			defaultFontFamily: PLOT_FONT_FAMILY,
 			monospaceFamily: PLOT_FONT_FAMILY
 		}

@@ -8,7 +8,8 @@ import PDFDocument from 'pdfkit';
 import type { AnalysisResponse, DesignDocument } from '$lib/engine';
 import { networkRoots, plotFromResponse } from './plotData';
 import { renderBodePng } from './png';
-import { jetBrainsMonoTtf } from './fonts';
+import { drawableText } from './drawableText';
+import { fontFor, registerReportFonts, useFontFor } from './pdfFonts';
 import { formatDb, formatDeg, formatEng, formatHz } from './format';
 import { PALETTES } from './theme';
 
@@ -68,14 +69,13 @@ export function buildSignoffPdf(input: SignoffReportInput, options: PdfOptions =
 		compress: options.compress ?? true,
 		bufferPages: true,
 		info: {
-			Title: `Sign-off report: ${input.rail.name} ${input.revision.label}`,
+			Title: drawableText(`Sign-off report: ${input.rail.name} ${input.revision.label}`),
 			Creator: 'Loopwright',
 			Producer: 'Loopwright (pdfkit)',
 			CreationDate: input.generatedAt ?? new Date()
 		}
 	});
-	doc.registerFont('mono', jetBrainsMonoTtf('regular'));
-	doc.registerFont('mono-bold', jetBrainsMonoTtf('bold'));
+	registerReportFonts(doc);
 	const chunks: Buffer[] = [];
 	const done = new Promise<Buffer>((resolve, reject) => {
 		doc.on('data', (c: Buffer) => chunks.push(c));
@@ -91,15 +91,15 @@ export function buildSignoffPdf(input: SignoffReportInput, options: PdfOptions =
 	// Header.
 	doc.font('Helvetica-Bold').fontSize(18).fillColor(INK).text('Loop sign-off report');
 	doc.moveDown(0.2);
-	doc.font('Helvetica').fontSize(11).fillColor(INK);
-	doc.text(`Rail ${input.rail.name}${input.rail.board ? ` on board ${input.rail.board}` : ''}, revision ${input.revision.label}${input.revision.status ? ` (${input.revision.status})` : ''}`);
+	const railLine = `Rail ${input.rail.name}${input.rail.board ? ` on board ${input.rail.board}` : ''}, revision ${input.revision.label}${input.revision.status ? ` (${input.revision.status})` : ''}`;
+	doc.fontSize(11).fillColor(INK).text(useFontFor(doc, 'prose', railLine));
 	const meta = [
 		input.revision.author ? `author ${input.revision.author}` : null,
 		input.revision.createdAt ? `saved ${dateText(input.revision.createdAt)}` : null,
 		`report generated ${dateText(input.generatedAt ?? new Date())}`
 	].filter(Boolean);
-	doc.fillColor(MUTED).fontSize(9).text(meta.join(' · '));
-	if (input.rail.notes) doc.fillColor(INK).fontSize(10).text(input.rail.notes);
+	doc.fillColor(MUTED).fontSize(9).text(useFontFor(doc, 'prose', meta.join(' · ')));
+	if (input.rail.notes) doc.fillColor(INK).fontSize(10).text(useFontFor(doc, 'prose', input.rail.notes, { multiline: true }));
 	doc.moveDown(0.6);
 
 	// Cautions, prominent above 60 V.
@@ -172,8 +172,8 @@ export function buildSignoffPdf(input: SignoffReportInput, options: PdfOptions =
 	// Warnings.
 	if (input.response.warnings.length > 0) {
 		heading(doc, 'Engine warnings');
-		doc.font('Helvetica').fontSize(9).fillColor(INK);
-		for (const wn of input.response.warnings) doc.text(`- ${latin(wn.message)}`, { width: w });
+		doc.fontSize(9).fillColor(INK);
+		for (const wn of input.response.warnings) doc.text(useFontFor(doc, 'prose', `- ${wn.message}`), { width: w });
 		doc.moveDown(0.6);
 	}
 
@@ -234,7 +234,7 @@ function rows(doc: PDFKit.PDFDocument, items: [string, string][]) {
 	for (const [label, value] of items) {
 		const y = doc.y;
 		doc.font('Helvetica').fontSize(9).fillColor(MUTED).text(label, left, y, { width: 95 });
-		doc.font('mono').fontSize(8.5).fillColor(INK).text(value, left + 100, y, { width: w - 100 });
+		doc.fontSize(8.5).fillColor(INK).text(useFontFor(doc, 'mono', value), left + 100, y, { width: w - 100 });
 		doc.x = left;
 	}
 }
@@ -242,14 +242,16 @@ function rows(doc: PDFKit.PDFDocument, items: [string, string][]) {
 function table(doc: PDFKit.PDFDocument, header: string[], widths: number[], body: { cells: string[]; colour?: string }[]) {
 	const left = doc.page.margins.left;
 	const draw = (cells: string[], bold: boolean, colour?: string) => {
-		doc.font(bold ? 'Helvetica-Bold' : 'mono').fontSize(bold ? 9 : 8.5);
-		const h = Math.max(...cells.map((c, i) => doc.heightOfString(c || ' ', { width: widths[i] - 6 }))) + 4;
+		doc.fontSize(bold ? 9 : 8.5);
+		// Each cell in the face that can show it, measured in that same face.
+		const set = cells.map((c) => fontFor(bold ? 'prose-bold' : 'mono', c || ' '));
+		const h = Math.max(...set.map((c, i) => doc.font(c.font).heightOfString(c.text || ' ', { width: widths[i] - 6 }))) + 4;
 		if (doc.y + h > doc.page.height - doc.page.margins.bottom) doc.addPage();
 		const y = doc.y;
 		let x = left;
-		cells.forEach((c, i) => {
-			const last = i === cells.length - 1;
-			doc.fillColor(last && colour ? colour : INK).text(c, x, y + 2, { width: widths[i] - 6 });
+		set.forEach((c, i) => {
+			const last = i === set.length - 1;
+			doc.font(c.font).fillColor(last && colour ? colour : INK).text(c.text, x, y + 2, { width: widths[i] - 6 });
 			x += widths[i];
 		});
 		doc.y = y + h;
@@ -315,14 +317,4 @@ function partRole(name: string): string {
 function dateText(x: string | Date): string {
 	const d = typeof x === 'string' ? new Date(x) : x;
 	return Number.isNaN(d.getTime()) ? String(x) : d.toISOString().replace('T', ' ').slice(0, 16) + ' UTC';
-}
-
-/** Helvetica (WinAnsi) cannot show every character an engine message may hold; swap the common ones. */
-function latin(s: string): string {
-	return s
-		.replace(/−/g, '-')
-		.replace(/≥/g, '>=')
-		.replace(/≤/g, '<=')
-		.replace(/Ω/g, ' ohm')
-		.replace(/[^\x20-\x7e\xa0-\xff]/g, '?');
 }
