@@ -1,9 +1,9 @@
-// Request pipeline: record the client address, identify the caller (better-auth session
+// Request pipeline: security headers on every answer, record the client address, identify the caller (better-auth session
 // cookie, or an API token on /api/v1), then guard the request (body size, signed-in areas,
 // development-only pages). Every endpoint still checks the caller's role itself through
 // $lib/server/authz/guard.
 import { building } from '$app/environment';
-import { redirect, type Handle } from '@sveltejs/kit';
+import { isRedirect, redirect, type Handle } from '@sveltejs/kit';
 import { sequence } from '@sveltejs/kit/hooks';
 import { svelteKitHandler } from 'better-auth/svelte-kit';
 import { auth } from '$lib/server/auth';
@@ -12,6 +12,7 @@ import { isProduction } from '$lib/server/env';
 import { errorResponse, ApiError, databaseUnavailable, isDatabaseUnavailable } from '$lib/server/http/errors';
 import { databaseAnswers } from '$lib/server/health';
 import { MAX_BODY_BYTES } from '$lib/server/http/request';
+import { withSecurityHeaders } from '$lib/server/http/securityHeaders';
 import { BENCH_MAX_BYTES } from '$lib/bench';
 import * as tokens from '$lib/server/services/tokens';
 import { CLIENT_IP_HEADER } from '$lib/server/sign-in-throttle';
@@ -89,14 +90,17 @@ const guard: Handle = async ({ event, resolve }) => {
 	if ((path === '/dev' || path.startsWith('/dev/')) && isProduction()) {
 		return new Response('Not found', { status: 404 });
 	}
-	const response = await resolve(event);
-	try {
-		response.headers.set('x-content-type-options', 'nosniff');
-		response.headers.set('referrer-policy', 'same-origin');
-	} catch {
-		// Responses passed through from fetch() have immutable headers; they keep their own.
-	}
-	return response;
+	return resolve(event);
 };
 
-export const handle = sequence(clientAddress, identify, guard);
+/** First in the chain, so better-auth's answers, the early 503s and redirects thrown by a hook get the headers too. */
+const securityHeaders: Handle = async ({ event, resolve }) => {
+	try {
+		return withSecurityHeaders(await resolve(event));
+	} catch (error) {
+		if (isRedirect(error)) return withSecurityHeaders(new Response(null, { status: error.status, headers: { location: error.location } }));
+		throw error;
+	}
+};
+
+export const handle = sequence(securityHeaders, clientAddress, identify, guard);

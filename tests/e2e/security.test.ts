@@ -5,7 +5,7 @@
 import { expect, test } from '@playwright/test';
 import { randomUUID } from 'node:crypto';
 import { apiHandlers, pageServerExports } from '../integration/security/routes';
-import { originHeaders, PASSWORD, signUp } from './support/fixtures';
+import { createWorkspace, originHeaders, PASSWORD, signUp } from './support/fixtures';
 
 const EVIL = 'https://evil.example';
 const FORM_TYPES: [string, (fields: Record<string, string>) => string][] = [
@@ -64,4 +64,39 @@ test('workspace and board names holding markup render as text, never as markup',
 		expect(await page.evaluate(() => (window as unknown as { __pwned?: number }).__pwned), path).toBeUndefined();
 		expect(await page.locator('img[src="x"]').count(), path).toBe(0);
 	}
+});
+
+test('pages run under the Content-Security-Policy with no violation, and the theme script still runs', async ({ page, baseURL }) => {
+	const problems: string[] = [];
+	page.on('console', (m) => {
+		if (m.type() === 'error') problems.push(`console: ${m.text()}`);
+	});
+	page.on('pageerror', (e) => problems.push(`page error: ${e.message}`));
+	// Init scripts come from the browser's debugging protocol, not the page, so the policy does not stop this one.
+	await page.addInitScript(() => {
+		document.addEventListener('securitypolicyviolation', (e) => {
+			const w = window as unknown as { __violations?: string[] };
+			(w.__violations ??= []).push(`${e.violatedDirective} ${e.blockedURI}`);
+		});
+	});
+	await signUp(page.request, baseURL!, 'Policy Reader');
+	const workspaceId = await createWorkspace(page.request, baseURL!, 'Policy team');
+	for (const path of ['/', '/sign-in', '/try', '/w', `/w/${workspaceId}`, `/w/${workspaceId}/templates`]) {
+		const response = await page.goto(path);
+		expect(response?.headers()['content-security-policy'], path).toMatch(/frame-ancestors 'none'/);
+		await page.waitForLoadState('networkidle');
+		// The inline theme script in app.html carries the page's nonce, so it ran before first paint.
+		expect(await page.evaluate(() => document.documentElement.dataset.theme), path).toMatch(/^(light|dark)$/);
+		expect(await page.evaluate(() => (window as unknown as { __violations?: string[] }).__violations ?? []), path).toEqual([]);
+	}
+	expect(problems).toEqual([]);
+});
+
+test('another site cannot frame the app', async ({ page, baseURL }) => {
+	// A page of another origin (about:blank with content) framing the sign-in page: Chromium refuses to render it.
+	await page.setContent(`<iframe src="${baseURL}/sign-in" width="600" height="400"></iframe>`);
+	await page.waitForTimeout(1000);
+	const frame = page.frames().find((f) => f !== page.mainFrame());
+	const shown = frame ? await frame.evaluate(() => document.body?.innerText ?? '').catch(() => '') : '';
+	expect(shown).not.toContain('Sign in');
 });
