@@ -27,6 +27,8 @@ import { readFileSync } from 'node:fs';
 import { loadavg } from 'node:os';
 import mysql from 'mysql2/promise';
 import { buckDesign } from '../tests/integration/support/designs';
+import { ensureMailFake } from '../tests/integration/support/mail-fake';
+import { confirmationLink } from '../tests/integration/support/mail';
 
 const args = new Set(process.argv.slice(2));
 const ROOT = process.cwd();
@@ -125,8 +127,10 @@ async function signedInTeam(origin: string, label: string) {
 	const email = `${label}-${Date.now()}@example.test`;
 	const up = await fetch(`${origin}/api/auth/sign-up/email`, { method: 'POST', headers: { origin, 'content-type': 'application/json' }, body: JSON.stringify({ email, password: PASSWORD, name: `Load ${label}` }) });
 	if (up.status !== 200) throw new Error(`sign-up failed: ${up.status} ${await up.text()}`);
+	// No session before the address is confirmed: open the link the server mailed to the fake.
+	const link = await confirmationLink(email);
 	const jar = new CookieJar();
-	jar.update(up);
+	jar.update(await fetch(origin + link.pathname + link.search, { redirect: 'manual' }));
 	const cookie = jar.header;
 	const call = async (method: string, path: string, body?: unknown) => {
 		const r = await fetch(origin + path, { method, headers: { origin, cookie, 'content-type': 'application/json' }, body: body === undefined ? undefined : JSON.stringify(body) });
@@ -394,6 +398,9 @@ async function faultRun() {
 }
 
 async function main() {
+	// The servers mail sign-up confirmations to a fake SMTP server whose folder this process reads.
+	const mailer = await ensureMailFake();
+	if (mailer) process.on('exit', () => mailer.child.kill('SIGTERM'));
 	if (!args.has('--no-build')) {
 		log('building');
 		sh('npx vite build --logLevel warn', { BETTER_AUTH_SECRET: SECRET, LOOPWRIGHT_ENV: 'test' });

@@ -21,7 +21,7 @@ export BODY_SIZE_LIMIT="${BODY_SIZE_LIMIT:-7M}"
 banner() {
 	log "Loopwright is at $ORIGIN"
 	npx tsx scripts/demo-users.ts | sed 's/^/[loopwright] /'
-	log "captured e-mail: $ORIGIN/dev/mail (owners, development only)"
+	log "captured e-mail: $ORIGIN/dev/mail shows each signed-in user their own; before signing in: npm run -s mail -- ADDRESS"
 	log "stop the database afterwards with: npm run db:stop"
 }
 

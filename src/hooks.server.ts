@@ -16,6 +16,7 @@ import { withSecurityHeaders } from '$lib/server/http/securityHeaders';
 import { BENCH_MAX_BYTES } from '$lib/bench';
 import * as tokens from '$lib/server/services/tokens';
 import { CLIENT_IP_HEADER } from '$lib/server/sign-in-throttle';
+import { signInPath } from '$lib/safeRedirect';
 
 /**
  * The client address better-auth's limiter and our sign-in throttle key on, always overwritten:
@@ -85,7 +86,7 @@ const guard: Handle = async ({ event, resolve }) => {
 		return response;
 	}
 	if (SIGNED_IN_AREAS.some((area) => path === area || path.startsWith(`${area}/`)) && !event.locals.user) {
-		redirect(303, `/sign-in?redirectTo=${encodeURIComponent(path + event.url.search)}`);
+		redirect(303, signInPath(path + event.url.search));
 	}
 	if ((path === '/dev' || path.startsWith('/dev/')) && isProduction()) {
 		return new Response('Not found', { status: 404 });

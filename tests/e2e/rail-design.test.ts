@@ -2,15 +2,12 @@
 // an edit is saved as revision r1 with a message, and a reload shows the saved state.
 import { expect, test } from '@playwright/test';
 import { randomUUID } from 'node:crypto';
+import { signUp } from './support/fixtures';
 
 test('an owner opens a rail, changes L, saves r1 and sees it after a reload', async ({ page, baseURL }) => {
 	const origin = { origin: baseURL! };
 	const tag = randomUUID().slice(0, 8);
-	const signUp = await page.request.post('/api/auth/sign-up/email', {
-		headers: origin,
-		data: { email: `rail-${tag}@example.test`, password: 'e2e-pass-12345', name: 'Rail Tester' }
-	});
-	expect(signUp.status()).toBe(200);
+	await signUp(page.request, baseURL!, 'Rail Tester');
 	const ws = await (await page.request.post('/api/v1/workspaces', { headers: origin, data: { name: `Rail ${tag}`, slug: `rail-${tag}` } })).json();
 	const project = await (await page.request.post(`/api/v1/projects?workspace=${ws.id}`, { headers: origin, data: { name: 'Test board' } })).json();
 	const railRes = await page.request.post(`/api/v1/projects/${project.id}/rails`, {

@@ -6,6 +6,7 @@ import { expect, test } from '@playwright/test';
 import { randomUUID } from 'node:crypto';
 import { apiHandlers, pageServerExports } from '../integration/security/routes';
 import { createWorkspace, originHeaders, PASSWORD, signUp } from './support/fixtures';
+import { confirmationLink } from '../integration/support/mail';
 
 const EVIL = 'https://evil.example';
 const FORM_TYPES: [string, (fields: Record<string, string>) => string][] = [
@@ -99,4 +100,41 @@ test('another site cannot frame the app', async ({ page, baseURL }) => {
 	const frame = page.frames().find((f) => f !== page.mainFrame());
 	const shown = frame ? await frame.evaluate(() => document.body?.innerText ?? '').catch(() => '') : '';
 	expect(shown).not.toContain('Sign in');
+});
+
+test('a signed-in user sent to /sign-in?redirectTo=/<TAB>/evil.example stays on this site', async ({ page, baseURL }) => {
+	await signUp(page.request, baseURL!, 'Redirect Target');
+	// [published: WHATWG URL Standard] the browser drops the tab, so an unchecked Location would be //evil.example/phish.
+	for (const attack of ['%2F%09%2Fevil.example%2Fphish', '%2F%5Cevil.example', '%2F%2Fevil.example']) {
+		await page.goto(`/sign-in?redirectTo=${attack}`);
+		expect(new URL(page.url()).origin, attack).toBe(baseURL);
+		expect(new URL(page.url()).pathname, attack).toBe('/w');
+	}
+});
+
+test('sign-up in the browser: the page says to check the mail; the mailed link confirms, signs in and opens the invitation', async ({ page, browser, baseURL }) => {
+	const ownerContext = await browser.newContext({ baseURL });
+	const owner = ownerContext.request;
+	await signUp(owner, baseURL!, 'Inviting Owner');
+	const workspaceId = await createWorkspace(owner, baseURL!, 'Confirm team');
+	const email = `confirm-${randomUUID().slice(0, 8)}@example.test`;
+	const invited = await owner.post(`/api/v1/workspaces/${workspaceId}/invitations`, { headers: originHeaders(baseURL!), data: { email, role: 'engineer' } });
+	expect(invited.status()).toBe(201);
+	const invitationPath = `/invitations/${(await invited.json()).id}`;
+
+	await page.goto(invitationPath);
+	await page.getByRole('link', { name: 'Create an account' }).click();
+	await page.getByLabel('Name', { exact: true }).fill('Confirming Engineer');
+	await page.getByLabel('E-mail').fill(email);
+	await page.getByLabel(/^Password/).fill(PASSWORD);
+	await page.getByRole('button', { name: 'Create account' }).click();
+	await expect(page.getByTestId('sign-up-sent')).toContainText(`We sent a confirmation link to ${email}`);
+	expect((await page.request.get('/api/v1/me')).status()).toBe(401);
+
+	const link = await confirmationLink(email);
+	await page.goto(link.pathname + link.search);
+	await expect(page).toHaveURL(new RegExp(`${invitationPath}$`));
+	await page.getByRole('button', { name: 'Accept and open the workspace' }).click();
+	await expect(page).toHaveURL(new RegExp(`/w/${workspaceId}$`));
+	await ownerContext.close();
 });

@@ -1,5 +1,5 @@
-// Sign-off in the browser: an engineer saves a loop and asks a reviewer; the owner sees the
-// e-mail on /dev/mail, the reviewer finds the loop in the review queue and approves it, and the
+// Sign-off in the browser: an engineer saves a loop and asks a reviewer; the reviewer sees the
+// e-mail on /dev/mail (their own mail only), the reviewer finds the loop in the review queue and approves it, and the
 // sign-off PDF downloads. A bench file uploads on the rail screen and overlays the plot, and
 // every export downloads with the right kind of content.
 import { spawn, type ChildProcess } from 'node:child_process';
@@ -61,9 +61,12 @@ test('an engineer requests a review, the reviewer approves it from the queue and
 	await expect(page.getByTestId('rail-revision')).toContainText('r1 · in-review');
 	await page.screenshot({ path: 'test-results/signoff-rail.png', fullPage: true });
 
-	// The owner reads the captured mail on the development mail page.
+	// The reviewer reads their own captured mail on the development mail page; the owner sees none of it.
+	await reviewer.page.goto('/dev/mail');
+	await expect(reviewer.page.getByText('Sign-off requested: VDD_1V8 r1').first()).toBeVisible();
 	await owner.page.goto('/dev/mail');
-	await expect(owner.page.getByText('Sign-off requested: VDD_1V8 r1').first()).toBeVisible();
+	await expect(owner.page.getByRole('heading', { name: 'Captured mail' })).toBeVisible();
+	await expect(owner.page.getByText('Sign-off requested: VDD_1V8 r1')).toHaveCount(0);
 
 	// The reviewer finds it in the queue and opens the review.
 	const rp = reviewer.page;

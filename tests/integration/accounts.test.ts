@@ -26,13 +26,14 @@ describe('invitations', () => {
 		const sent = await team.as.owner.post(`/api/v1/workspaces/${team.workspaceId}/invitations`, { email, role: 'reviewer' });
 		expect(sent.status).toBe(201);
 
-		const mail = await waitForMail(email);
+		const mail = await waitForMail(email, /invited you/);
 		expect(mail.subject).toContain('Workspace team');
 		const link = firstLink(mail.text);
 		expect(link).toBe(`${app.origin}/invitations/${sent.body.id}`);
 
 		const invitee = new Client(app.origin);
 		expect((await invitee.post('/api/auth/sign-up/email', { email, password: PASSWORD, name: 'Invited Reviewer' })).status).toBe(200);
+		await invitee.confirm(email);
 		const accepted = await invitee.post('/api/auth/organization/accept-invitation', { invitationId: sent.body.id });
 		expect(accepted.status, JSON.stringify(accepted.body)).toBe(200);
 
@@ -78,7 +79,7 @@ describe('password reset', () => {
 		const user = await signUp(app.origin, 'forgetful');
 		const anonymous = new Client(app.origin);
 		expect((await anonymous.post('/api/auth/request-password-reset', { email: user.email, redirectTo: '/reset-password' })).status).toBe(200);
-		const link = firstLink((await waitForMail(user.email)).text);
+		const link = firstLink((await waitForMail(user.email, /^Reset your/)).text);
 		const follow = await fetch(link, { redirect: 'manual' });
 		expect(follow.status).toBe(302);
 		const token = new URL(follow.headers.get('location')!, app.origin).searchParams.get('token');

@@ -5,7 +5,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { servedApp } from './support/app';
 import { Client, PASSWORD, uniqueEmail } from './support/client';
 import { buildTeam, testDb, type Team } from './support/fixtures';
-import { waitForMail } from './support/mail';
+import { confirmationLink, waitForMail } from './support/mail';
 
 const app = servedApp();
 let team: Team;
@@ -27,9 +27,19 @@ describe('account pages', () => {
 		expect(tooShort.status).toBe(400);
 		expect(tooShort.body).toContain('at least 10 characters');
 
+		// No session until the address is confirmed: the page says to check the mail.
 		const made = await browser.form('/sign-up?redirectTo=/w/boards', { name: 'Form User', email, password: PASSWORD });
-		expect(made.status).toBe(303);
-		expect(made.location).toBe('/w/boards');
+		expect(made.status).toBe(200);
+		expect(made.body).toContain('We sent a confirmation link to');
+		expect((await browser.get('/api/v1/me')).status).toBe(401);
+		// The mailed link confirms, signs in and continues, through the sign-in page, to where the user was going.
+		const link = await confirmationLink(email);
+		const confirmed = await browser.request('GET', link.pathname + link.search);
+		expect(confirmed.status).toBe(302);
+		expect(confirmed.location).toBe('/sign-in?verified=1&redirectTo=%2Fw%2Fboards');
+		const onward = await browser.request('GET', confirmed.location!);
+		expect(onward.status).toBe(303);
+		expect(onward.location).toBe('/w/boards');
 		expect((await browser.get('/api/v1/me')).body.user.email).toBe(email);
 
 		const out = await browser.form('/sign-out', {});
@@ -62,7 +72,7 @@ describe('account pages', () => {
 		const text = (html: string) => html.replace(/nobody-[^@]+@example\.test|viewer-[^@]+@example\.test/g, '<email>').replace(/<!--[\s\S]*?-->/g, '');
 		expect(text(unknown.body)).toContain('a link to set a new password is on its way');
 		expect(text(known.body)).toContain('a link to set a new password is on its way');
-		expect((await waitForMail(team.as.viewer.email)).subject).toBe('Reset your Loopwright password');
+		expect((await waitForMail(team.as.viewer.email, /^Reset/)).subject).toBe('Reset your Loopwright password');
 	});
 });
 
@@ -75,6 +85,7 @@ describe('invitation page', () => {
 		expect(page.status).toBe(200);
 		expect(page.body).toContain('Workspace team');
 		await invitee.form(`/sign-up?redirectTo=/invitations/${sent.body.id}`, { name: 'Page Invitee', email, password: PASSWORD });
+		await invitee.confirm(email);
 		const accepted = await invitee.form(`/invitations/${sent.body.id}?/accept`, {});
 		expect(accepted.status).toBe(303);
 		expect(accepted.location).toBe(`/w/${team.workspaceId}`);
@@ -84,12 +95,22 @@ describe('invitation page', () => {
 });
 
 describe('captured mail page (development)', () => {
-	it('lists captured messages for owners and refuses other roles', async () => {
-		await team.as.owner.post(`/api/v1/workspaces/${team.workspaceId}/invitations`, { email: uniqueEmail('listed'), role: 'viewer' });
+	it("shows each signed-in user only the messages to their own address, never another's reset or invitation link", async () => {
+		const invited = uniqueEmail('listed');
+		await team.as.owner.post(`/api/v1/workspaces/${team.workspaceId}/invitations`, { email: invited, role: 'viewer' });
+		await new Client(app.origin).post('/api/auth/request-password-reset', { email: team.as.reviewer.email, redirectTo: '/reset-password' });
+		await waitForMail(invited, /invited you/);
+		await waitForMail(team.as.reviewer.email, /^Reset/);
 		const owner = await team.as.owner.request('GET', '/dev/mail');
 		expect(owner.status).toBe(200);
-		expect(owner.body).toContain('invited you to Workspace team');
-		expect((await team.as.viewer.request('GET', '/dev/mail')).status).toBe(403);
-		expect((await team.as.engineer.request('GET', '/dev/mail')).status).toBe(403);
+		// The owner's own confirmation mail is there; the invitation they sent and the reviewer's reset link are not.
+		expect(owner.body).toContain('Confirm your e-mail address');
+		expect(owner.body).not.toContain(invited);
+		expect(owner.body).not.toContain('Reset your Loopwright password');
+		const reviewer = await team.as.reviewer.request('GET', '/dev/mail');
+		expect(reviewer.status).toBe(200);
+		expect(reviewer.body).toContain('Reset your Loopwright password');
+		expect(reviewer.body).not.toContain(invited);
+		expect((await new Client(app.origin).request('GET', '/dev/mail')).status).toBe(303);
 	});
 });

@@ -122,7 +122,7 @@ const cases: RouteCase[] = [
 		action: 'member.remove',
 		prepare: async () => ({ path: `/api/v1/workspaces/${ws()}/members/${await freshMember()}` })
 	},
-	{ method: 'GET', route: '/api/v1/workspaces/[id]/invitations', action: 'member.read', prepare: async () => ({ path: `/api/v1/workspaces/${ws()}/invitations` }) },
+	{ method: 'GET', route: '/api/v1/workspaces/[id]/invitations', action: 'member.invite', prepare: async () => ({ path: `/api/v1/workspaces/${ws()}/invitations` }) },
 	{
 		method: 'POST',
 		route: '/api/v1/workspaces/[id]/invitations',

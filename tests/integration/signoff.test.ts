@@ -60,7 +60,7 @@ describe('review requests and sign-off', () => {
 		expect(asked.body.status).toBe('in-review');
 		expect(asked.body.requests.map((r: { status: string }) => r.status)).toEqual(['pending', 'pending']);
 		expect(asked.body.mail.sent.sort()).toEqual([reviewer.email, owner.email].sort());
-		const mail = await waitForMail(reviewer.email);
+		const mail = await waitForMail(reviewer.email, /^Sign-off requested/);
 		expect(mail.subject).toBe(`Sign-off requested: ${rail.name} r1`);
 		expect(mail.text).toContain(`/w/${team.workspaceId}/reviews/${r1.id}`);
 		expect(mail.text).toContain('check Vin max');
@@ -79,7 +79,7 @@ describe('review requests and sign-off', () => {
 		expect(approved.body.status).toBe('approved');
 		const answers = Object.fromEntries(approved.body.requests.map((r: { reviewerId: string; status: string }) => [r.reviewerId, r.status]));
 		expect(answers).toEqual({ [reviewer.userId]: 'approved', [owner.userId]: 'superseded' });
-		const decision = await waitForMail(engineer.email);
+		const decision = await waitForMail(engineer.email, /^Approved/);
 		expect(decision.subject).toBe(`Approved: ${rail.name} r1`);
 		expect(decision.text).toContain('margins fine');
 
@@ -112,7 +112,7 @@ describe('review requests and sign-off', () => {
 		expect(self.body.error.code).toBe('own-revision');
 		const back = await reviewer.post(`/api/v1/loops/${r1.id}/review`, { action: 'request-changes', comment: 'PM at Vin max is thin' });
 		expect(back.body.status).toBe('changes-requested');
-		const mail = await waitForMail(owner.email);
+		const mail = await waitForMail(owner.email, /^Changes requested/);
 		expect(mail.subject).toBe(`Changes requested: ${rail.name} r1`);
 		expect(mail.text).toContain('PM at Vin max is thin');
 	});

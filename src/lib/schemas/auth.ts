@@ -12,11 +12,3 @@ export const forgotPasswordSchema = z.object({ email });
 export const resetPasswordSchema = z
 	.object({ token: z.string().min(1, 'the link is incomplete'), password, confirm: z.string() })
 	.refine((v) => v.password === v.confirm, { path: ['confirm'], message: 'the passwords differ' });
-
-/** Where a signed-in user lands when no page asked for them: the signed-in area's root. */
-export const APP_HOME = '/w';
-
-/** Only same-site paths (never `//host` or absolute URLs), so a link cannot send users away. */
-export function safeRedirect(value: string | null | undefined, fallback = APP_HOME): string {
-	return value && value.startsWith('/') && !value.startsWith('//') && !value.startsWith('/\\') ? value : fallback;
-}

@@ -1,46 +1,56 @@
 // Account-request throttle: a better-auth plugin that caps account creation and password-reset
-// requests per client address (and reset requests per address and e-mail) in fixed windows, and
-// answers 429 beyond them. Like the sign-in throttle its hooks run for the forms' in-process calls
+// requests per client address (and reset requests per e-mail) in fixed windows, and answers 429
+// beyond them. Like the sign-in throttle its hooks run for the forms' in-process calls
 // (auth.api.signUpEmail, auth.api.requestPasswordReset) as well as for /api/auth, which better-auth's
 // own limiter (HTTP handler only) does not see. Every attempt counts, not only failed ones: the
-// abuse is volume (accounts made by a script, a mailbox flooded with reset links).
+// abuse is volume (accounts made by a script, a mailbox flooded with reset links). The counts live
+// in MariaDB (./rate-limit.ts), shared by every app instance.
 import type { BetterAuthPlugin } from 'better-auth';
 import { APIError, createAuthMiddleware } from 'better-auth/api';
-import { clientAddressOf, FailureCounter, type Window } from './sign-in-throttle';
+import type { Database } from './db';
+import { bucketOf, overLimit, RateLimiter, type Window } from './rate-limit';
+import { clientAddressOf, emailOf } from './sign-in-throttle';
 
 export interface AccountRequestLimits {
 	signUpPerAddress: Window;
-	resetPerAddressAndEmail: Window;
+	resetPerEmail: Window;
 	resetPerAddress: Window;
+}
+
+/** A positive whole number from the environment, else the default. */
+export function limitFromEnv(env: Record<string, string | undefined>, name: string, fallback: number): number {
+	const value = Number(env[name]);
+	return env[name] && Number.isInteger(value) && value > 0 ? value : fallback;
 }
 
 /**
  * [common practice: an office behind one address onboards a team at once, so sign-ups get a wider
  * cap than reset links, which one person needs once or twice]. SIGN_UP_LIMIT_PER_HOUR raises the
  * sign-up cap (an onboarding day; the test suites, which create hundreds of users from 127.0.0.1).
+ * Reset links are capped per e-mail over all client addresses, so rotating addresses does not
+ * flood one mailbox, and per client address over all e-mails.
  */
 export function accountRequestLimits(env: Record<string, string | undefined> = process.env): AccountRequestLimits {
-	const signUps = Number(env.SIGN_UP_LIMIT_PER_HOUR);
 	return {
-		signUpPerAddress: { maxFailures: Number.isInteger(signUps) && signUps > 0 ? signUps : 20, windowSeconds: 3600 },
-		resetPerAddressAndEmail: { maxFailures: 5, windowSeconds: 3600 },
-		resetPerAddress: { maxFailures: 20, windowSeconds: 3600 }
+		signUpPerAddress: { max: limitFromEnv(env, 'SIGN_UP_LIMIT_PER_HOUR', 20), windowSeconds: 3600 },
+		resetPerEmail: { max: 5, windowSeconds: 3600 },
+		resetPerAddress: { max: 20, windowSeconds: 3600 }
 	};
 }
 
 const SIGN_UP_PATH = '/sign-up/email';
 const RESET_PATH = '/request-password-reset';
 
-function tooMany(what: string, waitS: number): APIError {
+function tooMany(what: string, source: string, waitS: number): APIError {
 	return new APIError(
 		'TOO_MANY_REQUESTS',
-		{ code: 'TOO_MANY_REQUESTS', message: `Too many ${what} from this network. Try again in ${Math.ceil(waitS / 60)} min.` },
+		{ code: 'TOO_MANY_REQUESTS', message: `Too many ${what} ${source}. Try again in ${Math.ceil(waitS / 60)} min.` },
 		{ 'retry-after': String(waitS) }
 	);
 }
 
-export function accountRequestThrottle(limits = accountRequestLimits()): BetterAuthPlugin {
-	const counter = new FailureCounter();
+export function accountRequestThrottle(db: Database, limits = accountRequestLimits()): BetterAuthPlugin {
+	const counter = new RateLimiter(db);
 	return {
 		id: 'loopwright-account-request-throttle',
 		hooks: {
@@ -48,23 +58,20 @@ export function accountRequestThrottle(limits = accountRequestLimits()): BetterA
 				{
 					matcher: (ctx) => ctx.path === SIGN_UP_PATH,
 					handler: createAuthMiddleware(async (ctx) => {
-						const key = `sign-up|${clientAddressOf(ctx)}`;
-						const wait = counter.blockedFor(key, limits.signUpPerAddress);
-						if (wait > 0) throw tooMany('sign-ups', wait);
-						counter.fail(key, limits.signUpPerAddress);
+						const count = await counter.hit(bucketOf('sign-up-address', clientAddressOf(ctx)), limits.signUpPerAddress);
+						const wait = overLimit(count, limits.signUpPerAddress);
+						if (wait > 0) throw tooMany('sign-ups', 'from this network', wait);
 					})
 				},
 				{
 					matcher: (ctx) => ctx.path === RESET_PATH,
 					handler: createAuthMiddleware(async (ctx) => {
-						const address = clientAddressOf(ctx);
-						const email = String((ctx.body as { email?: unknown } | undefined)?.email ?? '').trim().toLowerCase();
-						const perEmail = `reset|${address}|${email}`;
-						const perAddress = `reset|${address}`;
-						const wait = Math.max(counter.blockedFor(perEmail, limits.resetPerAddressAndEmail), counter.blockedFor(perAddress, limits.resetPerAddress));
-						if (wait > 0) throw tooMany('password-reset requests', wait);
-						counter.fail(perEmail, limits.resetPerAddressAndEmail);
-						counter.fail(perAddress, limits.resetPerAddress);
+						const perAddress = await counter.hit(bucketOf('reset-address', clientAddressOf(ctx)), limits.resetPerAddress);
+						const addressWait = overLimit(perAddress, limits.resetPerAddress);
+						if (addressWait > 0) throw tooMany('password-reset requests', 'from this network', addressWait);
+						const perEmail = await counter.hit(bucketOf('reset-email', emailOf(ctx)), limits.resetPerEmail);
+						const emailWait = overLimit(perEmail, limits.resetPerEmail);
+						if (emailWait > 0) throw tooMany('password-reset requests', 'for this e-mail', emailWait);
 					})
 				}
 			]

@@ -11,10 +11,12 @@ import * as authSchema from './db/auth-schema';
 import type { Database } from './db';
 import { isProduction } from './env';
 import { sendMail } from './mail/transport';
-import { invitationMail, passwordResetMail } from './mail/messages';
+import { existingAccountMail, invitationMail, passwordResetMail, verifyEmailMail } from './mail/messages';
 import * as audit from './services/audit';
+import * as tokens from './services/tokens';
 import { CLIENT_IP_HEADER, signInThrottle } from './sign-in-throttle';
-import { accountRequestThrottle } from './account-request-throttle';
+import { accountRequestThrottle, accountRequestLimits } from './account-request-throttle';
+import { countInvitation } from './invitation-limits';
 import { membershipGuard } from './membership-guard';
 
 const DEV_SECRET = 'loopwright-development-secret-not-for-production-use';
@@ -47,6 +49,16 @@ export function sessionCacheSeconds(): number {
 	return seconds;
 }
 
+/** The invitation is for the signed-in user's own, confirmed address (checked again here besides the plugin's own checks). */
+function assertInvitee(invitation: { email: string }, user: { email: string; emailVerified?: boolean | null }) {
+	if (invitation.email.toLowerCase() !== user.email.toLowerCase()) {
+		throw new APIError('FORBIDDEN', { code: 'NOT_THE_INVITEE', message: 'This invitation is for another e-mail address.' });
+	}
+	if (!user.emailVerified) {
+		throw new APIError('FORBIDDEN', { code: 'EMAIL_NOT_VERIFIED', message: 'Confirm your e-mail address first (the link is in your mail), then accept.' });
+	}
+}
+
 /** Rejects any role string that is not exactly one of ours (the plugin also accepts `admin`, `member`, lists). */
 function assertOurRole(role: string | undefined) {
 	if (!isRole(role)) {
@@ -57,7 +69,14 @@ function assertOurRole(role: string | undefined) {
 	}
 }
 
-export function createAuth(db: Database, extraPlugins: BetterAuthPlugin[] = []) {
+/** Hours a confirmation link works. [common practice: a day, so a link read the next morning still works] */
+export const VERIFY_LINK_HOURS = 24;
+
+export interface AuthLimits {
+	accountRequests?: ReturnType<typeof accountRequestLimits>;
+}
+
+export function createAuth(db: Database, extraPlugins: BetterAuthPlugin[] = [], limits: AuthLimits = {}) {
 	const baseURL = appOrigin();
 	return betterAuth({
 		appName: 'Loopwright',
@@ -73,10 +92,32 @@ export function createAuth(db: Database, extraPlugins: BetterAuthPlugin[] = []) 
 		emailAndPassword: {
 			enabled: true,
 			minPasswordLength: 10,
+			// No session before the address is confirmed: signing up with someone else's address
+			// gets the squatter nothing (and an invitation to that address stays theirs).
+			requireEmailVerification: true,
 			revokeSessionsOnPasswordReset: true,
 			resetPasswordTokenExpiresIn: 3600,
 			async sendResetPassword({ user, url }) {
 				await sendMail(passwordResetMail({ to: user.email, name: user.name, resetUrl: url }));
+			},
+			// A sign-up with an address that has an account answers like any other (no way to probe
+			// who has one); the owner hears about it by mail.
+			async onExistingUserSignUp({ user }) {
+				await sendMail(existingAccountMail({ to: user.email, name: user.name, signInUrl: `${baseURL}/sign-in`, resetUrl: `${baseURL}/forgot-password` }));
+			},
+			// Whoever had the account may also hold its API tokens: a reset ends those with the sessions.
+			async onPasswordReset({ user }) {
+				await tokens.revokeAll(db, user.id);
+			}
+		},
+		emailVerification: {
+			sendOnSignUp: true,
+			// A sign-in with the right password but an unconfirmed address mails a fresh link.
+			sendOnSignIn: true,
+			autoSignInAfterVerification: true,
+			expiresIn: VERIFY_LINK_HOURS * 3600,
+			async sendVerificationEmail({ user, url }) {
+				await sendMail(verifyEmailMail({ to: user.email, name: user.name, verifyUrl: url }));
 			}
 		},
 		plugins: [
@@ -88,6 +129,8 @@ export function createAuth(db: Database, extraPlugins: BetterAuthPlugin[] = []) 
 				teams: { enabled: false },
 				invitationExpiresIn: 7 * 24 * 3600,
 				cancelPendingInvitationsOnReInvite: true,
+				// Only the confirmed owner of the invited address may accept (or reject) it.
+				requireEmailVerificationOnInvitation: true,
 				async sendInvitationEmail(data) {
 					await sendMail(
 						invitationMail({
@@ -100,7 +143,12 @@ export function createAuth(db: Database, extraPlugins: BetterAuthPlugin[] = []) 
 					);
 				},
 				organizationHooks: {
-					beforeCreateInvitation: async ({ invitation }) => assertOurRole(invitation.role),
+					beforeCreateInvitation: async ({ invitation, inviter }) => {
+						assertOurRole(invitation.role);
+						const refused = await countInvitation(db, { workspaceId: invitation.organizationId, inviterId: inviter.id });
+						if (refused) throw new APIError('TOO_MANY_REQUESTS', { code: 'TOO_MANY_INVITATIONS', message: refused.message }, { 'retry-after': String(refused.waitS) });
+					},
+					beforeAcceptInvitation: async ({ invitation, user }) => assertInvitee(invitation, user),
 					beforeAddMember: async ({ member }) => assertOurRole(member.role),
 					beforeUpdateMemberRole: async ({ newRole }) => assertOurRole(newRole),
 					afterAcceptInvitation: async ({ invitation, member, user }) =>
@@ -115,9 +163,9 @@ export function createAuth(db: Database, extraPlugins: BetterAuthPlugin[] = []) 
 				}
 			}),
 			// Failed sign-ins per client address and account, also for the sign-in form's in-process call.
-			signInThrottle(),
+			signInThrottle(db),
 			// Sign-ups and reset-link requests per client address, also for the forms' in-process calls.
-			accountRequestThrottle(),
+			accountRequestThrottle(db, limits.accountRequests),
 			// Role changes and removals only through our API, which keeps one owner under a row lock.
 			membershipGuard(),
 			...extraPlugins

@@ -4,64 +4,20 @@
 // handler (/api/auth/sign-in/email) and in-process (auth.api.signInEmail from the sign-in form),
 // which better-auth's own rate limiter (HTTP handler only) does not see. Keyed by the trusted
 // client address (CLIENT_IP_HEADER, set by hooks.server.ts) so one client cannot lock out another.
+// The counts live in MariaDB (./rate-limit.ts), so every app instance sees the same ones.
 import type { BetterAuthPlugin } from 'better-auth';
 import { APIError, createAuthMiddleware, getIP, isAPIError } from 'better-auth/api';
+import type { Database } from './db';
+import { bucketOf, overLimit, RateLimiter, type Window } from './rate-limit';
 
 /** Set by the request hook from the socket (or adapter-node's ADDRESS_HEADER); any client value is overwritten. */
 export const CLIENT_IP_HEADER = 'x-loopwright-client-ip';
 
-export interface Window {
-	maxFailures: number;
-	windowSeconds: number;
-}
-
 /** Failed passwords before a pause, per client address + account and per client address alone. [common practice: a handful of tries per account, a wider cap per address] */
 export const SIGN_IN_LIMITS: { perAccount: Window; perAddress: Window } = {
-	perAccount: { maxFailures: 5, windowSeconds: 15 * 60 },
-	perAddress: { maxFailures: 30, windowSeconds: 15 * 60 }
+	perAccount: { max: 5, windowSeconds: 15 * 60 },
+	perAddress: { max: 30, windowSeconds: 15 * 60 }
 };
-
-/** Upper bound on remembered keys, so a flood of made-up addresses cannot grow memory without end. */
-const MAX_KEYS = 100_000;
-
-interface Count {
-	failures: number;
-	resetsAt: number;
-}
-
-/** Failure counts in fixed windows that start at the first failure; one Node process, kept in memory. */
-export class FailureCounter {
-	private readonly counts = new Map<string, Count>();
-
-	/** Seconds until `key` may try again, or 0 when it is not blocked. */
-	blockedFor(key: string, rule: Window, now = Date.now()): number {
-		const count = this.counts.get(key);
-		if (!count || now >= count.resetsAt) return 0;
-		return count.failures >= rule.maxFailures ? Math.ceil((count.resetsAt - now) / 1000) : 0;
-	}
-
-	fail(key: string, rule: Window, now = Date.now()) {
-		const count = this.counts.get(key);
-		if (count && now < count.resetsAt) count.failures += 1;
-		else {
-			if (this.counts.size >= MAX_KEYS) this.prune(now);
-			this.counts.set(key, { failures: 1, resetsAt: now + rule.windowSeconds * 1000 });
-		}
-	}
-
-	clear(key: string) {
-		this.counts.delete(key);
-	}
-
-	private prune(now: number) {
-		for (const [key, count] of this.counts) if (now >= count.resetsAt) this.counts.delete(key);
-		// Still full of live keys: drop the oldest insertions (Map keeps insertion order).
-		for (const key of this.counts.keys()) {
-			if (this.counts.size < MAX_KEYS) break;
-			this.counts.delete(key);
-		}
-	}
-}
 
 const SIGN_IN_PATH = '/sign-in/email';
 
@@ -72,12 +28,30 @@ export function clientAddressOf(ctx: HookContext): string {
 	return (ctx.headers && getIP(ctx.headers, ctx.context.options)) || 'unknown-address';
 }
 
-export function signInThrottle(limits = SIGN_IN_LIMITS): BetterAuthPlugin {
-	const counter = new FailureCounter();
-	const keys = (ctx: HookContext & { body?: unknown }) => {
+/** The e-mail a better-auth call names in its body, trimmed and lower-cased ('' when none). */
+export function emailOf(ctx: { body?: unknown }): string {
+	return String((ctx.body as { email?: unknown } | undefined)?.email ?? '').trim().toLowerCase();
+}
+
+function tooMany(waitS: number): APIError {
+	return new APIError(
+		'TOO_MANY_REQUESTS',
+		{ code: 'TOO_MANY_ATTEMPTS', message: `Too many sign-in attempts. Try again in ${Math.ceil(waitS / 60)} min.` },
+		{ 'retry-after': String(waitS) }
+	);
+}
+
+/**
+ * Every attempt is counted before the password is checked (so parallel guesses cannot all pass a
+ * check made before any of them failed); the after-hook takes the count back for attempts that
+ * were no wrong password: a success (which also clears the account's count), a malformed request,
+ * an unconfirmed address, a server fault.
+ */
+export function signInThrottle(db: Database, limits = SIGN_IN_LIMITS): BetterAuthPlugin {
+	const counter = new RateLimiter(db);
+	const buckets = (ctx: HookContext & { body?: unknown }) => {
 		const address = clientAddressOf(ctx);
-		const email = String((ctx.body as { email?: unknown } | undefined)?.email ?? '').trim().toLowerCase();
-		return { address: `address|${address}`, account: `account|${address}|${email}` };
+		return { address: bucketOf('sign-in-address', address), account: bucketOf('sign-in-account', address, emailOf(ctx)) };
 	};
 	return {
 		id: 'loopwright-sign-in-throttle',
@@ -86,14 +60,16 @@ export function signInThrottle(limits = SIGN_IN_LIMITS): BetterAuthPlugin {
 				{
 					matcher: (ctx) => ctx.path === SIGN_IN_PATH,
 					handler: createAuthMiddleware(async (ctx) => {
-						const key = keys(ctx);
-						const wait = Math.max(counter.blockedFor(key.account, limits.perAccount), counter.blockedFor(key.address, limits.perAddress));
-						if (wait > 0) {
-							throw new APIError(
-								'TOO_MANY_REQUESTS',
-								{ code: 'TOO_MANY_ATTEMPTS', message: `Too many sign-in attempts. Try again in ${Math.ceil(wait / 60)} min.` },
-								{ 'retry-after': String(wait) }
-							);
+						const bucket = buckets(ctx);
+						const address = await counter.hit(bucket.address, limits.perAddress);
+						const addressWait = overLimit(address, limits.perAddress);
+						if (addressWait > 0) throw tooMany(addressWait);
+						const account = await counter.hit(bucket.account, limits.perAccount);
+						const accountWait = overLimit(account, limits.perAccount);
+						if (accountWait > 0) {
+							// Refused before any password check: no guess for the address's count.
+							await counter.refund(bucket.address);
+							throw tooMany(accountWait);
 						}
 					})
 				}
@@ -102,15 +78,14 @@ export function signInThrottle(limits = SIGN_IN_LIMITS): BetterAuthPlugin {
 				{
 					matcher: (ctx) => ctx.path === SIGN_IN_PATH,
 					handler: createAuthMiddleware(async (ctx) => {
-						const key = keys(ctx);
+						const bucket = buckets(ctx);
 						const returned = ctx.context.returned;
-						if (isAPIError(returned)) {
-							// Only wrong credentials count; a malformed request or a server fault is not a guess.
-							if (returned.statusCode === 401) {
-								counter.fail(key.account, limits.perAccount);
-								counter.fail(key.address, limits.perAddress);
-							}
-						} else if (returned !== undefined) counter.clear(key.account);
+						// Only wrong credentials keep their count; a malformed request or a server fault is not a guess.
+						if (isAPIError(returned) && returned.statusCode === 401) return;
+						if (isAPIError(returned) && returned.statusCode === 429) return;
+						await counter.refund(bucket.address);
+						if (isAPIError(returned) || returned === undefined) await counter.refund(bucket.account);
+						else await counter.clear(bucket.account);
 					})
 				}
 			]

@@ -1,10 +1,12 @@
 // Playwright fixtures for the signed-in app. `signUp` creates a fresh user through
-// better-auth's /api/auth endpoints (the session cookie lands in the page's context).
+// better-auth's /api/auth endpoints and opens the confirmation link the app mailed to the local
+// fake (so the session cookie lands in the page's context, as a user's browser would get it).
 // `authenticatedAs(role, into?)` opens a new browser context signed in as a fresh user who
 // holds `role` in a workspace: the owner of `into` invites them and they accept through
 // better-auth; without `into`, a new owner and workspace are made first.
 import { test as base, expect, type APIRequestContext, type Page } from '@playwright/test';
 import { randomUUID } from 'node:crypto';
+import { confirmationLink } from '../../integration/support/mail';
 
 export type Role = 'owner' | 'engineer' | 'reviewer' | 'viewer';
 export const PASSWORD = 'e2e-pass-12345';
@@ -25,6 +27,9 @@ export async function signUp(request: APIRequestContext, baseURL: string, name: 
 	const email = `${name.toLowerCase().replace(/\W+/g, '-')}-${randomUUID().slice(0, 8)}@example.test`;
 	const reply = await request.post('/api/auth/sign-up/email', { headers: originHeaders(baseURL), data: { email, password: PASSWORD, name } });
 	expect(reply.status(), await reply.text()).toBe(200);
+	const link = await confirmationLink(email);
+	const confirmed = await request.get(link.pathname + link.search, { maxRedirects: 0 });
+	expect(confirmed.status(), 'the confirmation link signs in and redirects').toBe(302);
 	return { email, name };
 }
 

@@ -1,15 +1,20 @@
 // A tiny HTTP client for the integration tests: keeps one user's session cookie (or API
 // token) and sends JSON with the app's own Origin, as a browser on the app's page would.
 import { randomUUID } from 'node:crypto';
+import { confirmationLink } from './mail';
 
 export interface Reply<T = any> {
 	status: number;
 	body: T;
+	/** The Location header of a redirect. */
+	location?: string | null;
 }
 
 export class Client {
 	cookie = '';
 	token = '';
+	/** Sent with every request (e.g. which instance a test load balancer should pick). */
+	headers: Record<string, string> = {};
 	constructor(readonly origin: string) {}
 
 	async request<T = any>(method: string, path: string, body?: unknown, headers: Record<string, string> = {}): Promise<Reply<T>> {
@@ -18,6 +23,7 @@ export class Client {
 			redirect: 'manual',
 			headers: {
 				origin: this.origin,
+				...this.headers,
 				...(body !== undefined ? { 'content-type': 'application/json' } : {}),
 				...(this.cookie ? { cookie: this.cookie } : {}),
 				...(this.token ? { authorization: `Bearer ${this.token}` } : {}),
@@ -35,7 +41,7 @@ export class Client {
 		} catch {
 			/* not JSON: keep the text */
 		}
-		return { status: response.status, body: parsed as T };
+		return { status: response.status, body: parsed as T, location: response.headers.get('location') };
 	}
 
 	/** Posts an HTML form (urlencoded), as a browser without JavaScript would. */
@@ -43,12 +49,20 @@ export class Client {
 		const response = await fetch(this.origin + path, {
 			method: 'POST',
 			redirect: 'manual',
-			headers: { origin: this.origin, accept: 'text/html', 'content-type': 'application/x-www-form-urlencoded', ...(this.cookie ? { cookie: this.cookie } : {}) },
+			headers: { origin: this.origin, ...this.headers, accept: 'text/html', 'content-type': 'application/x-www-form-urlencoded', ...(this.cookie ? { cookie: this.cookie } : {}) },
 			body: new URLSearchParams(fields).toString()
 		});
 		const cookies = response.headers.getSetCookie();
 		if (cookies.length) this.cookie = mergeCookies(this.cookie, cookies);
 		return { status: response.status, body: await response.text(), location: response.headers.get('location') };
+	}
+
+	/** Opens the confirmation link mailed to `email`, which confirms the address and signs this client in. */
+	async confirm(email: string): Promise<Reply> {
+		const link = await confirmationLink(email);
+		const reply = await this.request('GET', link.pathname + link.search);
+		if (reply.status !== 302) throw new Error(`confirmation link answered ${reply.status}`);
+		return reply;
 	}
 
 	get = <T = any>(path: string) => this.request<T>('GET', path);
@@ -76,12 +90,13 @@ export function uniqueEmail(label: string) {
 	return `${label}-${randomUUID().slice(0, 8)}@example.test`;
 }
 
-/** Signs up a new user through better-auth's own endpoint; the client then holds the session. */
+/** Signs up a new user through better-auth's own endpoint and opens the mailed confirmation link; the client then holds the session. */
 export async function signUp(origin: string, label: string): Promise<Client & { email: string; userId: string }> {
 	const client = new Client(origin) as Client & { email: string; userId: string };
 	client.email = uniqueEmail(label);
 	const reply = await client.post('/api/auth/sign-up/email', { email: client.email, password: PASSWORD, name: `Test ${label}` });
 	if (reply.status !== 200) throw new Error(`sign-up failed: ${reply.status} ${JSON.stringify(reply.body)}`);
 	client.userId = reply.body.user.id;
+	await client.confirm(client.email);
 	return client;
 }

@@ -8,6 +8,7 @@ declare module 'vitest' {
 	export interface ProvidedContext {
 		appOrigin: string;
 		mailDir: string;
+		smtpPort: string;
 	}
 }
 
@@ -17,5 +18,6 @@ export default async function setup(project: TestProject) {
 	await fetch(app.origin + '/api/v1/analyze', { method: 'POST', headers: { 'content-type': 'application/json', origin: app.origin }, body: '{}' });
 	project.provide('appOrigin', app.origin);
 	project.provide('mailDir', app.mailDir);
+	project.provide('smtpPort', process.env.SMTP_PORT!);
 	return () => app.stop();
 }

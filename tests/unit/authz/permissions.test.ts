@@ -35,8 +35,7 @@ const expected: Record<Action, string> = {
 	'template.update': 'owner engineer',
 	'template.delete': 'owner engineer',
 	'bench.upload': 'owner engineer',
-	'audit.read': 'owner engineer reviewer viewer',
-	'mail.readCaptured': 'owner'
+	'audit.read': 'owner engineer reviewer viewer'
 };
 
 describe('permission matrix', () => {

@@ -1,12 +1,13 @@
 // The permission check for page loads: the same adapter as the API (authorize), with its
 // ApiError turned into SvelteKit's error page (401 → sign-in redirect; 403 and 404 as pages).
 import { error, redirect, type RequestEvent } from '@sveltejs/kit';
+import { signInPath } from '$lib/safeRedirect';
 import { ApiError } from '../http/errors';
 import { authorize, type Access } from './guard';
 import type { Action } from './permissions';
 
 export async function authorizePage(event: RequestEvent, workspaceId: string, action: Action, what = 'page'): Promise<Access> {
-	if (!event.locals.user) redirect(303, `/sign-in?redirectTo=${encodeURIComponent(event.url.pathname + event.url.search)}`);
+	if (!event.locals.user) redirect(303, signInPath(event.url.pathname + event.url.search));
 	try {
 		return await authorize(event, workspaceId, action, what);
 	} catch (e) {

@@ -34,8 +34,7 @@ export const ACTIONS = [
 	'template.update',
 	'template.delete',
 	'bench.upload',
-	'audit.read',
-	'mail.readCaptured'
+	'audit.read'
 ] as const;
 export type Action = (typeof ACTIONS)[number];
 

@@ -261,6 +261,22 @@ export const apiToken = mysqlTable(
 	(t) => [index('api_token_user_idx').on(t.userId)]
 );
 
+/**
+ * Fixed-window request counters of the abuse limits (sign-in failures, sign-ups, reset links,
+ * invitations), kept here rather than in one process's memory so every app instance behind one
+ * address counts together. `bucket` is the limit's name plus a SHA-256 of what it counts by
+ * (client address, e-mail, workspace), so no address or e-mail is stored in the clear.
+ */
+export const rateLimitBucket = mysqlTable(
+	'rate_limit_bucket',
+	{
+		bucket: varchar('bucket', { length: 100 }).primaryKey(),
+		hits: int('hits').notNull(),
+		resetsAt: datetime('resets_at', { fsp: 3 }).notNull()
+	},
+	(t) => [index('rate_limit_bucket_resets_idx').on(t.resetsAt)]
+);
+
 export const projectRelations = relations(project, ({ many }) => ({ rails: many(rail) }));
 export const railRelations = relations(rail, ({ one, many }) => ({
 	project: one(project, { fields: [rail.projectId], references: [project.id] }),

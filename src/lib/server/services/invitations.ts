@@ -8,6 +8,7 @@ import { invitation, member, user } from '../db/schema';
 import { ApiError } from '../http/errors';
 import { sendMail } from '../mail/transport';
 import { invitationMail } from '../mail/messages';
+import { countInvitation } from '../invitation-limits';
 import type { Role } from '../authz/permissions';
 import * as audit from './audit';
 import type { Actor } from './types';
@@ -36,7 +37,8 @@ export async function get(db: Database, workspaceId: string, id: string): Promis
 
 /**
  * Creates a pending invitation (cancelling an earlier pending one to the same address) and
- * e-mails the link. 409 when that address already belongs to a member.
+ * e-mails the link. 409 when that address already belongs to a member; 429 when the inviter or
+ * the workspace sent its hourly share of invitations (../invitation-limits.ts).
  */
 export async function invite(
 	db: Database,
@@ -53,6 +55,8 @@ export async function invite(
 		.where(and(eq(member.organizationId, workspace.id), eq(user.email, email)))
 		.limit(1);
 	if (existing.length > 0) throw new ApiError(409, 'already-member', `${email} is already a member`, { email: 'already a member' });
+	const refused = await countInvitation(db, { workspaceId: workspace.id, inviterId: actor.userId });
+	if (refused) throw new ApiError(429, 'too-many-invitations', refused.message, undefined, { retryAfterS: refused.waitS });
 
 	const now = new Date();
 	const row: Invitation = {

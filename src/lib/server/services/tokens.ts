@@ -49,6 +49,12 @@ export async function revoke(db: Database, userId: string, tokenId: string): Pro
 	return result.affectedRows > 0;
 }
 
+/** Revokes every live token of the user (a password reset: whoever had the account may hold one); answers how many. */
+export async function revokeAll(db: Database, userId: string): Promise<number> {
+	const [result] = await db.update(apiToken).set({ revokedAt: new Date() }).where(and(eq(apiToken.userId, userId), isNull(apiToken.revokedAt)));
+	return result.affectedRows;
+}
+
 /** The user a presented token belongs to, or null when it is unknown, revoked or expired. */
 export async function authenticate(db: Database, token: string) {
 	if (!token.startsWith(TOKEN_PREFIX)) return null;

@@ -14,7 +14,7 @@ export const actions: Actions = {
 			// The request's headers carry the trusted client address the throttle counts by.
 			await auth.api.requestPasswordReset({ body: { email: form.data.email, redirectTo: '/reset-password' }, headers: request.headers });
 		} catch (error) {
-			// Too many requests is said plainly (it is counted per address and e-mail, whether or not an
+			// Too many requests is said plainly (it is counted per e-mail and per client, whether or not an
 			// account exists, so it tells nothing about accounts); any other failure stays silent.
 			if (error instanceof APIError && error.statusCode === 429) return authFailure(error, form.values);
 			console.error('[auth] password reset mail failed:', error);

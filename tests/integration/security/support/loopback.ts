@@ -39,3 +39,12 @@ export function postFromAddress(origin: string, from: string, path: string, kind
 		req.end(body);
 	});
 }
+
+/**
+ * A loopback address no earlier run used (the limits' counts live in the test database for their
+ * window, so a fixed address would find the last run's count): 127.x.y.z, never 127.0.0.1.
+ */
+export function freshLoopback(): string {
+	const byte = () => 1 + Math.floor(Math.random() * 254);
+	return `127.${byte()}.${byte()}.${byte()}`;
+}

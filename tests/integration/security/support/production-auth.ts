@@ -46,11 +46,14 @@ if (mode === 'secret') {
 	result = outcomes;
 }
 else {
-	const a = await signInBurst(5, '203.0.113.7', 'first@example.test');
-	const b = await signInBurst(2, '203.0.113.8', 'second@example.test');
+	// Fresh addresses and accounts on every run: the sign-in counts outlive a run in the test database.
+	const run = Math.random().toString(36).slice(2, 10);
+	const host = () => 1 + Math.floor(Math.random() * 254);
+	const a = await signInBurst(5, `203.0.113.${host()}`, `first-${run}@example.test`);
+	const b = await signInBurst(2, `192.0.2.${host()}`, `second-${run}@example.test`);
 	// Without the hook's header the client has no address of its own: a new X-Forwarded-For on
 	// every request does not buy a fresh bucket.
-	const c = await signInBurst(4, null, 'third@example.test', (i) => `198.51.100.${i + 1}`);
+	const c = await signInBurst(4, null, `third-${run}@example.test`, (i) => `198.51.100.${i + 1}`);
 	result = { sameClient: a, otherClient: b, rotatingForwardedFor: c };
 }
 console.log(JSON.stringify(result));

@@ -1,4 +1,5 @@
-// GET /api/v1/workspaces/{id}/invitations: invitations and their status (members may read).
+// GET /api/v1/workspaces/{id}/invitations: invitations and their status (owners only: the list
+// names invited addresses and, while one is pending, whom a sign-up with that address would join).
 // POST: invite an e-mail address with one of our four roles (owner); the link goes by e-mail.
 import { db } from '$lib/server/db';
 import { appOrigin } from '$lib/server/auth-core';
@@ -12,7 +13,7 @@ import * as workspaces from '$lib/server/services/workspaces';
 import type { RequestHandler } from './$types';
 
 export const GET: RequestHandler = endpoint(async (event) => {
-	const access = await authorize(event, event.params.id, 'member.read', 'workspace');
+	const access = await authorize(event, event.params.id, 'member.invite', 'workspace');
 	return { items: await invitations.list(db, access.workspaceId) };
 });
 
