@@ -63,9 +63,9 @@ def analyse(doc: dict) -> dict:
     g = ph + 180
     jdx = np.nonzero(np.diff(np.sign(g)) != 0)[0]
     gms = [-(mag[j] + g[j] / (g[j] - g[j + 1]) * (mag[j + 1] - mag[j])) for j in jdx]
-    gm_pos = [x for x in gms if x > 0]
-    worst = min(crossings, key=lambda c: c[1]) if crossings else (None, None)
-    return {"crossoverHz": worst[0], "phaseMarginDeg": worst[1], "gainMarginDb": min(gm_pos) if gm_pos else None}
+    # governing margins: smallest |PM| and smallest |GM dB| (python-control stability_margins convention, from memory)
+    worst = min(crossings, key=lambda c: abs(c[1])) if crossings else (None, None)
+    return {"crossoverHz": worst[0], "phaseMarginDeg": worst[1], "gainMarginDb": min(gms, key=abs) if gms else None}
 
 
 def main():

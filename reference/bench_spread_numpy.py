@@ -87,7 +87,8 @@ def margins(f: np.ndarray, t: np.ndarray) -> tuple:
         x = mag[i] / (mag[i] - mag[i + 1])
         pm = (180 + ph[i] + x * (ph[i + 1] - ph[i]) + 180) % 360 - 180
         pm = 180.0 if pm == -180 else pm
-        if best[1] is None or pm < best[1]:
+        # governing crossing: smallest |PM| (python-control stability_margins convention, from memory)
+        if best[1] is None or abs(pm) < abs(best[1]):
             best = (10 ** (lf[i] + x * (lf[i + 1] - lf[i])), pm)
     # phase crossovers: the integer index of the -180 + k*360 line changes between neighbours
     k = np.floor((ph + 180) / 360)
@@ -96,7 +97,7 @@ def margins(f: np.ndarray, t: np.ndarray) -> tuple:
         line = 360 * max(k[j], k[j + 1]) - 180
         x = (ph[j] - line) / (ph[j] - ph[j + 1])
         g = -(mag[j] + x * (mag[j + 1] - mag[j]))
-        if g > 0 and (gm is None or g < gm):
+        if gm is None or abs(g) < abs(gm):
             gm = g
     return best[0], best[1], gm
 
@@ -132,9 +133,12 @@ def analyse_broadcast(case: dict) -> dict:
     pm = (180 + ph[rows, i] + x * (ph[rows, i + 1] - ph[rows, i]) + 180) % 360 - 180
     pm[pm == -180] = 180.0
     fc = 10 ** (lf[i] + x * (lf[i + 1] - lf[i]))
+    # governing crossing per sample: smallest |PM| (python-control stability_margins convention, from memory)
+    best_abs = np.full(n, np.inf)
+    np.minimum.at(best_abs, rows, np.abs(pm))
+    pick = np.abs(pm) == best_abs[rows]
     best_pm = np.full(n, np.inf)
-    np.minimum.at(best_pm, rows, pm)
-    pick = pm == best_pm[rows]
+    best_pm[rows[pick]] = pm[pick]
     best_fc = np.full(n, np.nan)
     best_fc[rows[pick]] = fc[pick]
     k = np.floor((ph + 180) / 360)
@@ -142,8 +146,12 @@ def analyse_broadcast(case: dict) -> dict:
     line = 360 * np.maximum(k[rj, j], k[rj, j + 1]) - 180
     y = (ph[rj, j] - line) / (ph[rj, j] - ph[rj, j + 1])
     g = -(mag[rj, j] + y * (mag[rj, j + 1] - mag[rj, j]))
+    # governing phase crossing per sample: smallest |GM dB|
+    gm_abs = np.full(n, np.inf)
+    np.minimum.at(gm_abs, rj, np.abs(g))
+    take = np.abs(g) == gm_abs[rj]
     best_gm = np.full(n, np.inf)
-    np.minimum.at(best_gm, rj[g > 0], g[g > 0])
+    best_gm[rj[take]] = g[take]
     none = lambda a: [None if not np.isfinite(v) else float(v) for v in a]
     return {"crossoverHz": none(best_fc), "phaseMarginDeg": none(best_pm), "gainMarginDb": none(best_gm)}
 

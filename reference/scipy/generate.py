@@ -307,12 +307,13 @@ def loop_metrics(ev: Evaluator) -> dict:
             f180 = scipy.optimize.brentq(lambda x: ev.phase_at(x) - target, f[i], f[i + 1], xtol=1e-13 * f[i], rtol=1e-15)
             phase_crossings.append({"freqHz": f180, "gainMarginDb": -20 * ev.logmag_at(f180) / np.log(10)})
     phase_crossings.sort(key=lambda c: c["freqHz"])
-    gm_pos = [c["gainMarginDb"] for c in phase_crossings if c["gainMarginDb"] > 0]
-    worst = min(crossings, key=lambda c: c["phaseMarginDeg"]) if crossings else None
+    # governing margins: smallest |PM| and smallest |GM dB| (python-control stability_margins convention, from memory)
+    worst = min(crossings, key=lambda c: abs(c["phaseMarginDeg"])) if crossings else None
+    governing_gm = min(phase_crossings, key=lambda c: abs(c["gainMarginDb"])) if phase_crossings else None
     return {
         "crossoverHz": worst["freqHz"] if worst else None,
         "phaseMarginDeg": worst["phaseMarginDeg"] if worst else None,
-        "gainMarginDb": min(gm_pos) if gm_pos else None,
+        "gainMarginDb": governing_gm["gainMarginDb"] if governing_gm else None,
         "crossovers": crossings,
         "phaseCrossovers": phase_crossings,
     }
