@@ -1,18 +1,40 @@
 /**
- * Runs the shared engine for the design screen: the nominal design (placement, rounding,
- * margins), then every corner with the nominal's built parts held fixed, all on one shared
- * frequency grid so traces, hover and the drag preview line up sample for sample.
+ * Runs the shared engine for the design screen's plots: the nominal design (placement, rounding,
+ * margins), then every operating case of the engine's one corner set (corners/operatingCases.ts)
+ * with the nominal's built parts held fixed, all on one shared frequency grid so traces, hover and
+ * the drag preview line up sample for sample. The verdict is not computed here: it is the
+ * engine's verifyDesign of the same document (verifier.ts), as the server stores it.
  */
 import {
 	analyzeDesignDetailed,
 	frequencyResponse,
 	logGrid,
+	operatingPointDocument,
 	type AnalysisDetail,
 	type ContractError,
 	type DesignDocumentInput
 } from '$lib/engine';
-import { designCorners, type DesignCorner } from './corners';
+import { cornerLabel, operatingCases } from '$lib/engine/corners/operatingCases';
 import { fieldForPath, type FormResult, type FormTargets, type OperatingRange } from './form';
+
+export interface DesignCorner {
+	id: string;
+	vin: number;
+	iout: number;
+	nominal: boolean;
+	/** "Vin max, Iout min": the engine's label, the words used in the verdict. */
+	label: string;
+}
+
+/** The operating cases of a range (the engine's one corner set, without tolerances), nominal first. */
+export function designCorners(range: OperatingRange): DesignCorner[] {
+	return operatingCases({
+		vin: range.vin[1],
+		iout: range.iout[1],
+		vinRange: { min: range.vin[0], max: range.vin[2] },
+		ioutRange: { min: range.iout[0], max: range.iout[2] }
+	}).map((c) => ({ id: `vin-${c.vinCase}_iout-${c.ioutCase}`, vin: c.vin, iout: c.iout, nominal: c.nominal, label: cornerLabel(c) }));
+}
 
 export const PLOT_POINTS = 400;
 
@@ -27,7 +49,10 @@ export interface CornerAnalysis {
 
 export interface DesignAnalysis {
 	freqHz: Float64Array;
+	/** The analysed document with the plot's sweep. */
 	document: DesignDocumentInput;
+	/** The same document without the sweep: what is saved and verified. */
+	verifyDocument: DesignDocumentInput;
 	range: OperatingRange;
 	targets: FormTargets;
 	nominal: AnalysisDetail;
@@ -74,16 +99,6 @@ function fixedCompensator(nominal: AnalysisDetail): DesignDocumentInput['compens
 	return out as DesignDocumentInput['compensator'];
 }
 
-export function cornerDocument(doc: DesignDocumentInput, compensator: DesignDocumentInput['compensator'], corner: DesignCorner): DesignDocumentInput {
-	const vrampScale = doc.modulator.feedForward ? corner.vin / doc.plant.vin : 1;
-	return {
-		...doc,
-		plant: { ...doc.plant, vin: corner.vin, iout: corner.iout },
-		modulator: { ...doc.modulator, vramp: doc.modulator.vramp * vrampScale },
-		compensator
-	};
-}
-
 export function analyzeForm(form: FormResult): AnalysisOutcome {
 	if (!form.document || !form.range || !form.targets) return { ok: false, message: 'Some values cannot be read; see the marked fields.', fieldErrors: form.errors };
 	const t0 = performance.now();
@@ -91,18 +106,18 @@ export function analyzeForm(form: FormResult): AnalysisOutcome {
 	const sweep = { freqHz: Array.from(freqHz) };
 	const doc: DesignDocumentInput = { ...form.document, sweep };
 	// The closed-loop section is computed by the panels that show it, only while they are open.
-	const nominal = analyzeDesignDetailed(doc, { closedLoop: false });
+	const nominal = analyzeDesignDetailed(doc, { closedLoop: false, sections: false });
 	if ('error' in nominal) return { ok: false, ...contractMessage(nominal) };
 
 	const compensator = fixedCompensator(nominal);
 	const corners = designCorners(form.range).map((corner): CornerAnalysis => {
 		if (corner.nominal) return { corner, detail: nominal, error: null };
-		const r = analyzeDesignDetailed(cornerDocument(doc, compensator, corner), { closedLoop: false });
+		const r = analyzeDesignDetailed(operatingPointDocument(doc, corner, compensator), { closedLoop: false, sections: false });
 		return 'error' in r ? { corner, detail: null, error: r.error.message } : { corner, detail: r, error: null };
 	});
 	return {
 		ok: true,
-		analysis: { freqHz, document: doc, range: form.range, targets: form.targets, nominal, corners, elapsedMs: performance.now() - t0 }
+		analysis: { freqHz, document: doc, verifyDocument: form.document, range: form.range, targets: form.targets, nominal, corners, elapsedMs: performance.now() - t0 }
 	};
 }
 

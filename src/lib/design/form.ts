@@ -3,8 +3,10 @@
  * follows, and the conversion to a contract-v1 design document (SI units) plus the rail's
  * corners and targets. Field errors are keyed by form field, so they show at the input.
  */
-import type { DesignDocumentInput } from '$lib/engine';
+import { DEFAULT_MARGIN_TARGETS, type DesignDocumentInput } from '$lib/engine';
+import { DEFAULT_SAMPLES, MAX_SAMPLES } from '$lib/engine/spread/spread';
 import { parseQuantity, formatForInput, type QuantityRule, type UnitSymbol } from '$lib/units';
+import { defaultToleranceRows, readTolerances, toleranceRowsFromDocument, type ToleranceRow } from './tolerances';
 
 export type CompensatorKind = 'type1' | 'type2' | 'type3' | 'type2-ota';
 export type PlacementMethod = 'k-factor' | 'features' | 'manual' | 'parts';
@@ -57,6 +59,12 @@ export interface DesignForm {
 	opamp: boolean;
 	a0Db: string;
 	gbw: string;
+	/** The verification spec the document carries (targets above, ranges with the stage). */
+	tolerances: ToleranceRow[];
+	spreadSamples: string;
+	spreadSeed: string;
+	/** Not typed on this screen: from the rail or the saved document. */
+	maxCrossoverFraction: number;
 }
 
 export interface FieldSpec extends QuantityRule {
@@ -91,7 +99,9 @@ export const FIELDS: Record<string, FieldSpec> = {
 	gmTarget: { label: 'Gain margin', unit: '', suffix: 'dB', min: 0, max: 60 },
 	midbandDb: { label: 'Mid-band gain', unit: '', suffix: 'dB', min: -60, max: 100 },
 	a0Db: { label: 'Open-loop gain A0', unit: '', suffix: 'dB', min: 1, max: 200 },
-	gbw: pos('Gain-bandwidth', 'Hz')
+	gbw: pos('Gain-bandwidth', 'Hz'),
+	spreadSamples: { label: 'Samples N', unit: '', integer: true, min: 1, max: MAX_SAMPLES },
+	spreadSeed: { label: 'Seed', unit: '', integer: true, min: 0, max: 2 ** 32 - 1 }
 };
 
 export const CAPACITOR_FIELDS: Record<'c' | 'esr' | 'esl' | 'count', FieldSpec> = {
@@ -238,6 +248,9 @@ export function readForm(form: DesignForm): FormResult {
 	if (form.opamp && form.kind !== 'type2-ota') compensator.opamp = { a0Db: v('a0Db'), gbw: v('gbw') };
 
 	const fsw = v('fsw');
+	const tol = readTolerances(form.tolerances);
+	Object.assign(errors, tol.errors);
+	const tolerances = Object.fromEntries(Object.entries(tol.value ?? {}).map(([k, t]) => [k, { tol: t!.tol, dist: t!.dist, sigmas: t!.sigmas ?? 3 }]));
 	const document: DesignDocumentInput = {
 		schemaVersion: 1,
 		name: form.name || undefined,
@@ -253,7 +266,12 @@ export function readForm(form: DesignForm): FormResult {
 		},
 		modulator: { vramp: v('vramp'), feedForward: form.feedForward, delay: v('delay') },
 		feedback: { vref: v('vref'), r1: v('r1') },
-		compensator: compensator as DesignDocumentInput['compensator']
+		compensator: compensator as DesignDocumentInput['compensator'],
+		// The verification spec: the verdict of this document never depends on settings elsewhere.
+		targets: { phaseMarginDeg: targets.phaseMarginDeg, gainMarginDb: targets.gainMarginDb, maxCrossoverFraction: form.maxCrossoverFraction },
+		corners: { vin: { min: vinMin, max: vinMax }, iout: { min: ioutMin, max: ioutMax } },
+		tolerances,
+		spread: { samples: v('spreadSamples'), seed: v('spreadSeed') }
 	};
 	const ok = Object.keys(errors).length === 0;
 	return {
@@ -333,7 +351,11 @@ export function demoForm(): DesignForm {
 		seriesC: 'E12',
 		opamp: false,
 		a0Db: '100',
-		gbw: '10MEG'
+		gbw: '10MEG',
+		tolerances: defaultToleranceRows(),
+		spreadSamples: String(DEFAULT_SAMPLES),
+		spreadSeed: '1',
+		maxCrossoverFraction: DEFAULT_MARGIN_TARGETS.maxCrossoverFraction
 	};
 }
 
@@ -385,6 +407,7 @@ export function starterForm(rail: RailSummary): DesignForm {
 		fcTarget: toField(rail.fsw / 10, 'Hz', 3),
 		pmTarget: String(targets?.phaseMarginDeg ?? 50),
 		gmTarget: String(targets?.gainMarginDb ?? 10),
+		maxCrossoverFraction: targets?.maxCrossoverFraction ?? DEFAULT_MARGIN_TARGETS.maxCrossoverFraction,
 		method: 'k-factor'
 	};
 }
@@ -410,9 +433,13 @@ type DocLike = {
 		series?: { resistors: SeriesName | null; capacitors: SeriesName | null } | null;
 		opamp?: { a0Db: number; gbw: number };
 	};
+	targets?: { phaseMarginDeg?: number; gainMarginDb?: number; maxCrossoverFraction?: number };
+	corners?: { vin?: { min: number; max: number }; iout?: { min: number; max: number } };
+	tolerances?: DesignDocumentInput['tolerances'];
+	spread?: { samples?: number; seed?: number };
 };
 
-/** A saved design document back into the form (corners and the GM target come from the rail). */
+/** A saved design document back into the form: its own verification spec first, the rail's defaults where it has none. */
 export function formFromDocument(doc: DocLike, rail: RailSummary | null, gmTarget = 10): DesignForm {
 	const p = doc.plant;
 	const c = doc.compensator;
@@ -426,12 +453,12 @@ export function formFromDocument(doc: DocLike, rail: RailSummary | null, gmTarge
 		name: doc.name ?? rail?.name ?? '',
 		topology: p.topology,
 		vin: f(p.vin, 'V'),
-		vinMin: f(rail?.vinMin ?? p.vin, 'V'),
-		vinMax: f(rail?.vinMax ?? p.vin, 'V'),
+		vinMin: f(doc.corners?.vin?.min ?? rail?.vinMin ?? p.vin, 'V'),
+		vinMax: f(doc.corners?.vin?.max ?? rail?.vinMax ?? p.vin, 'V'),
 		vout: f(p.vout, 'V'),
 		iout: f(p.iout, 'A'),
-		ioutMin: f(rail?.ioutMin ?? p.iout, 'A'),
-		ioutMax: f(rail?.ioutMax ?? p.iout, 'A'),
+		ioutMin: f(doc.corners?.iout?.min ?? rail?.ioutMin ?? p.iout, 'A'),
+		ioutMax: f(doc.corners?.iout?.max ?? rail?.ioutMax ?? p.iout, 'A'),
 		fsw: f(p.fsw, 'Hz'),
 		l: f(p.inductor.l, 'H'),
 		dcr: f(p.inductor.dcr ?? 0, 'Ω'),
@@ -443,8 +470,12 @@ export function formFromDocument(doc: DocLike, rail: RailSummary | null, gmTarge
 		vref: f(doc.feedback.vref, 'V'),
 		r1: f(doc.feedback.r1, 'Ω'),
 		fcTarget: f(t?.crossoverHz ?? p.fsw / 10, 'Hz'),
-		pmTarget: String(t?.phaseMarginDeg ?? rail?.effectiveMarginTargets?.phaseMarginDeg ?? 50),
-		gmTarget: String(rail?.effectiveMarginTargets?.gainMarginDb ?? gmTarget),
+		pmTarget: String(doc.targets?.phaseMarginDeg ?? t?.phaseMarginDeg ?? rail?.effectiveMarginTargets?.phaseMarginDeg ?? 50),
+		gmTarget: String(doc.targets?.gainMarginDb ?? rail?.effectiveMarginTargets?.gainMarginDb ?? gmTarget),
+		maxCrossoverFraction: doc.targets?.maxCrossoverFraction ?? rail?.effectiveMarginTargets?.maxCrossoverFraction ?? DEFAULT_MARGIN_TARGETS.maxCrossoverFraction,
+		tolerances: toleranceRowsFromDocument(doc.tolerances),
+		spreadSamples: String(doc.spread?.samples ?? DEFAULT_SAMPLES),
+		spreadSeed: String(doc.spread?.seed ?? 1),
 		kind: c.kind,
 		method,
 		zeros: pad(t?.zerosHz),

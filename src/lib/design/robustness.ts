@@ -1,19 +1,18 @@
 /**
  * The design screen's robustness panels: their inputs (typed text, read with the units parser
  * into SI values or field errors) and the engine runs behind them — closed-loop responses and
- * steps of the nominal design, corners (Vin × Iout × part tolerances), the Monte Carlo
- * configuration for the worker, and the input-filter check. All engine work is the shared
+ * steps of the nominal design, the Monte Carlo configuration for the worker (the document's own
+ * spread settings) and the input-filter check. The corners come with the verdict (verifier.ts). All engine work is the shared
  * engine's (closedloop/, corners/, spread/, inputfilter/); this module only wires it.
  */
-import type { AnalysisDetail } from '$lib/engine';
+import { spreadTargetsOf, targetsOf, type AnalysisDetail, type DesignDocument } from '$lib/engine';
 import { robustnessSections, type ClosedLoopReport } from '$lib/engine/closedloop/sections';
-import { runCorners, type CornerReport } from '$lib/engine/corners/corners';
 import { loopSpecFromDetail, type LoopSpec } from '$lib/engine/corners/loopModel';
-import { partsPresent, type PartName } from '$lib/engine/corners/variation';
+import type { PartName } from '$lib/engine/corners/variation';
 import { analyzeInputFilter, type InputFilterReport } from '$lib/engine/inputfilter/analyzeInputFilter';
-import { MAX_SAMPLES, type PartTolerance, type SpreadConfig } from '$lib/engine/spread/spread';
+import { DEFAULT_SAMPLES, type PartTolerance, type SpreadConfig } from '$lib/engine/spread/spread';
 import { parseQuantity } from '$lib/units';
-import type { FieldSpec, FormTargets, OperatingRange } from './form';
+import type { FieldSpec } from './form';
 
 type Read<T> = { value: T | null; errors: Record<string, string> };
 
@@ -67,92 +66,28 @@ export function closedLoopOf(nominal: AnalysisDetail, loadStep: { step: number; 
 
 // ---------------------------------------------------------------- tolerances
 
-export interface ToleranceRow {
-	part: PartName;
-	label: string;
-	/** Percent text, e.g. "20" for ±20 %. */
-	tol: string;
-	dist: 'uniform' | 'normal';
-}
-
-const PART_LABEL: Record<PartName, string> = {
-	l: 'L',
-	dcr: 'DCR',
-	rdsOn: 'RDS(on)',
-	c: 'C (each branch)',
-	esr: 'ESR',
-	esl: 'ESL',
-	r1: 'R1',
-	r2: 'R2',
-	r3: 'R3',
-	c1: 'C1',
-	c2: 'C2',
-	c3: 'C3',
-	gm: 'gm',
-	ro: 'Ro',
-	vramp: 'Ramp Vpp'
-};
-/** Usual tolerances [common practice: power inductors ±20 %, ceramics ±10–20 %, ESR wide, 1 % resistors, 5 % C0G]. */
-const DEFAULT_TOL: Record<PartName, number> = { l: 20, dcr: 10, rdsOn: 30, c: 20, esr: 50, esl: 30, r1: 1, r2: 1, r3: 1, c1: 5, c2: 5, c3: 5, gm: 20, ro: 20, vramp: 5 };
-
-export const TOL_SPEC: FieldSpec = { label: 'Tolerance', unit: '', suffix: '%', min: 0, max: 90 };
-
-/** One row per part the loop has, with the usual tolerance; rows the user already set are kept. */
-export function toleranceRows(spec: LoopSpec, previous: ToleranceRow[] = []): ToleranceRow[] {
-	return partsPresent(spec).map((part) => previous.find((r) => r.part === part) ?? { part, label: PART_LABEL[part], tol: String(DEFAULT_TOL[part]), dist: part === 'l' || part === 'c' ? 'normal' : 'uniform' });
-}
-
-export function readTolerances(rows: ToleranceRow[]): Read<Partial<Record<PartName, PartTolerance>>> {
-	const { errors, num } = reader();
-	const out: Partial<Record<PartName, PartTolerance>> = {};
-	for (const r of rows) {
-		const pct = num(`tol.${r.part}`, r.tol, TOL_SPEC);
-		if (pct > 0) out[r.part] = { tol: pct / 100, dist: r.dist, sigmas: 3 };
-	}
-	return Object.keys(errors).length ? { value: null, errors } : { value: out, errors };
-}
+export { TOL_SPEC, readTolerances, presentRows, type ToleranceRow } from './tolerances';
 
 export function specOf(nominal: AnalysisDetail): LoopSpec {
 	return loopSpecFromDetail(nominal);
 }
 
-// ---------------------------------------------------------------- corners
-
-/** Above this many corners the screen runs each part alone plus the linearised worst cases. */
-export const SCREEN_MAX_CORNERS = 512;
-
-export function cornersOf(nominal: AnalysisDetail, range: OperatingRange, tolerances: Partial<Record<PartName, PartTolerance>>, freqHz: ArrayLike<number>): CornerReport {
-	const tol: Partial<Record<PartName, number>> = {};
-	for (const [k, t] of Object.entries(tolerances)) if (t) tol[k as PartName] = t.tol;
-	return runCorners(
-		specOf(nominal),
-		{ vin: { min: range.vin[0], max: range.vin[2] }, iout: { min: range.iout[0], max: range.iout[2] }, tolerances: tol, maxCorners: SCREEN_MAX_CORNERS },
-		freqHz
-	);
-}
-
 // ---------------------------------------------------------------- Monte Carlo
 
-export interface SpreadForm {
-	samples: string;
-	seed: string;
-}
-export const SPREAD_FIELDS: Record<keyof SpreadForm, FieldSpec> = {
-	samples: { label: 'Samples N', unit: '', integer: true, min: 1, max: MAX_SAMPLES },
-	seed: { label: 'Seed', unit: '', integer: true, min: 0, max: 2 ** 32 - 1 }
-};
 
-export function readSpread(f: SpreadForm, rows: ToleranceRow[], targets: FormTargets): Read<SpreadConfig> {
-	const { errors, num } = reader();
-	const samples = num('samples', f.samples, SPREAD_FIELDS.samples);
-	const seed = num('seed', f.seed, SPREAD_FIELDS.seed);
-	const t = readTolerances(rows);
-	Object.assign(errors, t.errors);
-	if (Object.keys(errors).length || !t.value) return { value: null, errors };
-	if (Object.keys(t.value).length === 0) return { value: null, errors: { ...errors, tolerances: 'give at least one part a tolerance > 0 %' } };
+/**
+ * The spread run of the design screen: exactly the document's spread settings, tolerances and
+ * yield targets (the same run the stored verdict makes), for the worker.
+ */
+export function spreadConfigOf(doc: DesignDocument): Read<SpreadConfig> {
+	const t = doc.tolerances ?? {};
+	const tolerances: Partial<Record<PartName, PartTolerance>> = {};
+	for (const [name, x] of Object.entries(t)) if (x && x.tol > 0) tolerances[name as PartName] = { tol: x.tol, dist: x.dist, sigmas: x.sigmas };
+	if (Object.keys(tolerances).length === 0) return { value: null, errors: { tolerances: 'give at least one part a tolerance > 0 %' } };
+	const s = doc.spread ?? { samples: DEFAULT_SAMPLES, seed: 1, bins: 40, targets: undefined };
 	return {
-		value: { samples, seed, tolerances: t.value, targets: { phaseMarginDeg: targets.phaseMarginDeg, gainMarginDb: targets.gainMarginDb }, bins: 40 },
-		errors
+		value: { samples: s.samples, seed: s.seed, tolerances, targets: s.targets ?? spreadTargetsOf(targetsOf(doc), doc.plant.fsw), bins: s.bins },
+		errors: {}
 	};
 }
 

@@ -17,6 +17,7 @@ import { defaultSweepRange, logGrid } from './sweep/grid';
 import { multiply } from './tf/algebra';
 import { frequencyResponse } from './tf/evaluate';
 import { robustnessSections } from './closedloop/sections';
+import { modulatorInputOf, stageInputOf } from './pipeline/documentModel';
 import type { FactoredTf } from './tf/types';
 
 export interface AnalyzeOptions {
@@ -73,18 +74,8 @@ export function analyzeValidatedDesign(document: DesignDocument, options: Analyz
 
 function run(d: DesignDocument, options: AnalyzeOptions): AnalysisDetail {
 	const p = d.plant;
-	const plant = powerStage({
-		topology: p.topology,
-		vin: p.vin,
-		vout: p.vout,
-		iout: p.iout,
-		fswHz: p.fsw,
-		l: p.inductor.l,
-		dcr: p.inductor.dcr,
-		rdsOn: p.rdsOn,
-		capacitors: p.capacitors
-	});
-	const mod = { vramp: d.modulator.vramp, feedForward: d.modulator.feedForward, delayS: d.modulator.delay };
+	const plant = powerStage(stageInputOf(d));
+	const mod = modulatorInputOf(d);
 	const plantLoop = multiply(modulatorTf(mod, p.vin), plant.gvd);
 
 	// Plot grid: the document's sweep, or two decades below f0 to fsw/2 (400 points).

@@ -39,4 +39,5 @@ export * from './analysis';
 export * from './contract';
 export * from './analyze';
 export * from './verify';
+export * from './pipeline';
 export { ENGINE_VERSION } from './version';

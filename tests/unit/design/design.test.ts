@@ -6,7 +6,7 @@ import { analyzeForm } from '$lib/design/analysis';
 import { demoForm, readForm } from '$lib/design/form';
 import { gridMargins } from '$lib/design/gridMargins';
 import { builtNetwork, manualPlacement, moveCorner, previewFrame, startDrag } from '$lib/design/preview';
-import { verdictOf } from '$lib/design/verdict';
+import { verifyDesign, type Verification } from '$lib/engine';
 
 function demoAnalysis() {
 	const outcome = analyzeForm(readForm(demoForm()));
@@ -44,11 +44,20 @@ describe('analyzeForm', () => {
 		expect(ideal.crossoverHz! / 60e3).toBeCloseTo(1, 3);
 		expect(ideal.phaseMarginDeg!).toBeCloseTo(55, 1);
 	});
-	it('a verdict names the worst corner', () => {
-		const v = verdictOf(a);
+	it('the document it saves carries the whole verification spec, and its verdict names the worst corner', () => {
+		const doc = a.verifyDocument;
+		expect(doc.sweep).toBeUndefined();
+		expect(doc.targets).toEqual({ phaseMarginDeg: 55, gainMarginDb: 10, maxCrossoverFraction: 0.2 });
+		expect(doc.corners).toEqual({ vin: { min: 10.8, max: 13.2 }, iout: { min: 2, max: 10 } });
+		expect(doc.tolerances!.l).toEqual({ tol: 0.2, dist: 'normal', sigmas: 3 });
+		expect(doc.spread).toEqual({ samples: 1000, seed: 1 });
+		// a smaller spread keeps this unit test quick; the rule is the same
+		const v = verifyDesign({ ...doc, spread: { samples: 50, seed: 1 } }) as Verification;
 		const pm = v.rows.find((r) => r.metric === 'pm')!;
-		expect(pm.corner).toMatch(/^Vin (min|nom|max), Iout (min|nom|max)$/);
+		// the corner label: operating case then the parts off nominal (engine corners/operatingCases.ts)
+		expect(pm.corner).toMatch(/^Vin (min|nom|max), Iout (min|nom|max)(, .+ [+−][\d.]+ %)*$/);
 		expect(pm.reason).toContain(pm.corner!);
+		expect(v.corners.list[0].label).toBe('Vin nom, Iout nom');
 	});
 });
 

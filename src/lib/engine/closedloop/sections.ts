@@ -19,6 +19,7 @@ import type { Bode } from './responses';
 import { roundDecimals } from '../math/displayRounding';
 import { spreadTargetsOf, targetsOf } from '../contract/targetsSchema';
 import { cornerChecksFor } from '../verify/checks';
+import { modulatorInputOf } from '../pipeline/documentModel';
 
 /** The closed-loop model's input for an analysed design: its built network, modulator and stage. */
 export function closedLoopInputOf(detail: AnalysisDetail, freqHz: ArrayLike<number>, loadStep?: LoadStepSettings): ClosedLoopInput {
@@ -26,7 +27,7 @@ export function closedLoopInputOf(detail: AnalysisDetail, freqHz: ArrayLike<numb
 	return {
 		plant: detail.plant,
 		compensator: detail.compensator.built,
-		modulator: modulatorTf({ vramp: d.modulator.vramp, feedForward: d.modulator.feedForward, delayS: d.modulator.delay }, d.plant.vin),
+		modulator: modulatorTf(modulatorInputOf(d), d.plant.vin),
 		dividerRatio: d.feedback.vref / d.plant.vout,
 		vout: d.plant.vout,
 		capacitors: d.plant.capacitors,

@@ -12,6 +12,7 @@ import type { PlantModel, PowerStageInput } from '../plants/types';
 import type { NetworkParts } from '../synthesis/networks';
 import { multiply } from '../tf/algebra';
 import type { FactoredTf } from '../tf/types';
+import { modulatorInputOf, stageInputOf } from '../pipeline/documentModel';
 
 export interface LoopSpec {
 	stage: PowerStageInput;
@@ -63,18 +64,8 @@ export function loopSpecFromDetail(detail: AnalysisDetail): LoopSpec {
 			break;
 	}
 	return {
-		stage: {
-			topology: p.topology,
-			vin: p.vin,
-			vout: p.vout,
-			iout: p.iout,
-			fswHz: p.fsw,
-			l: p.inductor.l,
-			dcr: p.inductor.dcr,
-			rdsOn: p.rdsOn,
-			capacitors: p.capacitors.map((c) => ({ c: c.c, esr: c.esr, esl: c.esl, count: c.count }))
-		},
-		modulator: { vramp: d.modulator.vramp, feedForward: d.modulator.feedForward, delayS: d.modulator.delay },
+		stage: stageInputOf(d),
+		modulator: modulatorInputOf(d),
 		vinNominal: p.vin,
 		parts,
 		opamp: d.compensator.opamp ?? null,

@@ -1,0 +1,49 @@
+/**
+ * The design document mapped to the models' inputs, in one place: the model folders (plants/,
+ * compensators/, corners/, spread/) never see the document. analyze.ts, the corners' loop spec,
+ * the closed-loop section and every screen that moves a design to another operating point use
+ * these.
+ */
+import type { DesignDocument, DesignDocumentInput } from '../contract/designSchema';
+import { rampAmplitude, type ModulatorInput } from '../plants/modulator';
+import type { PowerStageInput } from '../plants/types';
+
+/** The power stage of a validated document, at its nominal point or at another Vin / Iout. */
+export function stageInputOf(d: DesignDocument, at?: { vin: number; iout: number }): PowerStageInput {
+	const p = d.plant;
+	return {
+		topology: p.topology,
+		vin: at?.vin ?? p.vin,
+		vout: p.vout,
+		iout: at?.iout ?? p.iout,
+		fswHz: p.fsw,
+		l: p.inductor.l,
+		dcr: p.inductor.dcr,
+		rdsOn: p.rdsOn,
+		capacitors: p.capacitors.map((c) => ({ c: c.c, esr: c.esr, esl: c.esl, count: c.count }))
+	};
+}
+
+/** The modulator of a validated document (vramp is the ramp at plant.vin). */
+export function modulatorInputOf(d: DesignDocument): ModulatorInput {
+	return { vramp: d.modulator.vramp, feedForward: d.modulator.feedForward, delayS: d.modulator.delay };
+}
+
+/**
+ * The document moved to another operating point with a given compensator section: plant.vin and
+ * plant.iout replaced, and the ramp given at the new vin (with feed-forward it follows Vin; the
+ * rule is rampAmplitude's, plants/modulator.ts).
+ */
+export function operatingPointDocument(
+	doc: DesignDocumentInput,
+	at: { vin: number; iout: number },
+	compensator: DesignDocumentInput['compensator']
+): DesignDocumentInput {
+	const mod = { vramp: doc.modulator.vramp, feedForward: doc.modulator.feedForward ?? false, delayS: doc.modulator.delay ?? 0 };
+	return {
+		...doc,
+		plant: { ...doc.plant, vin: at.vin, iout: at.iout },
+		modulator: { ...doc.modulator, vramp: rampAmplitude(mod, at.vin, doc.plant.vin) },
+		compensator
+	};
+}

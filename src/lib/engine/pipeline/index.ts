@@ -1,0 +1,2 @@
+/** Document → model inputs (one place; model folders never see the document). */
+export * from './documentModel';
