@@ -1,5 +1,6 @@
 // Saved loops: append-only revisions with optimistic concurrency (409 on a stale base),
-// engine-validated design documents, metrics at every corner, and the sign-off flow.
+// engine-validated design documents completed with the rail's verification spec, the verdict
+// stored at save, and the sign-off flow.
 import './support/env';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { servedApp } from './support/app';
@@ -53,31 +54,70 @@ describe('loop revisions', () => {
 		expect(replies.map((r) => r.status).sort()).toEqual([201, 409]);
 	});
 
-	it('stores metrics at all six corners; without feed-forward the crossover rises with Vin', async () => {
+	it('stores the document with the rail’s spec and the engine’s verdict; without feed-forward the crossover rises with Vin', async () => {
 		const eng = team.as.engineer;
 		const head = (await eng.get(`/api/v1/rails/${railId}`)).body.latestRevision as number;
 		const saved = await eng.post(`/api/v1/rails/${railId}/loops`, { baseRevision: head, design: buckDesign(), message: 'corners' });
+		expect(saved.status).toBe(201);
 		const loop = await eng.get(`/api/v1/loops/${saved.body.id}`);
 		expect(loop.status).toBe(200);
-		const metrics = loop.body.metrics as { corner: { vin: number; iout: number }; crossoverHz: number }[];
-		expect(metrics.map((m) => `${m.corner.vin}/${m.corner.iout}`)).toEqual(['12/3', '12/0.2', '9/3', '9/0.2', '16/3', '16/0.2']);
-		const fc = (vin: number) => metrics.find((m) => m.corner.vin === vin && m.corner.iout === 3)!.crossoverHz;
+		// The rail's ranges, tolerances (percent → fraction) and the workspace targets fill the document.
+		const design = loop.body.design;
+		expect(design.corners).toEqual({ vin: { min: 9, max: 16 }, iout: { min: 0.2, max: 3 } });
+		expect(design.tolerances.l.tol).toBeCloseTo(0.2, 12);
+		expect(design.targets).toEqual({ phaseMarginDeg: 45, gainMarginDb: 10, maxCrossoverFraction: 0.2 });
+		expect(design.spread).toMatchObject({ samples: expect.any(Number), seed: 1 });
+		const { spread: _s, corners: _c, tolerances: _t, targets: _g, ...rest } = design;
+		expect(rest).toEqual(buckDesign());
+		const v = loop.body.verification;
+		expect(loop.body.engineVersion).toBe(v.engineVersion);
+		expect(['pass', 'caution', 'fail']).toContain(v.status);
+		expect(v.targets.phaseMarginDeg).toBe(45);
+		// Operating cases Vin {9, 12, 16} × Iout {0.2, 2, 3}, each with the parts as built (no factors).
+		const ops = (v.corners.list as { vin: number; iout: number; factors: Record<string, number>; crossoverHz: number }[]).filter((c) => Object.keys(c.factors).length === 0);
+		const cases = new Set(ops.map((c) => `${c.vin}/${c.iout}`));
+		for (const vin of [9, 12, 16]) for (const iout of [0.2, 2, 3]) expect(cases.has(`${vin}/${iout}`), `${vin} V, ${iout} A`).toBe(true);
+		const fc = (vin: number) => ops.find((m) => m.vin === vin && m.iout === 3)!.crossoverHz;
 		// [fact of the trade] voltage-mode buck: the modulator and power stage together have the
 		// gain Vin/Vramp, so with a fixed ramp the crossover moves up as Vin rises.
 		expect(fc(9)).toBeLessThan(fc(12));
 		expect(fc(12)).toBeLessThan(fc(16));
 		expect(fc(16) / fc(9)).toBeGreaterThan(1.3);
-		expect(loop.body.design).toEqual(buckDesign());
+		// A list answer carries the verdict without its corner list.
+		const listed = (await eng.get(`/api/v1/rails/${railId}/loops?limit=1`)).body.items[0];
+		expect(listed.verification.status).toBe(v.status);
+		expect(listed.verification.corners.count).toBe(v.corners.count);
+		expect(listed.verification.corners.list).toBeUndefined();
 	});
 
 	it('with feed-forward the crossover stays put across Vin', async () => {
 		const eng = team.as.engineer;
 		const head = (await eng.get(`/api/v1/rails/${railId}`)).body.latestRevision as number;
 		const saved = await eng.post(`/api/v1/rails/${railId}/loops`, { baseRevision: head, design: buckDesign({ feedForward: true }), message: 'ff' });
-		const metrics = saved.body.metrics as { corner: { vin: number; iout: number }; crossoverHz: number }[];
-		const fc = (vin: number) => metrics.find((m) => m.corner.vin === vin && m.corner.iout === 3)!.crossoverHz;
+		const ops = (saved.body.verification.corners.list as { vin: number; iout: number; factors: Record<string, number>; crossoverHz: number }[]).filter((c) => Object.keys(c.factors).length === 0);
+		const fc = (vin: number) => ops.find((m) => m.vin === vin && m.iout === 3)!.crossoverHz;
 		// [fact of the trade] feed-forward scales the ramp with Vin, cancelling the Vin in the gain.
 		expect(Math.abs(fc(16) / fc(9) - 1)).toBeLessThan(0.02);
+	});
+
+	it('a saved verdict keeps its own spec: the design’s targets win at save, and a later rail edit changes nothing stored', async () => {
+		const eng = team.as.engineer;
+		const head = (await eng.get(`/api/v1/rails/${railId}`)).body.latestRevision as number;
+		const own = { ...buckDesign(), targets: { phaseMarginDeg: 65, gainMarginDb: 10, maxCrossoverFraction: 0.2 } };
+		const saved = await eng.post(`/api/v1/rails/${railId}/loops`, { baseRevision: head, design: own, message: 'PM 65 target' });
+		expect(saved.status).toBe(201);
+		expect(saved.body.verification.targets.phaseMarginDeg).toBe(65);
+		const before = (await eng.get(`/api/v1/loops/${saved.body.id}`)).body;
+		const patched = await team.as.owner.patch(`/api/v1/rails/${railId}`, { vinMax: 20, marginTargets: { phaseMarginDeg: 30, gainMarginDb: 3, maxCrossoverFraction: 0.4 }, tolerances: { inductorPct: 40 } });
+		expect(patched.status).toBe(200);
+		const after = (await eng.get(`/api/v1/loops/${saved.body.id}`)).body;
+		expect(after.design).toEqual(before.design);
+		expect(after.verification).toEqual(before.verification);
+		// The rail's new defaults apply to the next revision only.
+		const next = await eng.post(`/api/v1/rails/${railId}/loops`, { baseRevision: saved.body.revision, design: buckDesign(), message: 'after the rail edit' });
+		expect(next.body.design.corners.vin).toEqual({ min: 9, max: 20 });
+		expect(next.body.verification.targets.phaseMarginDeg).toBe(30);
+		await team.as.owner.patch(`/api/v1/rails/${railId}`, { vinMax: 16, marginTargets: null, tolerances: { inductorPct: 20 } });
 	});
 
 	it('refuses invalid designs with field paths, and a design of the wrong topology with 422', async () => {

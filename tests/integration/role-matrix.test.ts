@@ -57,7 +57,6 @@ async function loopInStatus(status: LoopStatus) {
 		revision: 1,
 		schemaVersion: 1,
 		design: buckDesign(),
-		metrics: [],
 		message: 'set-up',
 		status,
 		// Written by the engineer, so the owner and the reviewer may decide on it (never the author).
@@ -145,6 +144,7 @@ const cases: RouteCase[] = [
 	{ method: 'GET', route: '/api/v1/rails/[id]', action: 'rail.read', prepare: async () => ({ path: `/api/v1/rails/${railId}` }) },
 	{ method: 'PATCH', route: '/api/v1/rails/[id]', action: 'rail.update', prepare: async () => ({ path: `/api/v1/rails/${railId}`, body: { notes: unique('n') } }) },
 	{ method: 'DELETE', route: '/api/v1/rails/[id]', action: 'rail.delete', prepare: async () => ({ path: `/api/v1/rails/${await freshRail()}` }) },
+	{ method: 'DELETE', route: '/api/v1/rails/[id]/verdict-flag', action: 'rail.update', prepare: async () => ({ path: `/api/v1/rails/${railId}/verdict-flag` }) },
 	{ method: 'GET', route: '/api/v1/rails/[id]/loops', action: 'loop.read', prepare: async () => ({ path: `/api/v1/rails/${railId}/loops` }) },
 	{
 		method: 'POST',

@@ -98,8 +98,8 @@ describe('review requests and sign-off', () => {
 
 		// r2's report diffs against the approved r1.
 		const report = await reviewer.get(`/api/v1/loops/${r2.id}/report`);
-		expect(report.body.diff).toMatchObject({ baseRevision: 1 });
-		expect(report.body.diff.changes).toEqual([{ path: 'compensator.target.crossoverHz', before: 40_000, after: 30_000 }]);
+		expect(report.body.diffs.approved).toMatchObject({ baseRevision: 1 });
+		expect(report.body.diffs.approved.changes).toEqual([{ path: 'compensator.target.crossoverHz', before: 40_000, after: 30_000 }]);
 	});
 
 	it('refuses an owner approving their own revision (403 own-revision), and lets a reviewer send it back with a note', async () => {
@@ -128,25 +128,44 @@ describe('review requests and sign-off', () => {
 		expect(bad.body.error.fields.freqHz).toBe('must be > 0 Hz');
 	});
 
-	it('reports every corner with a verdict, a step response and a seeded spread', async () => {
+	it('reports the verdict stored at save (never recomputed), a step response, and both diffs', async () => {
 		const rail = await newRail();
 		const r1 = await saveLoop('engineer', rail.id, null);
-		const stored = (await team.as.viewer.get(`/api/v1/loops/${r1.id}`)).body.metrics as { corner: { label: string }; phaseMarginDeg: number }[];
+		const stored = (await team.as.viewer.get(`/api/v1/loops/${r1.id}`)).body.verification;
 		const report = (await team.as.viewer.get(`/api/v1/loops/${r1.id}/report`)).body;
-		// Six corners: Vin min/nom/max × Iout min/max.
-		expect(report.corners).toHaveLength(6);
-		for (const c of report.corners) {
-			expect(['pass', 'caution', 'fail']).toContain(c.verdict.status);
-			// The report and the metrics stored at save time are two paths to the same engine numbers.
-			const same = stored.find((s) => s.corner.label === c.label)!;
-			expect(c.phaseMarginDeg).toBeCloseTo(same.phaseMarginDeg, 3);
-		}
+		const { list: _list, ...counts } = stored.corners;
+		expect(report.verification).toEqual({ ...stored, corners: counts });
+		expect(report.figures.status).toBe(stored.status);
+		// The corner table leads with the corners that set a worst value.
+		expect(report.corners[0].setsWorst).toBe(true);
+		expect(report.corners.map((c: { label: string }) => c.label)).toContain(stored.worst.phaseMarginDeg.corner);
 		expect(report.steps.stable).toBe(true);
 		expect(report.steps.loadStep.figures.peakDeviation).toBeLessThan(0); // more load pulls the output down [fact of the trade]
-		expect(report.spread).toMatchObject({ ok: true, samples: 200, seed: 1 });
-		expect(report.spread.yield.all).toBeGreaterThanOrEqual(0);
-		expect(report.spread.yield.all).toBeLessThanOrEqual(1);
-		expect(report.diff).toBeNull();
+		expect(report.spec.corners).toEqual({ vin: { min: 9, max: 16 }, iout: { min: 0.2, max: 3 } });
+		expect(report.plot.freqHz.length).toBe(400);
+		expect(report.plot.corners.length).toBeGreaterThan(0);
+		expect(report.diffs).toEqual({ previous: null, approved: null });
+	});
+
+	it('r2 after r1 was sent back is compared with r1 (parameters and verdict), and with the last approved revision once there is one', async () => {
+		const { engineer, reviewer } = team.as;
+		const rail = await newRail();
+		const r1 = await saveLoop('engineer', rail.id, null);
+		await engineer.post(`/api/v1/loops/${r1.id}/review`, { action: 'request-review' });
+		await reviewer.post(`/api/v1/loops/${r1.id}/review`, { action: 'request-changes', comment: 'lower the crossover' });
+		const r2 = await saveLoop('engineer', rail.id, 1, buckDesign({ crossoverHz: 25_000 }), 'fc 25 kHz');
+		const view = (await team.as.viewer.get(`/api/v1/loops/${r2.id}/report`)).body;
+		expect(view.diffs.previous).toMatchObject({ baseRevision: 1, baseStatus: 'changes-requested' });
+		expect(view.diffs.previous.changes).toEqual([{ path: 'compensator.target.crossoverHz', before: 40_000, after: 25_000 }]);
+		// A crossover 40 → 25 kHz moves the verdict's worst crossover.
+		expect(view.diffs.previous.verdict.map((v: { metric: string }) => v.metric)).toContain('fc');
+		expect(view.diffs.approved).toBeNull();
+		await engineer.post(`/api/v1/loops/${r2.id}/review`, { action: 'request-review' });
+		await reviewer.post(`/api/v1/loops/${r2.id}/review`, { action: 'approve' });
+		const r3 = await saveLoop('engineer', rail.id, 2, buckDesign({ crossoverHz: 25_000, feedForward: true }), 'feed-forward');
+		const v3 = (await team.as.viewer.get(`/api/v1/loops/${r3.id}/report`)).body;
+		expect(v3.diffs.previous.baseRevision).toBe(2);
+		expect(v3.diffs.approved).toMatchObject({ baseRevision: 2, baseStatus: 'approved', changes: [{ path: 'modulator.feedForward', before: false, after: true }] });
 	});
 });
 
@@ -186,8 +205,11 @@ describe('exports of a revision', () => {
 		const text = svg.bytes.toString('utf8');
 		expect(text.startsWith('<svg')).toBe(true);
 		expect(text).not.toMatch(/NaN|Infinity/);
-		const one = await download(`/api/v1/loops/${loopId}/exports/svg?corner=5`);
-		expect(one.bytes.toString('utf8')).toContain('Vin max, Iout min');
+		// corner=N: the N-th corner that sets a worst value of the stored verdict, named in the title.
+		const stored = (await team.as.viewer.get(`/api/v1/loops/${loopId}`)).body.verification;
+		const one = await download(`/api/v1/loops/${loopId}/exports/svg?corner=0`);
+		expect(one.status).toBe(200);
+		expect(one.bytes.toString('utf8')).toContain(stored.worst.phaseMarginDeg.corner);
 		expect((await download(`/api/v1/loops/${loopId}/exports/svg?corner=9`)).status).toBe(400);
 		const png = await download(`/api/v1/loops/${loopId}/exports/png?width=400`);
 		expect(png.type).toBe('image/png');
@@ -196,15 +218,23 @@ describe('exports of a revision', () => {
 		expect(png.bytes.readUInt32BE(16)).toBe(800);
 	});
 
-	it('serves the design JSON, which imports back as the next revision; a broken file gets field errors', async () => {
+	it('serves the signed-off design JSON (built parts and the stored verdict), which imports back as the same network; a broken file gets field errors', async () => {
 		const json = await download(`/api/v1/loops/${loopId}/exports/json`);
 		expect(json.type).toMatch(/^application\/json/);
 		const doc = JSON.parse(json.bytes.toString('utf8'));
 		expect(doc.plant.inductor.l).toBe(10e-6);
+		const stored = (await team.as.viewer.get(`/api/v1/loops/${loopId}`)).body.verification;
+		expect(doc.signoff.verification).toEqual(stored);
+		expect(doc.signoff.placement.target).toMatchObject({ method: 'k-factor', crossoverHz: 40_000 });
+		const built = stored.parts.rounded ?? stored.parts.ideal;
+		for (const k of ['r2', 'r3', 'c1', 'c2', 'c3']) expect(doc.compensator.parts[k]).toBe(built[k]);
 		const rail = await newRail();
 		const ok = await team.as.engineer.post(`/api/v1/rails/${rail.id}/import`, { text: json.bytes.toString('utf8'), baseRevision: null });
 		expect(ok.status, JSON.stringify(ok.body)).toBe(201);
 		expect(ok.body.revision).toBe(1);
+		// The imported file builds the same network on the same plant: the same nominal margins (to 1e-9).
+		expect(ok.body.verification.nominal.phaseMarginDeg - stored.nominal.phaseMarginDeg).toBeCloseTo(0, 9);
+		expect(ok.body.verification.nominal.crossoverHz / stored.nominal.crossoverHz - 1).toBeCloseTo(0, 9);
 		doc.plant.inductor.l = -1;
 		const bad = await team.as.engineer.post(`/api/v1/rails/${rail.id}/import`, { document: doc, baseRevision: 1 });
 		expect(bad.status).toBe(400);
@@ -271,7 +301,9 @@ describe('templates', () => {
 		expect(preview.body.metrics.crossoverHz / 32_000).toBeGreaterThan(0.9);
 		expect(preview.body.metrics.crossoverHz / 32_000).toBeLessThan(1.1);
 		expect(Math.abs(preview.body.metrics.phaseMarginDeg - 60)).toBeLessThan(5);
-		expect(preview.body.corners).toHaveLength(6);
+		// The preview carries the verdict a save would store, against the other rail's spec.
+		expect(['pass', 'caution', 'fail']).toContain(preview.body.verification.status);
+		expect(preview.body.verification.corners.count).toBeGreaterThanOrEqual(9);
 		expect(preview.body.saved).toBeNull();
 
 		const saved = await engineer.post(`/api/v1/templates/${tpl.body.id}/apply`, { railId: other.id, save: true });

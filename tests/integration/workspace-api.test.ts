@@ -39,8 +39,10 @@ describe('projects and rails', () => {
 
 		const rail = await eng.post(`/api/v1/projects/${id}/rails`, railBody());
 		expect(rail.status).toBe(201);
-		// Six corners: Vin min/nom/max × Iout min/max [project rule, issue 5].
-		expect(rail.body.corners).toHaveLength(6);
+		// The spec a new revision starts from: the rail's operating ranges, its tolerances, the targets in force.
+		expect(rail.body.spec.corners).toEqual({ vin: { min: 9, max: 16 }, iout: { min: 0.2, max: 3 } });
+		expect(rail.body.spec.tolerances.l).toMatchObject({ tol: 0.2 });
+		expect(rail.body.spec.targets).toEqual({ phaseMarginDeg: 45, gainMarginDb: 10, maxCrossoverFraction: 0.2 });
 		expect(rail.body.effectiveMarginTargets).toEqual({ phaseMarginDeg: 45, gainMarginDb: 10, maxCrossoverFraction: 0.2 });
 
 		const rails = await eng.get(`/api/v1/projects/${id}/rails`);

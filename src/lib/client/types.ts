@@ -2,7 +2,9 @@
 // from the shared zod schemas so that a rail here and a rail in the API are one definition.
 import type { z } from 'zod';
 import type { marginTargetsSchema, RailInput } from '$lib/schemas/workspace';
-import type { CornerMetrics } from '$lib/corners';
+import type { Verification } from '$lib/engine/verify/types';
+import type { VerdictFlag } from '$lib/verdict/flag';
+import type { railSpecSections } from '$lib/spec/railSpec';
 
 export type MarginTargets = z.infer<typeof marginTargetsSchema>;
 
@@ -40,12 +42,15 @@ export type Rail = RailInput & {
 	projectId: string;
 	effectiveMarginTargets: MarginTargets;
 	latestRevision: number | null;
+	/** Set when re-verification changed the verdict of the rail's latest revision. */
+	verdictFlag: VerdictFlag | null;
+	/** The verification spec a new revision starts from (design-document sections, withRailSpec). */
+	spec: ReturnType<typeof railSpecSections>;
 	createdAt: string;
 	updatedAt: string;
 };
 
-/** One corner's stored analysis summary (see the loops service); the same type the server stores. */
-export type { CornerMetrics };
+export type { Verification, VerdictFlag };
 
 export type LoopStatus = 'draft' | 'in-review' | 'approved' | 'changes-requested';
 
@@ -55,7 +60,9 @@ export interface LoopSummary {
 	revision: number;
 	status: LoopStatus;
 	message: string;
-	metrics: CornerMetrics[];
+	/** The verdict stored at save (without its per-corner list in a list answer). */
+	verification: Verification | null;
+	engineVersion: string | null;
 	authorName: string | null;
 	createdAt: string;
 }

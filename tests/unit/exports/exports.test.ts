@@ -23,7 +23,12 @@ import {
 	sweepCsv
 } from '$lib/server/exports';
 import { jetBrainsMonoTtf } from '$lib/server/exports/fonts';
-import { pdfText } from './pdfText';
+import { exportSignedOffJson, verdictCsv } from '$lib/server/exports';
+import { verifyDesign } from '$lib/engine/verify/verifyDesign';
+import type { Verification } from '$lib/engine/verify/types';
+import { withRailSpec } from '$lib/spec/railSpec';
+import { verdictFigures, verdictLine } from '$lib/verdict/figures';
+import { flat, pdfText } from '../../support/pdfText';
 
 const load = (name: string) => JSON.parse(readFileSync(path.resolve('reference/cases', name), 'utf8'));
 function analyse(doc: unknown): AnalysisResponse {
@@ -118,19 +123,21 @@ describe('renderBodePng', () => {
 });
 
 // pdfkit splits the PNG's alpha channel in JavaScript: about a second per report on 2 cores.
-describe('buildSignoffPdf', { timeout: 30_000 }, () => {
-	const corners = [
-		{ label: 'Vin max, Iout min', doc: { ...buckDoc, plant: { ...buckDoc.plant, vin: buckDoc.plant.vin * 1.1, iout: buckDoc.plant.iout * 0.5 } } },
-		{ label: 'Vin min, Iout max', doc: { ...buckDoc, plant: { ...buckDoc.plant, vin: buckDoc.plant.vin * 0.9 } } }
-	].map((c) => ({ label: c.label, vin: c.doc.plant.vin, iout: c.doc.plant.iout, response: analyse(c.doc) }));
+describe('buildSignoffPdf', { timeout: 60_000 }, () => {
+	// The buck with a rail's spec (Vin 10–14 V, load 0.5–6 A), verified by the engine as a save would.
+	const spec = { vinMin: buckDoc.plant.vin * 0.9, vinMax: buckDoc.plant.vin * 1.1, ioutMin: buckDoc.plant.iout * 0.25, ioutMax: buckDoc.plant.iout * 1.5, tolerances: { inductorPct: 20, capacitorPct: 20, esrPct: 50 }, targets: { phaseMarginDeg: 45, gainMarginDb: 10, maxCrossoverFraction: 0.2 } };
+	const specDoc = withRailSpec({ ...buckDoc, spread: { samples: 60, seed: 3 } }, spec);
+	const verified = verifyDesign(specDoc);
+	if ('error' in verified) throw new Error(verified.error.message);
+	const verification: Verification = verified;
 
-	it('a PDF with header and trailer, the plot image, the embedded mono font, and every section in its text', async () => {
+	it('a PDF with header and trailer, the plot image, the embedded mono font, the stored verdict and every section in its text', async () => {
 		const pdf = await buildSignoffPdf({
 			rail: { name: '1V2_CORE', board: 'Demo board' },
 			revision: { label: 'r3', author: 'Ada Engineer', createdAt: '2026-11-30T10:00:00Z', status: 'approved' },
-			document: buckDoc,
+			document: specDoc as never,
 			response: buck,
-			corners,
+			verification,
 			review: [
 				{ at: '2026-11-30T11:00:00Z', who: 'Ada Engineer', action: 'requested review' },
 				{ at: '2026-11-30T12:00:00Z', who: 'Bo Reviewer', action: 'approved', note: 'Margins fine at both corners', freqHz: 58000 }
@@ -143,28 +150,58 @@ describe('buildSignoffPdf', { timeout: 30_000 }, () => {
 		const raw = pdf.toString('latin1');
 		expect(raw).toMatch(/\/Subtype \/Image/);
 		expect(raw).toMatch(/\/FontFile2/);
-		const t = pdfText(pdf);
-		const text = t.standardText.replace(/\s+/g, ' ');
-		for (const s of ['Loop sign-off report', 'Rail 1V2_CORE on board Demo board', 'Design', 'Margins', 'Parts list', 'Review trail', 'Cautions']) {
+		const t = await pdfText(pdf);
+		const text = flat(t.text);
+		for (const s of ['Loop sign-off report', 'Rail 1V2_CORE on board Demo board', 'Verdict', 'Verification spec', 'Design', 'Parts list', 'Engine warnings', 'Review trail', 'Cautions']) {
 			expect(text).toContain(s);
 		}
+		// The verdict's figures, set in the embedded mono font, read back exactly as every screen prints them.
+		expect(text).toContain(verdictLine(verdictFigures(verification)));
+		expect(text).toContain(`${verification.status.toUpperCase()}: ${flat(verification.summary)}`);
 		expect(text).toContain('Small-signal estimate; confirm margins and transients on hardware');
 		expect(text).toContain('above 60 V DC or at mains follow the applicable safety standards and licensed practice');
-		expect(t.embeddedRuns).toBeGreaterThan(30); // values, table cells, parts in JetBrains Mono
 		expect(t.pages).toBeGreaterThanOrEqual(2);
 		// the caution footer on every page
-		expect(t.standardText.split(`Page `).length - 1).toBe(t.pages);
+		expect(text.split('Page ').length - 1).toBe(t.pages);
 	});
 
-	it('above 60 V the caution box says so prominently', async () => {
+	it('above 60 V the caution box says so prominently; a row not verified yet says so instead of a verdict', async () => {
 		const doc = load('boost-bank-12v-24v.json');
 		doc.plant.vin = 48;
 		doc.plant.vout = 72;
-		const pdf = await buildSignoffPdf({ rail: { name: '72V_BUS' }, revision: { label: 'r1' }, document: doc, response: analyse(doc) });
-		const text = pdfText(pdf).standardText.replace(/\s+/g, ' ');
+		const pdf = await buildSignoffPdf({ rail: { name: '72V_BUS' }, revision: { label: 'r1' }, document: doc, response: analyse(doc), verification: null });
+		const text = flat((await pdfText(pdf)).text);
 		expect(text).toContain('HIGH VOLTAGE: this rail works at 72 V, above 60 V DC.');
+		expect(text).toContain('no stored verdict yet');
 		expect(text).toContain('No review steps recorded');
 		expect(REPORT_CAUTION).toMatch(/licensed practice\.$/);
+	});
+
+	it('the signed-off JSON fixes the network to the built parts, so importing it reproduces the stored nominal margins', () => {
+		const out = exportSignedOffJson(specDoc, verification, { rail: '1V2_CORE', revision: 3, status: 'approved' });
+		if (!out.ok) throw new Error(out.error.message);
+		const file = JSON.parse(out.json);
+		expect(file.signoff.verification.status).toBe(verification.status);
+		expect(file.compensator.series).toBeNull();
+		const back = importDesignJson(out.json);
+		if (!back.ok) throw new Error(back.error.message);
+		const again = analyse(back.document);
+		const built = verification.parts.rounded ?? verification.parts.ideal;
+		for (const k of ['r2', 'r3', 'c1', 'c2', 'c3'] as const) if (built[k] !== undefined) expect(again.compensator.ideal.parts[k]).toBe(built[k]);
+		// Same network, same plant: the nominal margins of the stored verdict come back to 1e-9.
+		expect(again.metrics.phaseMarginDeg! - verification.nominal.phaseMarginDeg!).toBeCloseTo(0, 9);
+		expect(again.metrics.crossoverHz! / verification.nominal.crossoverHz! - 1).toBeCloseTo(0, 9);
+	});
+
+	it('the verdict CSV lists every check, then every corner, read back with papaparse', () => {
+		const csv = verdictCsv(verification);
+		const [checks, corners] = csv.split('\r\n\r\n');
+		const head = Papa.parse<string[]>(checks.trim()).data;
+		expect(head[0]).toEqual(['Check', 'Status', 'Worst value', 'Target', 'Corner', 'Reason']);
+		expect(head[1].slice(0, 2)).toEqual(['verdict', verification.status]);
+		expect(head.length).toBe(2 + verification.rows.length);
+		const rows = Papa.parse<string[]>(corners.trim()).data;
+		expect(rows.length).toBe(1 + verification.corners.count);
 	});
 });
 

@@ -1,59 +1,65 @@
-// The board's worst-case verdict from stored corner metrics. Thresholds [common practice,
-// as on the design screen]: PM up to 5° short or GM up to 3 dB short is a caution, more is a
-// fail; fc above the target fraction of fsw a caution, above fsw/2 a fail.
+// Board health reads the verdict stored with the latest revision and judges nothing itself:
+// a stored verdict shows as stored (status, reasons, corners), even when the figures would
+// read otherwise against today's defaults, and its text is the shared verdictFigures text.
 import { describe, expect, it } from 'vitest';
-import type { CornerMetrics, LoopSummary } from '$lib/client/types';
+import type { LoopSummary, Verification } from '$lib/client/types';
+import { verdictFigures } from '$lib/verdict/figures';
 import { railHealth } from '../../../src/routes/(app)/w/[workspace]/projects/[project]/health';
 
-const targets = { phaseMarginDeg: 45, gainMarginDb: 10, maxCrossoverFraction: 0.2 };
-const fsw = 500e3;
-
-function corner(label: string, fc: number | null, pm: number | null, gm: number | null, extra: Partial<CornerMetrics> = {}): CornerMetrics {
-	return { corner: { vin: 12, iout: 1, label }, crossoverHz: fc, phaseMarginDeg: pm, gainMarginDb: gm, closedLoopStable: true, warnings: [], ...extra };
+function stored(over: Partial<Verification> = {}): Verification {
+	return {
+		engineVersion: 'test',
+		status: 'caution',
+		summary: 'PM 47.2° at Vin min, Iout max is below the 50° target',
+		rows: [
+			{ metric: 'pm', status: 'caution', value: 47.2, target: '≥ 50°', corner: 'Vin min, Iout max', reason: 'PM 47.2° is 2.8° short of 50°' },
+			{ metric: 'gm', status: 'pass', value: 14.1, target: '≥ 10 dB', corner: 'Vin max, Iout min', reason: 'meets the target' },
+			{ metric: 'fc', status: 'pass', value: 61e3, target: '≤ 100 kHz', corner: 'Vin max, Iout min', reason: 'within the limit' },
+			{ metric: 'yield', status: 'caution', value: 0.984, target: '100%', corner: null, reason: '1.6% of samples miss a target' }
+		],
+		targets: { phaseMarginDeg: 50, gainMarginDb: 10, maxCrossoverFraction: 0.2 },
+		nominal: { crossoverHz: 50e3, phaseMarginDeg: 55, gainMarginDb: 16, closedLoopStable: true, modulusMargin: 0.6 },
+		worst: {
+			phaseMarginDeg: { value: 47.2, corner: 'Vin min, Iout max' },
+			gainMarginDb: { value: 14.1, corner: 'Vin max, Iout min' },
+			crossoverLowHz: { value: 38e3, corner: 'Vin min, Iout max' },
+			crossoverHighHz: { value: 61e3, corner: 'Vin max, Iout min' }
+		},
+		corners: { mode: 'one-at-a-time', count: 279, unstable: 0, failed: 0, list: [] },
+		spread: { samples: 500, seed: 1, yield: 0.984, stable: 1 },
+		warnings: [],
+		parts: { ideal: { r2: 12e3 }, rounded: { r2: 12.1e3 }, series: { resistors: 'E96', capacitors: 'E12' } },
+		...over
+	} as Verification;
 }
-function loop(metrics: CornerMetrics[]): LoopSummary {
-	return { id: 'l', railId: 'r', revision: 1, status: 'draft', message: 'm', metrics, authorName: null, createdAt: '' };
+function loop(verification: Verification | null): LoopSummary {
+	return { id: 'l', railId: 'r', revision: 1, status: 'draft', message: 'm', verification, engineVersion: verification?.engineVersion ?? null, authorName: null, createdAt: '' };
 }
 
 describe('railHealth', () => {
-	it('takes the highest fc and the lowest PM and GM, each with the corner that sets it', () => {
-		const h = railHealth(loop([corner('Vin nom, Iout max', 40e3, 60, 18), corner('Vin max, Iout min', 62e3, 51, 14), corner('Vin min, Iout max', 35e3, 66, 12)]), targets, fsw);
-		expect(h.fc).toMatchObject({ value: 62e3, corner: 'Vin max, Iout min', status: 'pass' });
-		expect(h.pm).toMatchObject({ value: 51, corner: 'Vin max, Iout min', status: 'pass' });
-		expect(h.gm).toMatchObject({ value: 12, corner: 'Vin min, Iout max', status: 'pass' });
+	it('shows the stored worst values with the corner that sets each, as verdictFigures writes them', () => {
+		const v = stored();
+		const h = railHealth(loop(v));
+		const f = verdictFigures(v);
+		expect(h.pm).toMatchObject({ value: 47.2, text: f.pm, corner: 'Vin min, Iout max', status: 'caution' });
+		expect(h.gm).toMatchObject({ value: 14.1, text: f.gm, corner: 'Vin max, Iout min', status: 'pass' });
+		expect(h.fc).toMatchObject({ value: 61e3, text: f.fc, status: 'pass' });
+		expect(h.yield).toMatchObject({ value: 0.984, text: f.yield, status: 'caution' });
+		// [from memory] the d3-format spec ".1f" with U+00B0, engineering "61 kHz", one-decimal percent.
+		expect([h.pm.text, h.gm.text, h.fc.text, h.yield.text]).toEqual(['47.2°', '14.1 dB', '61 kHz', '98.4%']);
+		expect(h.overall).toBe('caution');
+		expect(h.summary).toBe(v.summary);
+	});
+
+	it('never re-judges: a stored pass stays pass even with a PM that today’s default would fail', () => {
+		const v = stored({ status: 'pass', summary: 'meets every target', rows: [{ metric: 'pm', status: 'pass', value: 31, target: '≥ 30°', corner: 'nominal', reason: 'ok' }], worst: { ...stored().worst, phaseMarginDeg: { value: 31, corner: 'nominal' } } });
+		const h = railHealth(loop(v));
 		expect(h.overall).toBe('pass');
-		expect(h.summary).toBe('meets every target at all 3 corners');
+		expect(h.pm).toMatchObject({ value: 31, status: 'pass' });
 	});
 
-	it('grades a phase margin 3° short as caution and 8° short as fail, and says where', () => {
-		expect(railHealth(loop([corner('A', 40e3, 42, 15)]), targets, fsw).pm.status).toBe('caution');
-		const failing = railHealth(loop([corner('A', 40e3, 60, 15), corner('Vin max, Iout min', 40e3, 37, 15)]), targets, fsw);
-		expect(failing.overall).toBe('fail');
-		expect(failing.summary).toMatch(/^PM 37\.0° at Vin max, Iout min, below the 45\.0° target$/);
-	});
-
-	it('grades the gain margin against its target less 3 dB', () => {
-		expect(railHealth(loop([corner('A', 40e3, 60, 8)]), targets, fsw).gm.status).toBe('caution');
-		expect(railHealth(loop([corner('A', 40e3, 60, 6.5)]), targets, fsw).gm.status).toBe('fail');
-		// No −180° crossing at any corner: no gain margin to fall short of.
-		expect(railHealth(loop([corner('A', 40e3, 60, null)]), targets, fsw).gm.status).toBe('pass');
-	});
-
-	it('flags a crossover above 0.2 × fsw as caution and above fsw/2 as fail', () => {
-		expect(railHealth(loop([corner('A', 120e3, 60, 15)]), targets, fsw).fc.status).toBe('caution');
-		expect(railHealth(loop([corner('A', 260e3, 60, 15)]), targets, fsw).fc.status).toBe('fail');
-	});
-
-	it('fails a loop with no crossover, an unstable corner or a corner the engine refused', () => {
-		expect(railHealth(loop([corner('A', null, null, null)]), targets, fsw).overall).toBe('fail');
-		const unstable = railHealth(loop([corner('Vin min, Iout max', 40e3, 60, 15, { closedLoopStable: false })]), targets, fsw);
-		expect(unstable).toMatchObject({ overall: 'fail', summary: 'closed loop unstable at Vin min, Iout max' });
-		const refused = railHealth(loop([corner('A', 40e3, 60, 15), corner('B', null, null, null, { error: 'duty above 95%' })]), targets, fsw);
-		expect(refused.overall).toBe('fail');
-		expect(refused.summary).toContain('duty above 95%');
-	});
-
-	it('says "no loop" for a rail never saved', () => {
-		expect(railHealth(null, targets, fsw)).toMatchObject({ overall: 'none', pm: { status: 'none', value: null } });
+	it('says "no loop" for a rail never saved and "not verified" for a row without a stored verdict', () => {
+		expect(railHealth(null)).toMatchObject({ overall: 'none', pm: { status: 'none', value: null } });
+		expect(railHealth(loop(null))).toMatchObject({ overall: 'none', summary: expect.stringContaining('no stored verdict') });
 	});
 });

@@ -9,6 +9,7 @@ import { create, type Font } from 'fontkit';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { analyzeDesign, type AnalysisResponse } from '$lib/engine';
+import { verifyDesign } from '$lib/engine/verify/verifyDesign';
 import { buildSignoffPdf, plotFromResponse, renderBodePng, renderBodeSvg, svgToPng } from '$lib/server/exports';
 import { drawableText, REPLACEMENT } from '$lib/server/exports/drawableText';
 import { dejaVuSansTtf, jetBrainsMonoTtf, notoEmojiTtf } from '$lib/server/exports/fonts';
@@ -21,6 +22,9 @@ const designDoc = JSON.parse(readFileSync('reference/cases/buck-ceramic-1v2.json
 const analysed = analyzeDesign(designDoc);
 if ('error' in analysed) throw new Error(analysed.error.message);
 const response: AnalysisResponse = analysed;
+// The engine's verdict of the same design, so the report's verdict section is drawn too.
+const verified = verifyDesign(designDoc);
+if ('error' in verified) throw new Error(verified.error.message);
 const plot = plotFromResponse(response, { fswHz: designDoc.plant.fsw });
 // A small plot image for the PDF runs: the text is under test here, not the image (pdfkit spends about
 // a second splitting a full-size plot's alpha channel).
@@ -41,6 +45,7 @@ describe('text a user typed, in every export format', () => {
 							revision: { label: 'r2', author: t.author, createdAt: '2026-12-01T10:00:00Z' },
 							document: designDoc,
 							response,
+							verification: verified,
 							review: [
 								{ at: '2026-12-01T11:00:00Z', who: t.who, action: 'saved', note: t.note },
 								{ at: '2026-12-01T12:00:00Z', who: t.author, action: 'commented', note: t.rail, freqHz: 40_000 }

@@ -16,7 +16,8 @@ import {
 	varchar
 } from 'drizzle-orm/mysql-core';
 import { organization, user } from './auth-schema';
-import type { CornerMetrics, MarginTargets, RailTolerances } from '../services/types';
+import type { Verification } from '../../engine/verify/types';
+import type { MarginTargets, RailTolerances, VerdictFlag } from '../services/types';
 
 export * from './auth-schema';
 
@@ -86,6 +87,12 @@ export const rail = mysqlTable(
 		/** null: the workspace's targets apply. */
 		marginTargets: json('margin_targets').$type<MarginTargets | null>(),
 		notes: text('notes'),
+		/**
+		 * Set when re-verification (an engine change, or a change of the template the rail's
+		 * network came from) changed the verdict of its latest revision; cleared when someone
+		 * acknowledges it or saves a new revision.
+		 */
+		verdictFlag: json('verdict_flag').$type<VerdictFlag | null>(),
 		createdBy: varchar('created_by', { length: 36 }).references(() => user.id, { onDelete: 'set null' }),
 		createdAt: createdAt(),
 		updatedAt: updatedAt()
@@ -110,8 +117,16 @@ export const loopRevision = mysqlTable(
 			.references(() => rail.id, { onDelete: 'cascade' }),
 		revision: int('revision').notNull(),
 		schemaVersion: int('schema_version').notNull(),
+		/** The design document with its whole verification spec (targets, corners, tolerances, spread). */
 		design: json('design').$type<Record<string, unknown>>().notNull(),
-		metrics: json('metrics').$type<CornerMetrics[]>().notNull(),
+		/**
+		 * The engine's verdict on `design`, computed at save (engine/verify); every screen, export
+		 * and API answer reads it. Null only for rows written before it existed, until the data
+		 * step of scripts/migrate.ts fills them.
+		 */
+		verification: json('verification').$type<Verification | null>(),
+		/** ENGINE_VERSION that computed `verification`; `npm run reverify` recomputes older ones. */
+		engineVersion: varchar('engine_version', { length: 32 }),
 		message: varchar('message', { length: 500 }).notNull(),
 		status: mysqlEnum('status', LOOP_STATUSES).notNull().default('draft'),
 		authorId: varchar('author_id', { length: 36 }).references(() => user.id, { onDelete: 'set null' }),

@@ -7,7 +7,7 @@
 import { scaleLinear, scaleLog, type ScaleLinear, type ScaleLogarithmic } from 'd3-scale';
 import { line } from 'd3-shape';
 import { drawableText } from './drawableText';
-import { formatDb, formatDeg, formatEng } from './format';
+import { formatDb, formatDeg, formatEng } from '$lib/units/format';
 import type { ExportPlot, ExportTrace, ExportTraceKind } from './plotTypes';
 import { PALETTES, PLOT_FONT_FAMILY, type Palette, type ThemeName } from './theme';
 

@@ -3,6 +3,7 @@
  * zod contract; every problem comes back as the contract's error object with dotted field paths, never a throw.
  */
 import { contractError, designDocumentSchema, SCHEMA_VERSION, zodFields, type ContractError, type DesignDocument } from '$lib/engine';
+import type { Verification } from '$lib/engine/verify/types';
 
 /** Largest accepted design file, bytes of text (a design document is a few kB). */
 export const DESIGN_JSON_MAX_CHARS = 1024 * 1024;
@@ -36,4 +37,40 @@ export function importDesignJson(text: string): DesignImportResult {
 	const parsed = designDocumentSchema.safeParse(value);
 	if (!parsed.success) return { ok: false, ...contractError(zodFields(parsed.error)) };
 	return { ok: true, document: parsed.data };
+}
+
+/** Network parts a document may carry (compensator.parts); the divider bottom Rb follows from Vref. */
+const BUILT_PART_KEYS = ['r2', 'r3', 'c1', 'c2', 'c3', 'gm', 'ro'] as const;
+
+/**
+ * The signed-off file of a revision: its document (spec sections included) with the network
+ * fixed to the parts as built (rounded where a series was set), so importing it reproduces the
+ * built network whatever placement does later, plus a `signoff` record of how it was placed, the
+ * parts (ideal, rounded, series) and the stored verdict. The engine ignores `signoff` on import.
+ */
+export function exportSignedOffJson(
+	doc: unknown,
+	verification: Verification | null,
+	meta: { rail: string | null; revision: number; status: string }
+): { ok: true; json: string } | ({ ok: false } & ContractError) {
+	const parsed = designDocumentSchema.safeParse(doc);
+	if (!parsed.success) return { ok: false, ...contractError(zodFields(parsed.error)) };
+	const d = parsed.data;
+	const built = verification ? (verification.parts.rounded ?? verification.parts.ideal) : null;
+	const parts = built ? Object.fromEntries(BUILT_PART_KEYS.filter((k) => built[k] !== undefined).map((k) => [k, built[k]])) : null;
+	const { target: _target, series: _series, parts: _parts, ...keep } = d.compensator as Record<string, unknown>;
+	const out = {
+		...d,
+		compensator: parts ? { ...keep, parts, series: null } : d.compensator,
+		signoff: {
+			rail: meta.rail,
+			revision: meta.revision,
+			status: meta.status,
+			placement: { target: d.compensator.target ?? null, series: d.compensator.series ?? null },
+			parts: verification?.parts ?? null,
+			engineVersion: verification?.engineVersion ?? null,
+			verification
+		}
+	};
+	return { ok: true, json: JSON.stringify(out, null, 2) + '\n' };
 }

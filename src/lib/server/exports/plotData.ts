@@ -12,6 +12,8 @@ export interface PlotFromResponseOptions {
 	fswHz?: number;
 	/** Corner cases (Vin × load …) analysed on the same sweep. */
 	corners?: { label: string; response: AnalysisResponse }[];
+	/** Loop gain alone at corners (the ones that set a verdict), on the same sweep. */
+	cornerLoops?: { label: string; magDb: ArrayLike<number>; phaseDeg: ArrayLike<number> }[];
 	measured?: ExportMeasured[];
 	/** Which traces to draw [all three]. */
 	show?: { loop?: boolean; plant?: boolean; compensator?: boolean };
@@ -28,6 +30,12 @@ export function plotFromResponse(response: AnalysisResponse, options: PlotFromRe
 		const cr = c.response.response;
 		if (cr.freqHz.length !== r.freqHz.length) continue; // a corner on another grid cannot share the x array
 		for (const k of kinds) traces.push({ kind: k, label: label(k, c.label), nominal: false, magDb: cr[k].magDb, phaseDeg: cr[k].phaseDeg });
+	}
+	if (show.loop) {
+		for (const c of options.cornerLoops ?? []) {
+			if (c.magDb.length !== r.freqHz.length) continue;
+			traces.push({ kind: 'loop', label: label('loop', c.label), nominal: false, magDb: c.magDb, phaseDeg: c.phaseDeg });
+		}
 	}
 	const m = response.metrics;
 	return {

@@ -1,30 +1,30 @@
 /**
- * The sign-off report as PDF, generated on the server with pdfkit (no browser): rail and revision, the design
- * (stage, modulator, feedback, network), the Bode plot (PNG from the same SVG as the export), margins at every
- * corner against the targets, the parts list, engine warnings, the review trail and the cautions. Prose is set in
- * Helvetica (PDF standard font), values in JetBrains Mono (embedded TTF); a caution footer sits on every page.
+ * The sign-off report as PDF, generated on the server with pdfkit (no browser): rail and revision, the stored
+ * verdict (the same figures every screen prints), the verification spec it was judged with, the design, the Bode
+ * plot (with the corners that set the verdict faint), the parts (ideal, rounded, series), every warning the engine
+ * raised at any corner, the review trail and the cautions. Prose is set in Helvetica (PDF standard font), values
+ * and verdict figures in JetBrains Mono (embedded TTF, so °, µ and − survive); a caution footer sits on every page.
  */
 import PDFDocument from 'pdfkit';
 import type { AnalysisResponse, DesignDocument } from '$lib/engine';
+import type { Verification } from '$lib/engine/verify/types';
+import { formatDb, formatDeg, formatEng, formatPart, formatPercent } from '$lib/units/format';
+import { METRIC_WORDS, rowValueText, verdictFigures, verdictLine } from '$lib/verdict/figures';
 import { networkRoots, plotFromResponse } from './plotData';
 import { renderBodePng } from './png';
 import { drawableText } from './drawableText';
 import { fontFor, registerReportFonts, useFontFor } from './pdfFonts';
-import { formatDb, formatDeg, formatEng, formatHz } from './format';
 import { PALETTES } from './theme';
 
 export const REPORT_CAUTION =
 	'Small-signal estimate; confirm margins and transients on hardware; above 60 V DC or at mains follow the applicable safety standards and licensed practice.';
 export const HIGH_VOLTAGE_LIMIT = 60;
 
-export interface ReportCorner {
-	/** "Vin max, Iout min" … */
+/** A corner's loop gain on the nominal's grid, drawn faint behind the nominal. */
+export interface ReportCornerTrace {
 	label: string;
-	vin?: number;
-	iout?: number;
-	response: AnalysisResponse;
-	/** A verdict already decided by the caller; otherwise judged here against the targets. */
-	verdict?: { status: 'pass' | 'caution' | 'fail'; reason: string };
+	magDb: ArrayLike<number>;
+	phaseDeg: ArrayLike<number>;
 }
 
 export interface ReviewEntry {
@@ -40,11 +40,13 @@ export interface ReviewEntry {
 export interface SignoffReportInput {
 	rail: { name: string; board?: string; notes?: string };
 	revision: { label: string; author?: string; createdAt?: string | Date; status?: string };
+	/** The stored design document, spec sections included. */
 	document: DesignDocument;
-	/** The nominal analysis. */
+	/** The nominal analysis (plot, operating point, network). */
 	response: AnalysisResponse;
-	corners?: ReportCorner[];
-	targets?: { phaseMarginDeg?: number; gainMarginDb?: number };
+	/** The verdict stored with the revision; null only for a row not verified yet. */
+	verification: Verification | null;
+	cornerTraces?: ReportCornerTrace[];
 	review?: ReviewEntry[];
 	/** A plot image to use instead of rendering one from the response. */
 	plotPng?: Buffer;
@@ -60,7 +62,6 @@ const INK = PALETTES.light.ink;
 const MUTED = PALETTES.light.muted;
 const RULE = PALETTES.light.grid;
 const STATUS_COLOUR = { pass: PALETTES.light.pass, caution: PALETTES.light.caution, fail: PALETTES.light.fail };
-const DEFAULT_TARGETS = { phaseMarginDeg: 45, gainMarginDb: 6 }; // [common practice: formulas §7.2]
 
 export function buildSignoffPdf(input: SignoffReportInput, options: PdfOptions = {}): Promise<Buffer> {
 	const doc = new PDFDocument({
@@ -84,7 +85,7 @@ export function buildSignoffPdf(input: SignoffReportInput, options: PdfOptions =
 	});
 
 	const d = input.document;
-	const targets = { ...DEFAULT_TARGETS, ...input.targets };
+	const v = input.verification;
 	const w = doc.page.width - doc.page.margins.left - doc.page.margins.right;
 	const left = doc.page.margins.left;
 
@@ -106,29 +107,55 @@ export function buildSignoffPdf(input: SignoffReportInput, options: PdfOptions =
 	const highVoltage = Math.max(d.plant.vin, d.plant.vout) > HIGH_VOLTAGE_LIMIT;
 	cautionBox(doc, highVoltage, d, left, w);
 
+	// The stored verdict, first: what the reviewer signs.
+	heading(doc, 'Verdict');
+	if (v) {
+		const f = verdictFigures(v);
+		doc.fontSize(11).fillColor(STATUS_COLOUR[v.status]).text(useFontFor(doc, 'mono-bold', `${v.status.toUpperCase()}: ${v.summary}`), { width: w });
+		doc.moveDown(0.2);
+		doc.fontSize(9).fillColor(INK).text(useFontFor(doc, 'mono', `Worst case over ${f.corners} corners: ${verdictLine(f)}`), { width: w });
+		if (v.spread) doc.fontSize(8.5).fillColor(MUTED).text(useFontFor(doc, 'mono', `Spread yield ${f.yield} ${f.yieldOf}`), { width: w });
+		doc.font('Helvetica').fontSize(8).fillColor(MUTED).text(`Engine version ${v.engineVersion}; computed when the revision was saved and stored with it.`);
+		doc.moveDown(0.3);
+		table(
+			doc,
+			['Check', 'Worst', 'Target', 'Corner', 'Status and reason'],
+			[80, 55, 50, 130, w - 315],
+			v.rows.map((r) => ({ cells: [METRIC_WORDS[r.metric], rowValueText(r), r.target, r.corner ?? '', `${r.status}: ${r.reason}`], colour: STATUS_COLOUR[r.status] }))
+		);
+	} else {
+		doc.font('Helvetica').fontSize(9).fillColor(STATUS_COLOUR.fail).text('This revision has no stored verdict yet; re-verify it (npm run reverify) before signing it off.');
+	}
+	doc.moveDown(0.6);
+
+	// The spec it was judged with (stored with the revision).
+	heading(doc, 'Verification spec');
+	rows(doc, specRows(d, v));
+	doc.moveDown(0.6);
+
 	// Design.
 	heading(doc, 'Design');
 	const p = d.plant;
-	const bank = p.capacitors.map((c) => `${c.count} x ${formatEng(c.c, 'F', 4)} (ESR ${formatEng(c.esr, 'Ω', 4)}, ESL ${formatEng(c.esl, 'H', 4)})`).join(' + ');
+	const bank = p.capacitors.map((c) => `${c.count} x ${formatPart(c.c, 'F')} (ESR ${formatPart(c.esr, 'Ω')}, ESL ${formatPart(c.esl, 'H')})`).join(' + ');
 	const op = input.response.operatingPoint;
 	rows(doc, [
-		['Stage', `${p.topology}, Vin ${formatEng(p.vin, 'V')}, Vout ${formatEng(p.vout, 'V')}, Iout ${formatEng(p.iout, 'A')}, fsw ${formatHz(p.fsw)}`],
-		['Inductor', `L ${formatEng(p.inductor.l, 'H', 4)}, DCR ${formatEng(p.inductor.dcr, 'Ω', 4)}, rdsOn ${formatEng(p.rdsOn, 'Ω', 4)}`],
+		['Stage', `${p.topology}, Vin ${formatEng(p.vin, 'V')}, Vout ${formatEng(p.vout, 'V')}, Iout ${formatEng(p.iout, 'A')}, fsw ${formatEng(p.fsw, 'Hz')}`],
+		['Inductor', `L ${formatPart(p.inductor.l, 'H')}, DCR ${formatPart(p.inductor.dcr, 'Ω')}, rdsOn ${formatPart(p.rdsOn, 'Ω')}`],
 		['Bank', bank],
 		['Operating point', `D ${op.duty.toFixed(3)}, efficiency ${(op.efficiency * 100).toFixed(1)} %, ripple ${formatEng(op.rippleCurrent, 'A')} p-p, ${op.mode.toUpperCase()}`],
 		['Modulator', `Vramp ${formatEng(d.modulator.vramp, 'V')} p-p${d.modulator.feedForward ? ', input feed-forward' : ''}${d.modulator.delay > 0 ? `, delay ${formatEng(d.modulator.delay, 's')}` : ''}`],
-		['Feedback', `Vref ${formatEng(d.feedback.vref, 'V', 4)}, R1 ${formatEng(d.feedback.r1, 'Ω', 4)}`],
+		['Feedback', `Vref ${formatPart(d.feedback.vref, 'V')}, R1 ${formatPart(d.feedback.r1, 'Ω')}`],
 		['Network', networkText(input.response, d)],
 		['Plant features', featuresText(input.response)]
 	]);
 	doc.moveDown(0.6);
 
 	// Plot.
-	heading(doc, 'Loop gain, plant and network (nominal; corners faint)');
+	heading(doc, 'Loop gain, plant and network (nominal; the corners that set the verdict faint)');
 	const png =
 		input.plotPng ??
 		renderBodePng(
-			plotFromResponse(input.response, { fswHz: p.fsw, corners: (input.corners ?? []).map((c) => ({ label: c.label, response: c.response })) }),
+			plotFromResponse(input.response, { fswHz: p.fsw, cornerLoops: input.cornerTraces ?? [] }),
 			{ width: 900, pixelWidth: 1500, roots: networkRoots(input.response) }
 		);
 	const imgH = w * (530 / 900);
@@ -137,45 +164,26 @@ export function buildSignoffPdf(input: SignoffReportInput, options: PdfOptions =
 	doc.y += imgH + 8;
 	doc.x = left;
 
-	// Margins at every corner.
-	heading(doc, 'Margins');
-	doc.font('Helvetica').fontSize(9).fillColor(MUTED).text(`Targets: phase margin at least ${targets.phaseMarginDeg}°, gain margin at least ${targets.gainMarginDb} dB.`);
-	doc.moveDown(0.3);
-	const cornerRows = [{ label: 'Nominal', vin: p.vin, iout: p.iout, response: input.response } as ReportCorner, ...(input.corners ?? [])];
-	table(
-		doc,
-		['Case', 'Vin', 'Iout', 'fc', 'PM', 'GM', 'Verdict'],
-		[150, 50, 50, 60, 50, 55, w - 415],
-		cornerRows.map((c) => {
-			const m = c.response.metrics;
-			const v = c.verdict ?? judge(c.response, targets);
-			return {
-				cells: [c.label, c.vin !== undefined ? formatEng(c.vin, 'V') : '', c.iout !== undefined ? formatEng(c.iout, 'A') : '', formatHz(m.crossoverHz), formatDeg(m.phaseMarginDeg), formatDb(m.gainMarginDb), `${v.status}: ${v.reason}`],
-				colour: STATUS_COLOUR[v.status]
-			};
-		})
-	);
-	if (!input.corners || input.corners.length === 0) {
-		doc.font('Helvetica').fontSize(9).fillColor(MUTED).text('No corners were computed for this revision; only the nominal case is shown.');
-	}
-	doc.moveDown(0.6);
-
-	// Parts.
+	// Parts: as placed (ideal), as built (rounded to the series) and the series.
 	heading(doc, 'Parts list');
-	const net = input.response.compensator.rounded ?? input.response.compensator.ideal;
-	const partRows = Object.entries(net.parts).map(([name, value]) => ({ cells: [name.toUpperCase(), partValue(name, value), partRole(name)] }));
-	partRows.push({ cells: ['L', formatEng(p.inductor.l, 'H', 4), `power inductor, DCR ${formatEng(p.inductor.dcr, 'Ω', 4)}`] });
-	p.capacitors.forEach((c, i) => partRows.push({ cells: [`COUT${i + 1}`, `${c.count} x ${formatEng(c.c, 'F', 4)}`, `output bank branch ${i + 1}, ESR ${formatEng(c.esr, 'Ω', 4)} each`] }));
-	table(doc, ['Part', 'Value', 'Role'], [70, 120, w - 190], partRows);
+	const ideal = v?.parts.ideal ?? (input.response.compensator.ideal.parts as Record<string, number>);
+	const rounded = v ? v.parts.rounded : ((input.response.compensator.rounded?.parts as Record<string, number> | undefined) ?? null);
+	const series = v?.parts.series ?? null;
+	if (series) doc.font('Helvetica').fontSize(9).fillColor(MUTED).text(`Rounded to ${series.resistors ?? 'exact'} resistors and ${series.capacitors ?? 'exact'} capacitors; the built network is the rounded one.`);
+	else doc.font('Helvetica').fontSize(9).fillColor(MUTED).text('No series rounding: the network is built with the ideal values.');
+	doc.moveDown(0.2);
+	const partRows = Object.entries(ideal).map(([name, value]) => ({ cells: [name.toUpperCase(), partValue(name, value), rounded?.[name] !== undefined ? partValue(name, rounded[name]) : '–', partRole(name)] }));
+	partRows.push({ cells: ['L', formatPart(p.inductor.l, 'H'), formatPart(p.inductor.l, 'H'), `power inductor, DCR ${formatPart(p.inductor.dcr, 'Ω')}`] });
+	p.capacitors.forEach((c, i) => partRows.push({ cells: [`COUT${i + 1}`, `${c.count} x ${formatPart(c.c, 'F')}`, `${c.count} x ${formatPart(c.c, 'F')}`, `output bank branch ${i + 1}, ESR ${formatPart(c.esr, 'Ω')} each`] }));
+	table(doc, ['Part', 'Ideal', 'Built', 'Role'], [60, 90, 90, w - 240], partRows);
 	doc.moveDown(0.6);
 
-	// Warnings.
-	if (input.response.warnings.length > 0) {
-		heading(doc, 'Engine warnings');
-		doc.fontSize(9).fillColor(INK);
-		for (const wn of input.response.warnings) doc.text(useFontFor(doc, 'prose', `- ${wn.message}`), { width: w });
-		doc.moveDown(0.6);
-	}
+	// Every warning the engine raised, at any corner.
+	heading(doc, 'Engine warnings');
+	const warnings = v ? v.warnings.map((wn) => `${wn.message}${wn.corners.length ? ` (at ${wn.corners.slice(0, 4).join('; ')}${wn.corners.length > 4 ? `; ${wn.corners.length - 4} more corners` : ''})` : ''}`) : input.response.warnings.map((wn) => wn.message);
+	if (warnings.length) for (const text of warnings) doc.fontSize(8.5).fillColor(INK).text(useFontFor(doc, 'mono', `- ${text}`), { width: w });
+	else doc.font('Helvetica').fontSize(9).fillColor(MUTED).text('None at any corner.');
+	doc.moveDown(0.6);
 
 	// Review trail.
 	heading(doc, 'Review trail');
@@ -184,7 +192,7 @@ export function buildSignoffPdf(input: SignoffReportInput, options: PdfOptions =
 			doc,
 			['When', 'Who', 'Action', 'Note'],
 			[105, 100, 95, w - 300],
-			input.review.map((e) => ({ cells: [dateText(e.at), e.who, e.action, `${e.freqHz !== undefined ? `at ${formatHz(e.freqHz)}: ` : ''}${e.note ?? ''}`] }))
+			input.review.map((e) => ({ cells: [dateText(e.at), e.who, e.action, `${e.freqHz !== undefined ? `at ${formatEng(e.freqHz, 'Hz')}: ` : ''}${e.note ?? ''}`] }))
 		);
 	} else {
 		doc.font('Helvetica').fontSize(9).fillColor(MUTED).text('No review steps recorded for this revision.');
@@ -262,23 +270,29 @@ function table(doc: PDFKit.PDFDocument, header: string[], widths: number[], body
 	for (const row of body) draw(row.cells, false, row.colour);
 }
 
-/** Pass when both margins meet the targets; caution within 5° / 2 dB below; fail otherwise or when unstable. */
-function judge(r: AnalysisResponse, t: { phaseMarginDeg: number; gainMarginDb: number }): { status: 'pass' | 'caution' | 'fail'; reason: string } {
-	const m = r.metrics;
-	if (m.closedLoopStable === false) return { status: 'fail', reason: 'closed loop unstable' };
-	if (m.phaseMarginDeg === null) return { status: 'fail', reason: 'no crossover found' };
-	const pmShort = t.phaseMarginDeg - m.phaseMarginDeg;
-	const gmShort = m.gainMarginDb === null ? -Infinity : t.gainMarginDb - m.gainMarginDb;
-	if (pmShort <= 0 && gmShort <= 0) return { status: 'pass', reason: 'margins meet the targets' };
-	const why = [pmShort > 0 ? `PM ${pmShort.toFixed(1)}° below target` : '', gmShort > 0 ? `GM ${gmShort.toFixed(1)} dB below target` : ''].filter(Boolean).join(', ');
-	return { status: pmShort <= 5 && gmShort <= 2 ? 'caution' : 'fail', reason: why };
+/** The verification spec as label / value lines: targets, operating ranges, tolerances, spread settings. */
+function specRows(d: DesignDocument, v: Verification | null): [string, string][] {
+	const t = v?.targets;
+	const out: [string, string][] = [];
+	if (t) {
+		const fcRange = t.crossoverHz ? `, fc ${t.crossoverHz.min !== undefined ? `≥ ${formatEng(t.crossoverHz.min, 'Hz')}` : ''}${t.crossoverHz.min !== undefined && t.crossoverHz.max !== undefined ? ' and ' : ''}${t.crossoverHz.max !== undefined ? `≤ ${formatEng(t.crossoverHz.max, 'Hz')}` : ''}` : '';
+		out.push(['Targets', `PM ≥ ${formatDeg(t.phaseMarginDeg)}, GM ≥ ${formatDb(t.gainMarginDb)}, fc ≤ ${t.maxCrossoverFraction} × fsw${fcRange}`]);
+	}
+	const c = d.corners;
+	const range = (r: { min: number; max: number } | undefined, unit: 'V' | 'A', nom: number) => (r ? `${formatEng(r.min, unit)} to ${formatEng(r.max, unit)} (nominal ${formatEng(nom, unit)})` : `${formatEng(nom, unit)} only`);
+	out.push(['Operating ranges', `Vin ${range(c?.vin, 'V', d.plant.vin)}; Iout ${range(c?.iout, 'A', d.plant.iout)}`]);
+	const tol = Object.entries(d.tolerances ?? {}).filter(([, x]) => x && x.tol > 0);
+	out.push(['Tolerances', tol.length ? tol.map(([k, x]) => `${k} ±${formatPercent(x!.tol)} ${x!.dist}`).join(', ') : 'none']);
+	if (v) out.push(['Corners', `${v.corners.count} (${v.corners.mode === 'exhaustive' ? 'every combination' : 'each part alone plus the linearised worst combination'})`]);
+	out.push(['Spread', d.spread ? `${d.spread.samples} samples, seed ${d.spread.seed}` : 'not run']);
+	return out;
 }
 
 function networkText(r: AnalysisResponse, d: DesignDocument): string {
 	const kind = { type1: 'Type I', type2: 'Type II', type3: 'Type III', 'type2-ota': 'Type II (OTA)' }[r.compensator.kind] ?? r.compensator.kind;
 	const net = r.compensator.rounded ?? r.compensator.ideal;
-	const zeros = net.zerosHz.filter((f) => f > 0).map((f) => formatHz(f)).join(', ') || 'none';
-	const poles = net.polesHz.filter((f) => f > 0).map((f) => formatHz(f)).join(', ') || 'none';
+	const zeros = net.zerosHz.filter((f) => f > 0).map((f) => formatEng(f, 'Hz')).join(', ') || 'none';
+	const poles = net.polesHz.filter((f) => f > 0).map((f) => formatEng(f, 'Hz')).join(', ') || 'none';
 	const how = d.compensator.parts ? 'parts as entered' : `placed by ${d.compensator.target?.method}`;
 	const rounded = r.compensator.rounded ? ', rounded to series values' : '';
 	return `${kind}, ${how}${rounded}; zeros ${zeros}; poles ${poles}`;
@@ -286,16 +300,16 @@ function networkText(r: AnalysisResponse, d: DesignDocument): string {
 
 function featuresText(r: AnalysisResponse): string {
 	const f = r.features;
-	const parts = [`f0 ${formatHz(f.f0Hz)}, Q ${f.q.toFixed(2)}`];
-	if (f.esrZeroHz.length) parts.push(`ESR zero ${f.esrZeroHz.map((x) => formatHz(x)).join(', ')}`);
-	if (f.rhpZeroHz !== null) parts.push(`RHP zero ${formatHz(f.rhpZeroHz)}`);
+	const parts = [`f0 ${formatEng(f.f0Hz, 'Hz')}, Q ${f.q.toFixed(2)}`];
+	if (f.esrZeroHz.length) parts.push(`ESR zero ${f.esrZeroHz.map((x) => formatEng(x, 'Hz')).join(', ')}`);
+	if (f.rhpZeroHz !== null) parts.push(`RHP zero ${formatEng(f.rhpZeroHz, 'Hz')}`);
 	return parts.join('; ');
 }
 
 function partValue(name: string, value: number): string {
-	if (name.startsWith('r')) return formatEng(value, 'Ω', 4);
-	if (name.startsWith('c')) return formatEng(value, 'F', 4);
-	if (name === 'gm') return formatEng(value, 'S', 4);
+	if (name.startsWith('r')) return formatPart(value, 'Ω');
+	if (name.startsWith('c')) return formatPart(value, 'F');
+	if (name === 'gm') return formatPart(value, 'S');
 	return String(value);
 }
 

@@ -3,15 +3,17 @@
 // with 409 and the current revision, so no edit is silently lost. Only the review status of
 // a revision changes after it is written: draft → in-review → approved | changes-requested.
 import { randomUUID } from 'node:crypto';
-import { and, asc, count, desc, eq, max } from 'drizzle-orm';
+import { and, asc, count, desc, eq, lt, max, sql } from 'drizzle-orm';
 import type { Database } from '../db';
 import { loopComment, loopRevision, rail, user, type LoopStatus } from '../db/schema';
 import { designDocumentSchema, SCHEMA_VERSION } from '../../engine/contract/designSchema';
 import { zodFields } from '../../engine/contract/errors';
+import type { Verification } from '../../engine/verify/types';
 import { ApiError } from '../http/errors';
 import type { Page, PageQuery } from '../http/request';
 import * as audit from './audit';
-import { cornerMetrics } from './corner-metrics';
+import { completeSpec } from './rail-spec';
+import { verifyDocument } from './verify';
 import type { Actor } from './types';
 import type { Rail } from './rails';
 
@@ -33,7 +35,7 @@ const summaryColumns = {
 	schemaVersion: loopRevision.schemaVersion,
 	message: loopRevision.message,
 	status: loopRevision.status,
-	metrics: loopRevision.metrics,
+	engineVersion: loopRevision.engineVersion,
 	authorId: loopRevision.authorId,
 	authorName: user.name,
 	createdAt: loopRevision.createdAt,
@@ -42,10 +44,20 @@ const summaryColumns = {
 	templateId: loopRevision.templateId
 };
 
-export async function list(db: Database, railId: string, page: PageQuery): Promise<Page<Omit<LoopRevision, 'design'> & { authorName: string | null }>> {
+/**
+ * The stored verdict without its per-corner list (hundreds of rows): what a list, the board
+ * table and a flag need. The whole verdict comes with one revision (`get`).
+ */
+const verdictColumn = sql<Verification | null>`JSON_REMOVE(${loopRevision.verification}, '$.corners.list')`.mapWith((v: unknown) =>
+	typeof v === 'string' ? (JSON.parse(v) as Verification) : ((v ?? null) as Verification | null)
+);
+
+export type LoopSummary = Omit<LoopRevision, 'design' | 'verification'> & { authorName: string | null; verification: Verification | null };
+
+export async function list(db: Database, railId: string, page: PageQuery): Promise<Page<LoopSummary>> {
 	const [items, [{ total }]] = await Promise.all([
 		db
-			.select(summaryColumns)
+			.select({ ...summaryColumns, verification: verdictColumn })
 			.from(loopRevision)
 			.leftJoin(user, eq(user.id, loopRevision.authorId))
 			.where(eq(loopRevision.railId, railId))
@@ -59,7 +71,7 @@ export async function list(db: Database, railId: string, page: PageQuery): Promi
 
 export async function get(db: Database, id: string) {
 	const [row] = await db
-		.select({ ...summaryColumns, design: loopRevision.design })
+		.select({ ...summaryColumns, design: loopRevision.design, verification: loopRevision.verification })
 		.from(loopRevision)
 		.leftJoin(user, eq(user.id, loopRevision.authorId))
 		.where(eq(loopRevision.id, id))
@@ -71,9 +83,22 @@ function brief(r: Pick<LoopRevision, 'id' | 'revision' | 'status' | 'message' | 
 	return { id: r.id, revision: r.revision, status: r.status, message: r.message, createdAt: r.createdAt, authorId: r.authorId };
 }
 
+/** The rail's revision just before `revision` (whatever its status), for "what changed". */
+export async function previous(db: Database, railId: string, revision: number): Promise<LoopRevision | null> {
+	const [row] = await db
+		.select()
+		.from(loopRevision)
+		.where(and(eq(loopRevision.railId, railId), lt(loopRevision.revision, revision)))
+		.orderBy(desc(loopRevision.revision))
+		.limit(1);
+	return row ?? null;
+}
+
 /**
- * Validates the design against the engine's contract, computes the corner metrics and
- * appends revision N+1, provided `baseRevision` is still the latest (null/0 = none yet).
+ * Validates the design against the engine's contract, completes its verification spec from
+ * the rail (sections it lacks), verifies it with the engine and appends revision N+1 with the
+ * verdict, provided `baseRevision` is still the latest (null/0 = none yet). Saving clears the
+ * rail's "verdict changed" flag: the new revision has a verdict of its own.
  */
 export async function save(
 	db: Database,
@@ -90,7 +115,12 @@ export async function save(
 			'design.plant.topology': `must be ${owner.topology} for this rail`
 		});
 	}
-	const metrics = cornerMetrics(parsed.data, owner);
+	const design = await completeSpec(db, owner, input.design as Record<string, unknown>);
+	const verification = await verifyDocument(design);
+	if ('error' in verification) {
+		const fields = Object.fromEntries(Object.entries(verification.error.fields).map(([k, v]) => [`design.${k}`, v]));
+		throw new ApiError(422, verification.error.code, `the design cannot be verified: ${verification.error.message}`, fields);
+	}
 	const base = input.baseRevision ?? 0;
 
 	return db.transaction(async (tx) => {
@@ -114,8 +144,9 @@ export async function save(
 			railId: owner.id,
 			revision: current + 1,
 			schemaVersion: SCHEMA_VERSION,
-			design: input.design as Record<string, unknown>,
-			metrics,
+			design,
+			verification,
+			engineVersion: verification.engineVersion,
 			message: input.message,
 			status: 'draft',
 			authorId: actor.userId,
@@ -125,7 +156,7 @@ export async function save(
 			templateId: input.templateId ?? null
 		};
 		await tx.insert(loopRevision).values(row);
-		const nominal = metrics[0];
+		await tx.update(rail).set({ verdictFlag: null }).where(eq(rail.id, owner.id));
 		await audit.record(tx, {
 			workspaceId: owner.workspaceId,
 			actor,
@@ -137,8 +168,8 @@ export async function save(
 				railId: owner.id,
 				revision: row.revision,
 				message: row.message,
-				crossoverHz: nominal?.crossoverHz ?? null,
-				phaseMarginDeg: nominal?.phaseMarginDeg ?? null
+				verdict: verification.status,
+				engineVersion: verification.engineVersion
 			}
 		});
 		return row;

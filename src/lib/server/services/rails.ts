@@ -8,8 +8,8 @@ import type { Database } from '../db';
 import { loopRevision, rail } from '../db/schema';
 import type { Page, PageQuery } from '../http/request';
 import { invalid } from '../http/errors';
-import { railCorners } from '../../corners';
 import { railSchema, type RailInput, type railUpdateSchema } from '../../schemas/workspace';
+import { railSpecSections } from '../../spec/railSpec';
 import * as audit from './audit';
 import { uniqueOr409 } from './errors';
 import type { Actor, MarginTargets } from './types';
@@ -24,11 +24,14 @@ function inputOf(r: Rail): RailInput {
 	return Object.fromEntries(FIELDS.map((k) => [k, r[k]])) as unknown as RailInput;
 }
 
-/** The API shape: the row plus its corners and the margin targets in force. */
+/**
+ * The API shape: the row plus the margin targets in force and `spec`, the verification spec a
+ * new revision of the rail starts from (document sections: targets, corners, tolerances, spread).
+ */
 export function present(r: Rail, workspaceTargets: MarginTargets, latestRevision: number | null = null) {
 	return {
 		...r,
-		corners: railCorners(r),
+		spec: railSpecSections({ ...r, targets: r.marginTargets ?? workspaceTargets }),
 		effectiveMarginTargets: r.marginTargets ?? workspaceTargets,
 		latestRevision
 	};
@@ -68,6 +71,7 @@ export async function create(db: Database, actor: Actor, owner: Project, input: 
 		projectId: owner.id,
 		...input,
 		notes: input.notes ?? null,
+		verdictFlag: null,
 		createdBy: actor.userId,
 		createdAt: now,
 		updatedAt: now
@@ -115,6 +119,24 @@ export async function update(db: Database, actor: Actor, existing: Rail, patch: 
 		duplicate
 	);
 	return next;
+}
+
+/** Clears the rail's "verdict changed" flag: someone has seen the new verdict. */
+export async function acknowledgeFlag(db: Database, actor: Actor, existing: Rail): Promise<Rail> {
+	if (!existing.verdictFlag) return existing;
+	await db.transaction(async (tx) => {
+		await tx.update(rail).set({ verdictFlag: null }).where(eq(rail.id, existing.id));
+		await audit.record(tx, {
+			workspaceId: existing.workspaceId,
+			actor,
+			action: 'rail.verdict-acknowledge',
+			entityType: 'rail',
+			entityId: existing.id,
+			before: { verdictFlag: existing.verdictFlag as unknown as Record<string, unknown> },
+			after: null
+		});
+	});
+	return { ...existing, verdictFlag: null };
 }
 
 export async function remove(db: Database, actor: Actor, existing: Rail): Promise<void> {

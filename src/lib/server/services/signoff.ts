@@ -1,7 +1,9 @@
 // The sign-off view of one loop revision, assembled for the review page, the exports and the
-// PDF report: its rail, board and margin targets in force, the engine's analysis at every
-// corner, the review trail (requests, comments, decisions from the audit log), the differences
-// to the rail's last approved revision, and the report itself.
+// PDF report: its rail and board, the verdict stored with it at save (never recomputed here),
+// the spec it was judged with, what the engineer saw (parts, warnings, operating point, closed
+// loop and steps, the plot with the corners that set the verdict), the review trail (requests,
+// comments, decisions from the audit log), the differences (parameters and verdict) to the
+// previous revision and to the last approved one, and the report itself.
 import { and, asc, eq, inArray } from 'drizzle-orm';
 import type { Database } from '../db';
 import { auditLog, project, user } from '../db/schema';
@@ -9,16 +11,36 @@ import { buildSignoffPdf, type ReviewEntry } from '../exports';
 import * as loops from './loops';
 import * as rails from './rails';
 import * as reviews from './reviews';
-import * as workspaces from './workspaces';
-import { analyzeRevision, judge, parameterDiff, spreadSummary, stepResponses } from './loop-analysis';
+import { verdictFigures } from '../../verdict/figures';
+import { analyzeStored, cornerTraces, parameterDiff, stepResponses, verdictDiff } from './loop-analysis';
 
 export type Loop = NonNullable<Awaited<ReturnType<typeof loops.get>>>;
 
 export async function context(db: Database, loop: Loop) {
 	const rail = await rails.get(db, loop.railId);
 	const [board] = rail ? await db.select({ id: project.id, name: project.name }).from(project).where(eq(project.id, rail.projectId)).limit(1) : [];
-	const targets = rail?.marginTargets ?? (await workspaces.marginTargets(db, loop.workspaceId));
-	return { rail, board: board ?? null, targets };
+	return { rail, board: board ?? null };
+}
+
+/** The revision's changes against an earlier one: parameters of the document and rows of the verdict. */
+function diffAgainst(base: Pick<loops.LoopRevision, 'id' | 'revision' | 'status' | 'design' | 'verification'> | null, loop: Loop) {
+	if (!base) return null;
+	return {
+		baseRevision: base.revision,
+		baseId: base.id,
+		baseStatus: base.status,
+		changes: parameterDiff(base.design, loop.design),
+		verdict: verdictDiff(base.verification, loop.verification)
+	};
+}
+
+/** Rows of the corner table: the corners that set a worst value first, then the lowest phase margins, at most 24. */
+function cornerRows(v: NonNullable<Loop['verification']>) {
+	const list = v.corners.list ?? [];
+	const named = new Set([v.worst.phaseMarginDeg, v.worst.gainMarginDb, v.worst.crossoverLowHz, v.worst.crossoverHighHz].filter((x) => x).map((x) => x!.corner));
+	const score = (c: (typeof list)[number]) => (c.error || c.closedLoopStable === false ? -1e9 : (c.phaseMarginDeg ?? -1e9));
+	const sorted = [...list].sort((a, b) => Number(named.has(b.label)) - Number(named.has(a.label)) || score(a) - score(b));
+	return sorted.slice(0, 24).map((c) => ({ ...c, setsWorst: named.has(c.label) }));
 }
 
 const ACTION_WORDS: Record<string, string> = {
@@ -48,61 +70,67 @@ export async function trail(db: Database, loop: Loop): Promise<(ReviewEntry & { 
 	});
 }
 
-/** Everything the review page shows, computed on the server. */
+/** Everything the review page shows: the stored verdict and what the engineer saw. */
 export async function reviewView(db: Database, loop: Loop) {
-	const { rail, board, targets } = await context(db, loop);
-	const analysis = analyzeRevision(loop.design, rail);
-	const base = rail ? await reviews.lastApproved(db, rail.id, loop.revision) : null;
-	const [comments, requests, history] = await Promise.all([loops.comments(db, loop.id), reviews.requestsFor(db, loop.id), trail(db, loop)]);
+	const { rail, board } = await context(db, loop);
+	const [comments, requests, history, previous, approved] = await Promise.all([
+		loops.comments(db, loop.id),
+		reviews.requestsFor(db, loop.id),
+		trail(db, loop),
+		loops.previous(db, loop.railId, loop.revision),
+		reviews.lastApproved(db, loop.railId, loop.revision)
+	]);
+	const v = loop.verification;
+	const doc = loop.design as { corners?: unknown; tolerances?: unknown; spread?: unknown };
 	const common = {
 		loop: { id: loop.id, revision: loop.revision, status: loop.status, message: loop.message, authorId: loop.authorId, authorName: loop.authorName, createdAt: loop.createdAt, templateId: loop.templateId },
-		rail: rail ? { id: rail.id, name: rail.name, projectId: rail.projectId, topology: rail.topology, fsw: rail.fsw, vout: rail.vout } : null,
+		rail: rail ? { id: rail.id, name: rail.name, projectId: rail.projectId, topology: rail.topology, fsw: rail.fsw, vout: rail.vout, verdictFlag: rail.verdictFlag } : null,
 		board,
-		targets,
+		/** The stored verdict without its per-corner list (the corner table below carries the rows that matter). */
+		verification: v ? { ...v, corners: { ...v.corners, list: undefined } } : null,
+		figures: v ? verdictFigures(v) : null,
+		corners: v ? cornerRows(v) : [],
+		spec: { targets: v?.targets ?? null, corners: doc.corners ?? null, tolerances: doc.tolerances ?? null, spread: doc.spread ?? null },
 		comments,
 		requests,
 		trail: history,
-		diff: base ? { baseRevision: base.revision, baseId: base.id, changes: parameterDiff(base.design, loop.design) } : null
+		diffs: { previous: diffAgainst(previous, loop), approved: diffAgainst(approved, loop) }
 	};
-	if ('error' in analysis) return { ...common, analysisError: analysis.error, corners: [], nominal: null, steps: null, spread: null };
-	const fsw = analysis.document.plant.fsw;
-	const m = analysis.nominal.metrics;
-	const nominalRow = { label: 'As designed', vin: analysis.document.plant.vin, iout: analysis.document.plant.iout, crossoverHz: m.crossoverHz, phaseMarginDeg: m.phaseMarginDeg, gainMarginDb: m.gainMarginDb, closedLoopStable: m.closedLoopStable };
-	const cornerRows = analysis.corners.map((c) => ({
-		label: c.label,
-		vin: c.vin,
-		iout: c.iout,
-		crossoverHz: c.response.metrics.crossoverHz,
-		phaseMarginDeg: c.response.metrics.phaseMarginDeg,
-		gainMarginDb: c.response.metrics.gainMarginDb,
-		closedLoopStable: c.response.metrics.closedLoopStable
-	}));
+	const detail = analyzeStored(loop.design);
+	if ('error' in detail) return { ...common, analysisError: detail.error, plot: null, operatingPoint: null, network: null, closedLoop: null, steps: null };
+	const r = detail.response;
+	const m = r.metrics;
+	const traces = cornerTraces(detail, v);
 	return {
 		...common,
 		analysisError: null,
-		nominal: { ...nominalRow, verdict: judge(nominalRow, targets, fsw), warnings: analysis.nominal.warnings.map((w) => w.message) },
-		corners: [
-			...cornerRows.map((c) => ({ ...c, verdict: judge(c, targets, fsw), error: null as string | null })),
-			...analysis.refused.map((r) => ({ label: r.label, vin: null, iout: null, crossoverHz: null, phaseMarginDeg: null, gainMarginDb: null, closedLoopStable: null, verdict: { status: 'fail' as const, reason: r.message }, error: r.message }))
-		],
-		steps: stepResponses(analysis.detail),
-		spread: rail ? spreadSummary(analysis.detail, rail.tolerances, targets) : null
+		plot: {
+			freqHz: r.response.freqHz,
+			nominal: { loop: r.response.loop, plant: r.response.plant, compensator: r.response.compensator },
+			corners: traces,
+			crossover: m.crossoverHz !== null && m.phaseMarginDeg !== null ? { freqHz: m.crossoverHz, phaseMarginDeg: m.phaseMarginDeg } : null,
+			gainMargin: m.gainMarginDb !== null && m.phaseCrossoverHz !== null ? { freqHz: m.phaseCrossoverHz, gainMarginDb: m.gainMarginDb } : null,
+			modelLimitHz: detail.document.plant.fsw / 2
+		},
+		operatingPoint: r.operatingPoint,
+		network: { kind: r.compensator.kind, zerosHz: (r.compensator.rounded ?? r.compensator.ideal).zerosHz, polesHz: (r.compensator.rounded ?? r.compensator.ideal).polesHz },
+		closedLoop: { stable: m.closedLoopStable, modulusMargin: m.modulusMargin, modulusMarginHz: m.modulusMarginHz, delayMarginS: m.delayMarginS, crossovers: m.crossovers, phaseCrossovers: m.phaseCrossovers, polesHz: m.closedLoopPolesHz },
+		steps: stepResponses(detail)
 	};
 }
 
-/** The sign-off report of a revision as a PDF. */
+/** The sign-off report of a revision as a PDF, from its stored verdict. */
 export async function reportPdf(db: Database, loop: Loop): Promise<Buffer | { error: { code: string; message: string; fields?: Record<string, string> } }> {
-	const { rail, board, targets } = await context(db, loop);
-	const analysis = analyzeRevision(loop.design, rail);
-	if ('error' in analysis) return analysis;
-	const fsw = analysis.document.plant.fsw;
+	const { rail, board } = await context(db, loop);
+	const detail = analyzeStored(loop.design);
+	if ('error' in detail) return detail;
 	return buildSignoffPdf({
 		rail: { name: rail?.name ?? 'rail', board: board?.name, notes: rail?.notes ?? undefined },
 		revision: { label: `r${loop.revision}`, author: loop.authorName ?? undefined, createdAt: loop.createdAt, status: loop.status },
-		document: analysis.document,
-		response: analysis.nominal,
-		corners: analysis.corners.map((c) => ({ label: c.label, vin: c.vin, iout: c.iout, response: c.response, verdict: judge(c.response.metrics, targets, fsw) })),
-		targets: { phaseMarginDeg: targets.phaseMarginDeg, gainMarginDb: targets.gainMarginDb },
+		document: detail.document,
+		response: detail.response,
+		verification: loop.verification,
+		cornerTraces: cornerTraces(detail, loop.verification),
 		review: (await trail(db, loop)).map(({ at, who, action, note, freqHz }) => ({ at, who, action, note, freqHz }))
 	});
 }

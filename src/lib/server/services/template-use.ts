@@ -9,11 +9,14 @@ import { loopRevision, rail, template } from '../db/schema';
 import { analyzeDesign } from '../../engine/analyze';
 import type { AnalysisResponse } from '../../engine/contract/responseSchema';
 import type { DesignDocument } from '../../engine/contract/designSchema';
+import type { Verification } from '../../engine/verify/types';
 import { readForm, starterForm } from '../../design/form';
 import type { templateSchema } from '../../schemas/workspace';
 import { ApiError } from '../http/errors';
-import { cornerMetrics } from './corner-metrics';
 import * as loops from './loops';
+import { completeSpec } from './rail-spec';
+import * as verdicts from './verdicts';
+import { verifyDocument } from './verify';
 import type { Rail } from './rails';
 import type { Template } from './templates';
 import type { Actor } from './types';
@@ -85,8 +88,9 @@ export function designWithStrategy(base: Record<string, unknown>, strategy: Stra
 }
 
 /**
- * Applies `tpl` to `target`: the network re-placed on the rail's plant, its achieved margins at
- * every corner, and (with `save`) a new revision that records the template.
+ * Applies `tpl` to `target`: the network re-placed on the rail's plant, its verdict against the
+ * rail's spec (the same verification a save stores), and (with `save`) a new revision that
+ * records the template.
  */
 export async function apply(db: Database, actor: Actor, tpl: Template, target: Rail, options: { save: boolean; message?: string }) {
 	if (tpl.topology && tpl.topology !== target.topology) {
@@ -112,7 +116,7 @@ export async function apply(db: Database, actor: Actor, tpl: Template, target: R
 			gainMarginDb: analysis.metrics.gainMarginDb,
 			closedLoopStable: analysis.metrics.closedLoopStable
 		},
-		corners: cornerMetrics(design as unknown as DesignDocument, target),
+		verification: null as Verification | null,
 		warnings: analysis.warnings.map((w) => w.message),
 		saved: null as null | { id: string; revision: number }
 	};
@@ -124,8 +128,18 @@ export async function apply(db: Database, actor: Actor, tpl: Template, target: R
 			templateId: tpl.id
 		});
 		result.saved = { id: row.id, revision: row.revision };
+		result.verification = row.verification;
+	} else {
+		const v = await verifyDocument(await completeSpec(db, target, design));
+		result.verification = 'error' in v ? null : v;
 	}
 	return result;
+}
+
+/** After `tpl` changed: re-verify every rail that uses it with the new strategy, flagging changed verdicts. */
+export async function reverifyUsers(db: Database, tpl: Template) {
+	const users = (await usage(db, tpl.workspaceId, [tpl.id]))[tpl.id] ?? [];
+	return verdicts.afterTemplateChange(db, tpl, users, (base) => designWithStrategy(base, tpl.compensator as Strategy));
 }
 
 /** Rails of the workspace whose latest revision was placed from a template, by template id. */

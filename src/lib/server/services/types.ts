@@ -10,8 +10,8 @@ export type MarginTargets = z.infer<typeof marginTargetsSchema>;
 /** Part and input tolerances of a rail, in percent (±). */
 export type RailTolerances = z.infer<typeof tolerancesSchema>;
 
-/** Stored per loop revision; shared with the browser, so it lives in $lib/corners. */
-export type { CornerMetrics } from '../../corners';
+/** The stored verdict and its flag; shared with the browser, so they live in $lib/verdict. */
+export type { VerdictFlag, VerdictBrief } from '../../verdict/flag';
 
 /** Who performs a write; recorded in the audit log. */
 export interface Actor {

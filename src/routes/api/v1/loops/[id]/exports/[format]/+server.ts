@@ -1,26 +1,28 @@
 // GET /api/v1/loops/{id}/exports/{format}: one revision as a file to download.
-// csv: the sweep (loop, plant, network); svg / png: the Bode plot as on screen (?corners=1 adds
-// the rail's corners faint, ?corner=N draws corner N alone, ?theme=dark); spice: the averaged
-// loop netlist for ngspice (?batch=1 ends it with `quit` for `ngspice -b`); json: the design
-// document; pdf: the sign-off report. Any member may export (loop.read).
+// csv: the sweep (loop, plant, network); verdict: the stored verdict as CSV (its rows, then
+// every corner); svg / png: the Bode plot as on screen (?corners=1 adds the corners that set
+// the stored verdict faint, ?corner=N draws that corner alone, ?theme=dark); spice: the
+// averaged loop netlist for ngspice (?batch=1 ends it with `quit` for `ngspice -b`); json: the
+// design document with the built network's parts and the stored verdict; pdf: the sign-off
+// report. Nothing recomputes the verdict. Any member may export (loop.read).
 import { db } from '$lib/server/db';
 import { authorizeRow } from '$lib/server/authz/guard';
 import { endpoint } from '$lib/server/http/endpoint';
 import { ApiError } from '$lib/server/http/errors';
 import { parseQuery } from '$lib/server/http/request';
-import { exportDesignJson, networkRoots, plotFromResponse, renderBodePng, renderBodeSvg, sweepCsv } from '$lib/server/exports';
+import { exportSignedOffJson, networkRoots, plotFromResponse, renderBodePng, renderBodeSvg, sweepCsv, verdictCsv } from '$lib/server/exports';
 import { netlistFromAnalysis } from '$lib/engine/spice';
 import * as loops from '$lib/server/services/loops';
 import * as signoff from '$lib/server/services/signoff';
-import { analyzeRevision } from '$lib/server/services/loop-analysis';
+import { analyzeStored, cornerTraces } from '$lib/server/services/loop-analysis';
 import { z } from 'zod';
 import type { RequestHandler } from './$types';
 
-const EXPORT_FORMATS = ['csv', 'svg', 'png', 'spice', 'json', 'pdf'] as const;
+const EXPORT_FORMATS = ['csv', 'verdict', 'svg', 'png', 'spice', 'json', 'pdf'] as const;
 
 const querySchema = z.object({
 	corners: z.enum(['0', '1']).optional(),
-	corner: z.coerce.number().int().min(0).max(20).optional(),
+	corner: z.coerce.number().int().min(0).max(3).optional(),
 	theme: z.enum(['light', 'dark']).optional(),
 	width: z.coerce.number().int().min(320).max(2400).optional(),
 	batch: z.enum(['0', '1']).optional()
@@ -28,6 +30,7 @@ const querySchema = z.object({
 
 const TYPES: Record<(typeof EXPORT_FORMATS)[number], { type: string; ext: string }> = {
 	csv: { type: 'text/csv; charset=utf-8', ext: 'csv' },
+	verdict: { type: 'text/csv; charset=utf-8', ext: 'csv' },
 	svg: { type: 'image/svg+xml; charset=utf-8', ext: 'svg' },
 	png: { type: 'image/png', ext: 'png' },
 	spice: { type: 'text/plain; charset=utf-8', ext: 'cir' },
@@ -63,28 +66,34 @@ export const GET: RequestHandler = endpoint(async (event) => {
 		if (!Buffer.isBuffer(pdf)) throw new ApiError(422, pdf.error.code, pdf.error.message, pdf.error.fields);
 		return file(pdf, 'pdf', `${base}-signoff`, false);
 	}
+	if (format === 'verdict') {
+		if (!row.verification) throw new ApiError(409, 'not-verified', 'this revision has no stored verdict yet; run npm run reverify');
+		return file(verdictCsv(row.verification), 'verdict', `${base}-verdict`, false);
+	}
 	if (format === 'json') {
-		const out = exportDesignJson(row.design);
+		const out = exportSignedOffJson(row.design, row.verification, { rail: rail?.name ?? null, revision: row.revision, status: row.status });
 		if (!out.ok) throw new ApiError(422, out.error.code, out.error.message, out.error.fields);
 		return file(out.json, 'json', base, false);
 	}
-	const analysis = analyzeRevision(row.design, format === 'svg' || format === 'png' ? rail : null);
-	if ('error' in analysis) throw new ApiError(422, analysis.error.code, `the stored design cannot be analysed: ${analysis.error.message}`, analysis.error.fields);
-	if (format === 'csv') return file(sweepCsv(analysis.nominal), 'csv', base, false);
+	const detail = analyzeStored(row.design);
+	if ('error' in detail) throw new ApiError(422, detail.error.code, `the stored design cannot be analysed: ${detail.error.message}`, detail.error.fields);
+	const nominal = detail.response;
+	if (format === 'csv') return file(sweepCsv(nominal), 'csv', base, false);
 	if (format === 'spice') {
-		const netlist = netlistFromAnalysis(analysis.detail, { batch: q.batch === '1', title: `Loopwright ${base}` });
+		const netlist = netlistFromAnalysis(detail, { batch: q.batch === '1', title: `Loopwright ${base}` });
 		return file(netlist, 'spice', base, false);
 	}
-	const fsw = analysis.document.plant.fsw;
+	const fsw = detail.document.plant.fsw;
+	const corners = cornerTraces(detail, row.verification);
 	let plot;
 	if (q.corner !== undefined) {
-		const c = analysis.corners[q.corner];
-		if (!c) throw new ApiError(400, 'invalid-query', 'the request failed validation', { corner: `must be 0…${analysis.corners.length - 1}` });
-		plot = plotFromResponse(c.response, { fswHz: fsw, title: `${base}, ${c.label}` });
+		const c = corners[q.corner];
+		if (!c) throw new ApiError(400, 'invalid-query', 'the request failed validation', { corner: corners.length ? `must be 0…${corners.length - 1} (the corners that set the verdict)` : 'this revision has no corner traces' });
+		plot = plotFromResponse(nominal, { fswHz: fsw, title: `${base}, ${c.label}`, show: { plant: false, compensator: false }, cornerLoops: [c] });
 	} else {
-		plot = plotFromResponse(analysis.nominal, { fswHz: fsw, corners: q.corners === '1' ? analysis.corners : [], title: `${base} loop gain` });
+		plot = plotFromResponse(nominal, { fswHz: fsw, cornerLoops: q.corners === '1' ? corners : [], title: `${base} loop gain` });
 	}
-	const options = { width: q.width ?? 900, theme: q.theme ?? 'light', roots: networkRoots(analysis.nominal) } as const;
+	const options = { width: q.width ?? 900, theme: q.theme ?? 'light', roots: networkRoots(nominal) } as const;
 	if (format === 'svg') return file(renderBodeSvg(plot, options), 'svg', base, inline);
 	return file(renderBodePng(plot, { ...options, pixelWidth: (q.width ?? 900) * 2 }), 'png', base, inline);
 });

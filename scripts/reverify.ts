@@ -1,0 +1,27 @@
+// `npm run reverify`: re-verifies the stored revisions whose verdict came from another engine
+// version (or has none yet), stores the new verdicts and flags every rail whose latest
+// revision's verdict changed. `--all` re-verifies every revision. Prints one line per revision
+// (before → after) and a JSON summary with --json. DB_* settings as in scripts/env.sh.
+import { db, pool } from '../src/lib/server/db';
+import { reverify } from '../src/lib/server/services/verdicts';
+
+const all = process.argv.includes('--all');
+const json = process.argv.includes('--json');
+try {
+	const entries = await reverify(db, {
+		all,
+		onEntry: (e) => {
+			if (json) return;
+			const before = e.before ? e.before.status : 'none';
+			const after = e.after ? e.after.status : `error: ${e.error}`;
+			console.log(`[reverify] ${e.railName} r${e.revision}: ${before} → ${after}${e.flagged ? '  (rail flagged)' : ''}${e.specFilled ? '  (spec filled from the rail)' : ''}`);
+		}
+	});
+	if (json) console.log(JSON.stringify(entries, null, 1));
+	else console.log(`[reverify] ${entries.length} revision(s) re-verified, ${entries.filter((e) => e.flagged).length} rail(s) flagged`);
+} catch (error) {
+	console.error('[reverify] failed:', error);
+	process.exitCode = 1;
+} finally {
+	await pool.end();
+}

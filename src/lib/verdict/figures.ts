@@ -1,0 +1,87 @@
+/**
+ * The headline figures of a stored verdict as people read them: worst PM, worst GM, the
+ * crossover range, the spread yield and pass / caution / fail, each with the corner that sets
+ * it. The design screen, the board table, the review page, the PDF and the API all print these
+ * strings, so the same verdict reads the same everywhere (formatting: $lib/units/format).
+ */
+import type { Verification, VerdictRow, VerdictStatus } from '../engine/verify/types';
+import { formatDb, formatDeg, formatEng, formatPercent } from '../units/format';
+
+export interface VerdictFigures {
+	status: VerdictStatus;
+	summary: string;
+	/** Lowest phase margin over every corner, e.g. "47.2°". */
+	pm: string;
+	pmCorner: string | null;
+	/** Lowest gain margin, e.g. "8.5 dB"; "–" when the phase never reaches −180°. */
+	gm: string;
+	gmCorner: string | null;
+	/** The crossover the verdict judges: the highest (the one the fsw limits bind), e.g. "16.2 kHz". */
+	fc: string;
+	fcCorner: string | null;
+	/** Lowest crossover. */
+	fcLow: string;
+	fcLowCorner: string | null;
+	/** Spread yield at the targets, e.g. "98.4%"; "–" without a spread section. */
+	yield: string;
+	/** "of 500 samples, seed 1" or "". */
+	yieldOf: string;
+	/** Number of corners checked. */
+	corners: number;
+}
+
+export function verdictFigures(v: Verification): VerdictFigures {
+	const w = v.worst;
+	// The headline texts are the verdict rows' values as every verdict table prints them.
+	const text = (metric: VerdictRow['metric']) => {
+		const row = v.rows.find((r) => r.metric === metric);
+		return row ? rowValueText(row) : '–';
+	};
+	return {
+		status: v.status,
+		summary: v.summary,
+		pm: text('pm'),
+		pmCorner: w.phaseMarginDeg?.corner ?? null,
+		gm: text('gm'),
+		gmCorner: w.gainMarginDb?.corner ?? null,
+		fc: text('fc'),
+		fcCorner: v.rows.find((r) => r.metric === 'fc')?.corner ?? null,
+		fcLow: formatEng(w.crossoverLowHz?.value, 'Hz'),
+		fcLowCorner: w.crossoverLowHz?.corner ?? null,
+		yield: v.spread ? text('yield') : '–',
+		yieldOf: v.spread ? `of ${v.spread.samples} samples, seed ${v.spread.seed}` : '',
+		corners: v.corners.count
+	};
+}
+
+/** "PM 47.2° · GM 8.5 dB · fc 16.2 kHz · yield 98.4% · caution": one line for exports and tests. */
+export function verdictLine(f: VerdictFigures): string {
+	return `PM ${f.pm} · GM ${f.gm} · fc ${f.fc} · yield ${f.yield} · ${f.status}`;
+}
+
+/** A verdict row's worst value as text, in the unit of its metric. */
+export function rowValueText(row: Pick<VerdictRow, 'metric' | 'value'>): string {
+	const v = row.value;
+	switch (row.metric) {
+		case 'pm':
+			return v === null ? 'no crossover' : formatDeg(v);
+		case 'gm':
+			return v === null ? 'no −180° crossing' : formatDb(v);
+		case 'fc':
+			return v === null ? 'no crossover' : formatEng(v, 'Hz');
+		case 'yield':
+			return formatPercent(v);
+		default:
+			return v === null ? '–' : String(v);
+	}
+}
+
+/** Column names of the verdict rows. */
+export const METRIC_WORDS: Record<VerdictRow['metric'], string> = {
+	pm: 'Phase margin',
+	gm: 'Gain margin',
+	fc: 'Crossover',
+	stability: 'Closed-loop stability',
+	yield: 'Spread yield',
+	model: 'Model validity'
+};
