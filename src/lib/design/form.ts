@@ -375,6 +375,8 @@ export interface RailSummary {
 	ioutMax: number;
 	fsw: number;
 	effectiveMarginTargets?: { phaseMarginDeg: number; gainMarginDb: number; maxCrossoverFraction: number } | null;
+	/** The spec a new revision of the rail starts from (the rail API's `spec`, withRailSpec's sections). */
+	spec?: { tolerances: DesignDocumentInput['tolerances']; spread: { samples: number; seed: number } } | null;
 }
 
 const f = (v: number | undefined, unit: UnitSymbol = '') => (v === undefined || v === null ? '' : toField(v, unit));
@@ -408,6 +410,8 @@ export function starterForm(rail: RailSummary): DesignForm {
 		pmTarget: String(targets?.phaseMarginDeg ?? 50),
 		gmTarget: String(targets?.gainMarginDb ?? 10),
 		maxCrossoverFraction: targets?.maxCrossoverFraction ?? DEFAULT_MARGIN_TARGETS.maxCrossoverFraction,
+		// The rail's tolerances and spread settings, as a save without them would get from the rail.
+		...(rail.spec ? { tolerances: toleranceRowsFromDocument(rail.spec.tolerances), spreadSamples: String(rail.spec.spread.samples), spreadSeed: String(rail.spec.spread.seed) } : {}),
 		method: 'k-factor'
 	};
 }

@@ -9,6 +9,7 @@ import type { LoopSpec } from '$lib/engine/corners/loopModel';
 import type { PartTolerance } from '$lib/engine/spread/spread';
 import { parseQuantity, formatForInput } from '$lib/units';
 import type { FieldSpec } from './form';
+import { DEFAULT_PART_TOLERANCES } from '$lib/spec/railSpec';
 
 export interface ToleranceRow {
 	part: PartName;
@@ -18,16 +19,14 @@ export interface ToleranceRow {
 	dist: 'uniform' | 'normal';
 }
 
-/** Usual tolerances [common practice: power inductors ±20 %, ceramics ±10–20 %, ESR wide, 1 % resistors, 5 % C0G]. */
-const DEFAULT_TOL: Record<PartName, number> = { l: 20, dcr: 10, rdsOn: 30, c: 20, esr: 50, esl: 30, r1: 1, r2: 1, r3: 1, c1: 5, c2: 5, c3: 5, gm: 20, ro: 20, vramp: 5 };
 
 export const TOL_SPEC: FieldSpec = { label: 'Tolerance', unit: '', suffix: '%', min: 0, max: 90 };
 
 const row = (part: PartName, tol: number, dist: 'uniform' | 'normal'): ToleranceRow => ({ part, label: PART_LABELS[part], tol: formatForInput(tol, '', 4), dist });
 
-/** Every part with its usual tolerance (L and C normal, the rest uniform). */
+/** Every part with its usual tolerance and distribution (one table: DEFAULT_PART_TOLERANCES, $lib/spec/railSpec). */
 export function defaultToleranceRows(): ToleranceRow[] {
-	return PART_NAMES.map((part) => row(part, DEFAULT_TOL[part], part === 'l' || part === 'c' ? 'normal' : 'uniform'));
+	return PART_NAMES.map((part) => row(part, DEFAULT_PART_TOLERANCES[part].tol * 100, DEFAULT_PART_TOLERANCES[part].dist));
 }
 
 /** Rows from a document's tolerances section; parts it leaves out get 0 % (the document decides). */

@@ -2,10 +2,11 @@
  * The headline figures of a stored verdict as people read them: worst PM, worst GM, the
  * crossover range, the spread yield and pass / caution / fail, each with the corner that sets
  * it. The design screen, the board table, the review page, the PDF and the API all print these
- * strings, so the same verdict reads the same everywhere (formatting: $lib/units/format).
+ * strings, so the same verdict reads the same everywhere (row values: the engine's verdictValueText).
  */
 import type { Verification, VerdictRow, VerdictStatus } from '../engine/verify/types';
-import { formatDb, formatDeg, formatEng, formatPercent } from '../units/format';
+import { verdictValueText } from '../engine/verify/text';
+import { formatEng } from '../units/format';
 
 export interface VerdictFigures {
 	status: VerdictStatus;
@@ -35,7 +36,7 @@ export function verdictFigures(v: Verification): VerdictFigures {
 	// The headline texts are the verdict rows' values as every verdict table prints them.
 	const text = (metric: VerdictRow['metric']) => {
 		const row = v.rows.find((r) => r.metric === metric);
-		return row ? rowValueText(row) : '–';
+		return row ? verdictValueText(row) : '–';
 	};
 	return {
 		status: v.status,
@@ -58,30 +59,3 @@ export function verdictFigures(v: Verification): VerdictFigures {
 export function verdictLine(f: VerdictFigures): string {
 	return `PM ${f.pm} · GM ${f.gm} · fc ${f.fc} · yield ${f.yield} · ${f.status}`;
 }
-
-/** A verdict row's worst value as text, in the unit of its metric. */
-export function rowValueText(row: Pick<VerdictRow, 'metric' | 'value'>): string {
-	const v = row.value;
-	switch (row.metric) {
-		case 'pm':
-			return v === null ? 'no crossover' : formatDeg(v);
-		case 'gm':
-			return v === null ? 'no −180° crossing' : formatDb(v);
-		case 'fc':
-			return v === null ? 'no crossover' : formatEng(v, 'Hz');
-		case 'yield':
-			return formatPercent(v);
-		default:
-			return v === null ? '–' : String(v);
-	}
-}
-
-/** Column names of the verdict rows. */
-export const METRIC_WORDS: Record<VerdictRow['metric'], string> = {
-	pm: 'Phase margin',
-	gm: 'Gain margin',
-	fc: 'Crossover',
-	stability: 'Closed-loop stability',
-	yield: 'Spread yield',
-	model: 'Model validity'
-};

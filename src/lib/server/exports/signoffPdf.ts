@@ -9,7 +9,8 @@ import PDFDocument from 'pdfkit';
 import type { AnalysisResponse, DesignDocument } from '$lib/engine';
 import type { Verification } from '$lib/engine/verify/types';
 import { formatDb, formatDeg, formatEng, formatPart, formatPercent } from '$lib/units/format';
-import { METRIC_WORDS, rowValueText, verdictFigures, verdictLine } from '$lib/verdict/figures';
+import { VERDICT_LABELS, verdictValueText } from '$lib/engine/verify/text';
+import { verdictFigures, verdictLine } from '$lib/verdict/figures';
 import { networkRoots, plotFromResponse } from './plotData';
 import { renderBodePng } from './png';
 import { drawableText } from './drawableText';
@@ -121,7 +122,7 @@ export function buildSignoffPdf(input: SignoffReportInput, options: PdfOptions =
 			doc,
 			['Check', 'Worst', 'Target', 'Corner', 'Status and reason'],
 			[80, 55, 50, 130, w - 315],
-			v.rows.map((r) => ({ cells: [METRIC_WORDS[r.metric], rowValueText(r), r.target, r.corner ?? '', `${r.status}: ${r.reason}`], colour: STATUS_COLOUR[r.status] }))
+			v.rows.map((r) => ({ cells: [VERDICT_LABELS[r.metric], verdictValueText(r), r.target, r.corner ?? '', `${r.status}: ${r.reason}`], colour: STATUS_COLOUR[r.status] }))
 		);
 	} else {
 		doc.font('Helvetica').fontSize(9).fillColor(STATUS_COLOUR.fail).text('This revision has no stored verdict yet; re-verify it (npm run reverify) before signing it off.');
