@@ -68,6 +68,20 @@ describe('invitations', () => {
 		expect(owner.body.items.length).toBeGreaterThan(0);
 	});
 
+	it("the audit trail shows invitation entries (address, the link's id) to owners only", async () => {
+		const sent = await invite(team.as.owner, team.workspaceId, uniqueEmail('audited'));
+		const trail = (who: Client) => who.get(`/api/v1/audit?workspace=${team.workspaceId}&limit=200`);
+		const ids = (reply: { body: { items: { entityId: string }[] } }) => reply.body.items.map((i) => i.entityId);
+		expect(ids(await trail(team.as.owner))).toContain(sent.body.id);
+		for (const role of ['engineer', 'reviewer', 'viewer'] as const) {
+			const reply = await trail(team.as[role]);
+			expect(reply.status, role).toBe(200);
+			expect(ids(reply), role).not.toContain(sent.body.id);
+			expect(JSON.stringify(reply.body), role).not.toContain('"member.invite"');
+		}
+		expect((await team.as.viewer.get(`/api/v1/audit?workspace=${team.workspaceId}&entityId=${sent.body.id}`)).body.items).toEqual([]);
+	});
+
 	it('signing up with an invited address gives no session, so the invitation cannot be accepted without the mailbox', async () => {
 		const invited = uniqueEmail('hijacked');
 		const sent = await invite(team.as.owner, team.workspaceId, invited, 'owner');

@@ -1,6 +1,6 @@
 // The audit log: one row per write (who, what, when, a before/after summary). Services call
 // `record` inside the same transaction as the write, so a write without its trail never lands.
-import { and, count, desc, eq } from 'drizzle-orm';
+import { and, count, desc, eq, ne } from 'drizzle-orm';
 import type { Database } from '../db';
 import { auditLog } from '../db/schema';
 import type { PageQuery, Page } from '../http/request';
@@ -47,9 +47,14 @@ export async function list(
 	db: Database,
 	workspaceId: string,
 	page: PageQuery,
-	filter: { entityId?: string } = {}
+	filter: { entityId?: string; withInvitations?: boolean } = {}
 ): Promise<Page<typeof auditLog.$inferSelect>> {
-	const where = and(eq(auditLog.workspaceId, workspaceId), filter.entityId ? eq(auditLog.entityId, filter.entityId) : undefined);
+	const where = and(
+		eq(auditLog.workspaceId, workspaceId),
+		filter.entityId ? eq(auditLog.entityId, filter.entityId) : undefined,
+		// An invitation's entry names the invited address and carries the id its acceptance link is made of.
+		filter.withInvitations === false ? ne(auditLog.entityType, 'invitation') : undefined
+	);
 	const [items, [{ total }]] = await Promise.all([
 		db.select().from(auditLog).where(where).orderBy(desc(auditLog.id)).limit(page.limit).offset(page.offset),
 		db.select({ total: count() }).from(auditLog).where(where)

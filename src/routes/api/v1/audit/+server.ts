@@ -1,7 +1,10 @@
 // GET /api/v1/audit?workspace=&entityId=&limit=&offset=: the workspace's audit trail, newest first.
+// Invitation entries (the invited address, the id the acceptance link is made of) only for those
+// who may invite, the owners: like the pending invitations themselves.
 import { z } from 'zod';
 import { db } from '$lib/server/db';
 import { authorize, requestedWorkspaceId } from '$lib/server/authz/guard';
+import { can } from '$lib/server/authz/permissions';
 import { endpoint } from '$lib/server/http/endpoint';
 import { pageQuery, parseQuery } from '$lib/server/http/request';
 import * as audit from '$lib/server/services/audit';
@@ -12,5 +15,5 @@ const query = pageQuery.extend({ entityId: z.string().max(36).optional(), worksp
 export const GET: RequestHandler = endpoint(async (event) => {
 	const access = await authorize(event, await requestedWorkspaceId(event), 'audit.read', 'workspace');
 	const { entityId, workspace: _w, ...page } = parseQuery(event, query);
-	return audit.list(db, access.workspaceId, page, { entityId });
+	return audit.list(db, access.workspaceId, page, { entityId, withInvitations: can(access.role, 'member.invite') });
 });
