@@ -22,12 +22,11 @@ import autocannon from 'autocannon';
 import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
 import { randomBytes } from 'node:crypto';
 import { mkdirSync, writeFileSync } from 'node:fs';
-import { createServer } from 'node:net';
 import { readFileSync } from 'node:fs';
 import { loadavg } from 'node:os';
 import mysql from 'mysql2/promise';
 import { buckDesign } from '../tests/integration/support/designs';
-import { ensureMailFake } from '../tests/integration/support/mail-fake';
+import { ensureMailFake, freePort } from '../tests/integration/support/mail-fake';
 import { confirmationLink } from '../tests/integration/support/mail';
 
 const args = new Set(process.argv.slice(2));
@@ -50,17 +49,6 @@ const round = (x: number, digits = 2) => Number(x.toFixed(digits));
 
 /** The design the load sends: the integration tests' 12 V → 5 V buck, Type III placed by K-factor. */
 const DESIGN = buckDesign();
-
-function freePort(): Promise<number> {
-	return new Promise((resolve, reject) => {
-		const s = createServer();
-		s.once('error', reject);
-		s.listen(0, '127.0.0.1', () => {
-			const a = s.address();
-			s.close(() => resolve(typeof a === 'object' && a ? a.port : 0));
-		});
-	});
-}
 
 function sh(command: string, env: Record<string, string> = {}) {
 	const r = spawnSync('bash', ['-c', command], { stdio: 'inherit', env: { ...process.env, ...env } });
