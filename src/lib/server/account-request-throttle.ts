@@ -1,6 +1,6 @@
-// Account-request throttle: a better-auth plugin that caps account creation and password-reset
-// requests per client address (and reset requests per e-mail) in fixed windows, and answers 429
-// beyond them. Like the sign-in throttle its hooks run for the forms' in-process calls
+// Account-request throttle: a better-auth plugin that caps account creation, password-reset and
+// confirmation-mail requests per client address and per e-mail in fixed windows, and answers 429
+// beyond them (each of these mails someone, so each could flood a mailbox). Like the sign-in throttle its hooks run for the forms' in-process calls
 // (auth.api.signUpEmail, auth.api.requestPasswordReset) as well as for /api/auth, which better-auth's
 // own limiter (HTTP handler only) does not see. Every attempt counts, not only failed ones: the
 // abuse is volume (accounts made by a script, a mailbox flooded with reset links). The counts live
@@ -13,6 +13,9 @@ import { clientAddressOf, emailOf } from './sign-in-throttle';
 
 export interface AccountRequestLimits {
 	signUpPerAddress: Window;
+	/** A sign-up with a taken address mails its owner a note, so sign-ups count per e-mail too. */
+	signUpPerEmail: Window;
+	/** Reset links and fresh confirmation links (better-auth's /send-verification-email), each per e-mail and per client address. */
 	resetPerEmail: Window;
 	resetPerAddress: Window;
 }
@@ -33,13 +36,18 @@ export function limitFromEnv(env: Record<string, string | undefined>, name: stri
 export function accountRequestLimits(env: Record<string, string | undefined> = process.env): AccountRequestLimits {
 	return {
 		signUpPerAddress: { max: limitFromEnv(env, 'SIGN_UP_LIMIT_PER_HOUR', 20), windowSeconds: 3600 },
+		signUpPerEmail: { max: 5, windowSeconds: 3600 },
 		resetPerEmail: { max: 5, windowSeconds: 3600 },
 		resetPerAddress: { max: 20, windowSeconds: 3600 }
 	};
 }
 
 const SIGN_UP_PATH = '/sign-up/email';
-const RESET_PATH = '/request-password-reset';
+/** Requests that mail a link to a named address, and what the 429 calls them. */
+const MAIL_REQUESTS: Record<string, string> = {
+	'/request-password-reset': 'password-reset requests',
+	'/send-verification-email': 'confirmation e-mails'
+};
 
 function tooMany(what: string, source: string, waitS: number): APIError {
 	return new APIError(
@@ -61,17 +69,22 @@ export function accountRequestThrottle(db: Database, limits = accountRequestLimi
 						const count = await counter.hit(bucketOf('sign-up-address', clientAddressOf(ctx)), limits.signUpPerAddress);
 						const wait = overLimit(count, limits.signUpPerAddress);
 						if (wait > 0) throw tooMany('sign-ups', 'from this network', wait);
+						const perEmail = await counter.hit(bucketOf('sign-up-email', emailOf(ctx)), limits.signUpPerEmail);
+						const emailWait = overLimit(perEmail, limits.signUpPerEmail);
+						if (emailWait > 0) throw tooMany('sign-ups', 'for this e-mail', emailWait);
 					})
 				},
 				{
-					matcher: (ctx) => ctx.path === RESET_PATH,
+					matcher: (ctx) => Object.hasOwn(MAIL_REQUESTS, ctx.path ?? ''),
 					handler: createAuthMiddleware(async (ctx) => {
-						const perAddress = await counter.hit(bucketOf('reset-address', clientAddressOf(ctx)), limits.resetPerAddress);
+						const what = MAIL_REQUESTS[ctx.path];
+						const kind = ctx.path === '/request-password-reset' ? 'reset' : 'confirm';
+						const perAddress = await counter.hit(bucketOf(`${kind}-address`, clientAddressOf(ctx)), limits.resetPerAddress);
 						const addressWait = overLimit(perAddress, limits.resetPerAddress);
-						if (addressWait > 0) throw tooMany('password-reset requests', 'from this network', addressWait);
-						const perEmail = await counter.hit(bucketOf('reset-email', emailOf(ctx)), limits.resetPerEmail);
+						if (addressWait > 0) throw tooMany(what, 'from this network', addressWait);
+						const perEmail = await counter.hit(bucketOf(`${kind}-email`, emailOf(ctx)), limits.resetPerEmail);
 						const emailWait = overLimit(perEmail, limits.resetPerEmail);
-						if (emailWait > 0) throw tooMany('password-reset requests', 'for this e-mail', emailWait);
+						if (emailWait > 0) throw tooMany(what, 'for this e-mail', emailWait);
 					})
 				}
 			]

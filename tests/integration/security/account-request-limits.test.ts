@@ -23,6 +23,7 @@ describe('account-request throttle', () => {
 		// [common practice: a handful of reset links per person per hour, a wider cap per address]
 		expect(accountRequestLimits({})).toEqual({
 			signUpPerAddress: { max: 20, windowSeconds: 3600 },
+			signUpPerEmail: { max: 5, windowSeconds: 3600 },
 			resetPerEmail: { max: 5, windowSeconds: 3600 },
 			resetPerAddress: { max: 20, windowSeconds: 3600 }
 		});
@@ -49,6 +50,23 @@ describe('account-request throttle', () => {
 		expect(Number(api.headers['retry-after'])).toBeGreaterThan(0);
 		expect((await postFromAddress(app.origin, first, '/forgot-password', 'form', { email: uniqueEmail('reset-other') })).status).toBe(200);
 	});
+
+	it('mails to one address cannot be multiplied from many clients: fresh confirmation links and sign-ups with a taken address are capped per e-mail', async () => {
+		const { resetPerEmail, signUpPerEmail } = accountRequestLimits();
+		const unconfirmed = uniqueEmail('confirm-cap');
+		expect((await postFromAddress(app.origin, freshLoopback(), '/api/auth/sign-up/email', 'json', { email: unconfirmed, password: PASSWORD, name: 'Cap' })).status).toBe(200);
+		const confirm = () => postFromAddress(app.origin, freshLoopback(), '/api/auth/send-verification-email', 'json', { email: unconfirmed });
+		for (let i = 0; i < resetPerEmail.max; i++) expect((await confirm()).status).toBe(200);
+		const tooMany = await confirm();
+		expect(tooMany.status).toBe(429);
+		expect(tooMany.text).toContain('Too many confirmation e-mails for this e-mail');
+		// The sign-up above was the first of this e-mail's sign-ups; each further one (an existing account: a note to its owner) counts too.
+		const signUpAgain = () => postFromAddress(app.origin, freshLoopback(), '/api/auth/sign-up/email', 'json', { email: unconfirmed, password: PASSWORD, name: 'Again' });
+		for (let i = 1; i < signUpPerEmail.max; i++) expect((await signUpAgain()).status).toBe(200);
+		const refused = await signUpAgain();
+		expect(refused.status).toBe(429);
+		expect(refused.text).toContain('Too many sign-ups for this e-mail');
+	}, 30_000);
 
 	it('sign-ups beyond the cap answer 429 over HTTP and in-process alike, per client address', async () => {
 		const limits = { ...accountRequestLimits({}), signUpPerAddress: { max: 3, windowSeconds: 3600 } };
