@@ -1,4 +1,4 @@
-// Request pipeline: security headers on every answer, record the client address, identify the caller (better-auth session
+// Request pipeline: security headers on every answer, API bodies within their limit, record the client address, identify the caller (better-auth session
 // cookie, or an API token on /api/v1), then guard the request (body size, signed-in areas,
 // development-only pages). Every endpoint still checks the caller's role itself through
 // $lib/server/authz/guard.
@@ -9,11 +9,10 @@ import { svelteKitHandler } from 'better-auth/svelte-kit';
 import { auth } from '$lib/server/auth';
 import { db } from '$lib/server/db';
 import { isProduction } from '$lib/server/env';
-import { errorResponse, ApiError, databaseUnavailable, isDatabaseUnavailable } from '$lib/server/http/errors';
+import { errorResponse, databaseUnavailable, isDatabaseUnavailable } from '$lib/server/http/errors';
 import { databaseAnswers } from '$lib/server/health';
-import { MAX_BODY_BYTES } from '$lib/server/http/request';
+import { bodyLimitFor, boundedRequest, payloadTooLargeResponse } from '$lib/server/http/bodyLimit';
 import { withSecurityHeaders } from '$lib/server/http/securityHeaders';
-import { BENCH_MAX_BYTES } from '$lib/bench';
 import * as tokens from '$lib/server/services/tokens';
 import { CLIENT_IP_HEADER } from '$lib/server/sign-in-throttle';
 import { signInPath } from '$lib/safeRedirect';
@@ -67,30 +66,31 @@ const identify: Handle = async ({ event, resolve }) => {
 	return svelteKitHandler({ event, resolve, auth, building });
 };
 
-/** Bench uploads may carry a whole analyzer file (the route checks the exact 5 MB rule itself,
- * multipart framing included); every other API body is a JSON document of at most 1 MB. */
-function bodyLimitFor(path: string): number {
-	return /^\/api\/v1\/rails\/[^/]+\/bench\/?$/.test(path) ? Math.ceil(BENCH_MAX_BYTES * 1.25) : MAX_BODY_BYTES;
-}
-
 /** Page trees only signed-in users may open (their loads check again). */
 const SIGNED_IN_AREAS = ['/w', '/app'];
 
 const guard: Handle = async ({ event, resolve }) => {
 	const path = event.url.pathname;
-	const limit = bodyLimitFor(path);
-	if (path.startsWith('/api/v1/') && Number(event.request.headers.get('content-length') ?? 0) > limit) {
-		const response = errorResponse(new ApiError(413, 'payload-too-large', `the body exceeds ${limit} bytes`));
-		// The unread body is still on the socket: close it rather than let the client reuse it.
-		response.headers.set('connection', 'close');
-		return response;
-	}
 	if (SIGNED_IN_AREAS.some((area) => path === area || path.startsWith(`${area}/`)) && !event.locals.user) {
 		redirect(303, signInPath(path + event.url.search));
 	}
 	if ((path === '/dev' || path.startsWith('/dev/')) && isProduction()) {
 		return new Response('Not found', { status: 404 });
 	}
+	return resolve(event);
+};
+
+/**
+ * Every API body within its limit, before anything reads it (better-auth's endpoints included): a
+ * declared length over the limit, or a chunked body passing it, is 413 (http/bodyLimit.ts).
+ */
+const bodyLimit: Handle = async ({ event, resolve }) => {
+	const path = event.url.pathname;
+	if (!path.startsWith('/api/')) return resolve(event);
+	const limit = bodyLimitFor(path);
+	const bounded = await boundedRequest(event.request, limit);
+	if (bounded === 'too-large') return payloadTooLargeResponse(limit);
+	event.request = bounded;
 	return resolve(event);
 };
 
@@ -104,4 +104,4 @@ const securityHeaders: Handle = async ({ event, resolve }) => {
 	}
 };
 
-export const handle = sequence(securityHeaders, clientAddress, identify, guard);
+export const handle = sequence(securityHeaders, bodyLimit, clientAddress, identify, guard);

@@ -5,6 +5,7 @@
 import { expect, test } from '@playwright/test';
 import { randomUUID } from 'node:crypto';
 import { apiHandlers, pageServerExports } from '../integration/security/routes';
+import { chunkedUpload } from '../integration/security/support/chunked';
 import { createWorkspace, originHeaders, PASSWORD, signUp } from './support/fixtures';
 import { confirmationLink } from '../integration/support/mail';
 
@@ -137,4 +138,17 @@ test('sign-up in the browser: the page says to check the mail; the mailed link c
 	await page.getByRole('button', { name: 'Accept and open the workspace' }).click();
 	await expect(page).toHaveURL(new RegExp(`/w/${workspaceId}$`));
 	await ownerContext.close();
+});
+
+test('a 50 MB chunked body to an API route of the production build is 413 with the API error body, not 500', async ({ request, baseURL }) => {
+	// adapter-node (BODY_SIZE_LIMIT 7M here) and our own 1 MB API limit meet the same upload: ours answers first.
+	const user = await signUp(request, baseURL!, 'Big Body');
+	const session = await request.post('/api/auth/sign-in/email', { headers: originHeaders(baseURL!), data: { email: user.email, password: PASSWORD } });
+	const cookie = (await session.headersArray()).filter((h) => h.name.toLowerCase() === 'set-cookie').map((h) => h.value.split(';')[0]).join('; ');
+	for (const path of ['/api/v1/analyze', '/api/v1/workspaces', '/api/auth/sign-in/email']) {
+		const reply = await chunkedUpload(baseURL + path, { 'content-type': 'application/json', cookie }, 50 * 1024 * 1024);
+		expect(reply.status, `${path}: ${reply.body.slice(0, 200)}`).toBe(413);
+		expect(JSON.parse(reply.body).error.code, path).toBe('payload-too-large');
+		expect(reply.sent, path).toBeLessThan(25 * 1024 * 1024); // it stopped reading near the limit
+	}
 });

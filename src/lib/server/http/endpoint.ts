@@ -13,6 +13,8 @@ export function endpoint<E extends RequestEvent>(handler: (event: E) => Promise<
 			return jsonBody(result, 200);
 		} catch (error) {
 			if (error instanceof ApiError) return errorResponse(error);
+			// adapter-node's BODY_SIZE_LIMIT, met while a handler reads the body: the same 413 as our own limit.
+			if (isPayloadTooLarge(error)) return errorResponse(new ApiError(413, 'payload-too-large', (error as Error).message || 'the body is too large'));
 			if (isHttpError(error)) {
 				return errorResponse(new ApiError(error.status, 'http-error', error.body.message));
 			}
@@ -21,6 +23,10 @@ export function endpoint<E extends RequestEvent>(handler: (event: E) => Promise<
 			return errorResponse(new ApiError(500, 'internal-error', 'the server failed to answer; the error is logged'));
 		}
 	};
+}
+
+function isPayloadTooLarge(error: unknown): boolean {
+	return typeof error === 'object' && error !== null && (error as { status?: unknown }).status === 413;
 }
 
 /** A JSON answer that must not be cached: one JSON.stringify, one UTF-8 encoding, exact content-length. */

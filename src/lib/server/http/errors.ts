@@ -37,10 +37,15 @@ export function invalid(error: z.ZodError, code = 'invalid-request', prefix = ''
 	return new ApiError(400, code, 'the request failed validation', zodFields(error, prefix));
 }
 
-export function errorResponse(error: ApiError): Response {
+/** The API's error body: `{ error: { code, message, fields?, …extra } }`. */
+export function errorBody(error: ApiError): { error: Record<string, unknown> } {
 	const body: Record<string, unknown> = { code: error.code, message: error.message, ...error.extra };
 	if (error.fields) body.fields = error.fields;
-	return json({ error: body }, { status: error.status, headers: { 'cache-control': 'no-store' } });
+	return { error: body };
+}
+
+export function errorResponse(error: ApiError): Response {
+	return json(errorBody(error), { status: error.status, headers: { 'cache-control': 'no-store' } });
 }
 
 /** Error codes (Node sockets, mysql2) that mean the database cannot be reached right now. */

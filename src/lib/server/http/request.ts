@@ -1,11 +1,11 @@
-// Reading and validating API requests: JSON bodies with a size limit (413), zod validation
+// Reading and validating API requests: JSON bodies within their size limit (413, ./bodyLimit), zod validation
 // of bodies and query strings (400 with field errors), and list pagination.
 import type { RequestEvent } from '@sveltejs/kit';
 import { z } from 'zod';
+import { MAX_BODY_BYTES, payloadTooLarge, readBodyLimited } from './bodyLimit';
 import { ApiError, invalid } from './errors';
 
-/** Largest accepted JSON body. A design document with a custom sweep is a few hundred kB at most. */
-export const MAX_BODY_BYTES = 1_000_000;
+export { MAX_BODY_BYTES };
 
 export async function readJson(event: RequestEvent): Promise<unknown> {
 	const type = event.request.headers.get('content-type') ?? '';
@@ -13,18 +13,15 @@ export async function readJson(event: RequestEvent): Promise<unknown> {
 		throw new ApiError(415, 'unsupported-media-type', 'send the body as application/json');
 	}
 	const declared = Number(event.request.headers.get('content-length') ?? 0);
-	if (declared > MAX_BODY_BYTES) throw tooLarge();
-	const text = await event.request.text();
-	if (Buffer.byteLength(text) > MAX_BODY_BYTES) throw tooLarge();
+	const bytes = declared > MAX_BODY_BYTES ? null : await readBodyLimited(event.request.body, MAX_BODY_BYTES);
+	// The request hook already bounds every API body (./bodyLimit); this holds for any other caller.
+	if (bytes === null) throw payloadTooLarge(MAX_BODY_BYTES);
 	try {
-		return JSON.parse(text);
+		// TextDecoder drops a leading byte-order mark, as Request.text() did.
+		return JSON.parse(new TextDecoder().decode(bytes));
 	} catch {
 		throw new ApiError(400, 'invalid-json', 'the body is not valid JSON');
 	}
-}
-
-function tooLarge() {
-	return new ApiError(413, 'payload-too-large', `the body exceeds ${MAX_BODY_BYTES} bytes`);
 }
 
 export async function parseBody<S extends z.ZodType>(event: RequestEvent, schema: S): Promise<z.infer<S>> {
