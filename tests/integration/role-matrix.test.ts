@@ -201,7 +201,13 @@ const cases: RouteCase[] = [
 		prepare: async () => ({ path: `/api/v1/templates?workspace=${ws()}`, body: { name: unique('tpl'), compensator: { kind: 'type3', target: { method: 'k-factor', phaseMarginDeg: 55 } } } })
 	},
 	{ method: 'GET', route: '/api/v1/templates/[id]', action: 'template.read', prepare: async () => ({ path: `/api/v1/templates/${templateId}` }) },
-	{ method: 'PATCH', route: '/api/v1/templates/[id]', action: 'template.update', prepare: async () => ({ path: `/api/v1/templates/${templateId}`, body: { description: unique('d') } }) },
+	{
+		method: 'PATCH',
+		route: '/api/v1/templates/[id]',
+		action: 'template.update',
+		// An edit names the version it was made on (optimistic concurrency).
+		prepare: async () => ({ path: `/api/v1/templates/${templateId}`, body: { description: unique('d'), baseUpdatedAt: (await owner().get(`/api/v1/templates/${templateId}`)).body.updatedAt } })
+	},
 	{
 		method: 'DELETE',
 		route: '/api/v1/templates/[id]',

@@ -108,11 +108,12 @@ describe('template change', () => {
 		expect(stored.rows.find((r: { metric: string }) => r.metric === 'fc').status).toBe('pass');
 
 		// A renamed template changes no network: nothing to re-verify.
-		const renamed = await team.as.engineer.patch(`/api/v1/templates/${tpl.body.id}`, { name: `${tpl.body.name} (renamed)` });
+		const renamed = await team.as.engineer.patch(`/api/v1/templates/${tpl.body.id}`, { name: `${tpl.body.name} (renamed)`, baseUpdatedAt: tpl.body.updatedAt });
 		expect(renamed.body.reverified).toEqual([]);
 
 		// Crossover at 0.45 × fsw: above the 0.2 × fsw target [common practice: fc ≤ fsw/5], so the fc row cannot stay pass.
 		const changed = await team.as.engineer.patch(`/api/v1/templates/${tpl.body.id}`, {
+			baseUpdatedAt: renamed.body.updatedAt,
 			compensator: { kind: 'type3', target: { method: 'k-factor', crossoverFraction: 0.45, phaseMarginDeg: 60 }, series: { resistors: 'E96', capacitors: 'E12' } }
 		});
 		expect(changed.status, JSON.stringify(changed.body)).toBe(200);

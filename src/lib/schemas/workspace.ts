@@ -126,7 +126,14 @@ export const templateSchema = z.object({
 	topology: topologySchema.nullable().default(null),
 	compensator: compensatorStrategy
 });
-export const templateUpdateSchema = templateSchema.partial().refine((v) => Object.keys(v).length > 0, 'send at least one field');
+/**
+ * An edit names the version it was made on, `baseUpdatedAt` (the template's updatedAt as read), like a loop
+ * save names its base revision: an edit on a version someone else has since changed is refused with 409.
+ */
+export const templateUpdateSchema = templateSchema
+	.partial()
+	.extend({ baseUpdatedAt: z.iso.datetime({ message: 'send the updatedAt of the template as you read it (ISO 8601)' }) })
+	.refine((v) => Object.keys(v).some((k) => k !== 'baseUpdatedAt'), 'send at least one field');
 
 export const workspaceCreateSchema = z.object({
 	name: z.string().trim().min(1).max(120),

@@ -5,6 +5,7 @@ import { asc, count, eq } from 'drizzle-orm';
 import type { z } from 'zod';
 import type { Database } from '../db';
 import { template } from '../db/schema';
+import { ApiError, notFound } from '../http/errors';
 import type { Page, PageQuery } from '../http/request';
 import type { templateSchema, templateUpdateSchema } from '../../schemas/workspace';
 import * as audit from './audit';
@@ -53,35 +54,52 @@ export async function create(db: Database, actor: Actor, workspaceId: string, in
 	return row;
 }
 
+/**
+ * Applies an edit made on the version `patch.baseUpdatedAt`. The row is locked (SELECT … FOR UPDATE)
+ * and its updatedAt compared inside the write's transaction: an edit on a version someone else has
+ * changed since is refused with 409 `stale-template`, naming the current version, and changes nothing.
+ * Each write moves updatedAt forward by at least 1 ms, so two versions never share a time.
+ */
 export async function update(db: Database, actor: Actor, existing: Template, patch: z.infer<typeof templateUpdateSchema>): Promise<Template> {
-	const next: Template = {
-		...existing,
-		name: patch.name ?? existing.name,
-		description: patch.description === undefined ? existing.description : (patch.description ?? null),
-		topology: patch.topology === undefined ? existing.topology : patch.topology,
-		compensator: patch.compensator ?? existing.compensator,
-		updatedAt: new Date()
-	};
-	await uniqueOr409(
+	return uniqueOr409(
 		() =>
 			db.transaction(async (tx) => {
+				const [current] = await tx.select().from(template).where(eq(template.id, existing.id)).for('update');
+				if (!current) throw notFound('template');
+				if (current.updatedAt.getTime() !== new Date(patch.baseUpdatedAt).getTime()) {
+					throw new ApiError(
+						409,
+						'stale-template',
+						`the template was changed at ${current.updatedAt.toISOString()}, after the version you edited (${patch.baseUpdatedAt}); reload it, merge your change and send baseUpdatedAt ${current.updatedAt.toISOString()}`,
+						undefined,
+						{ current }
+					);
+				}
+				const next: Template = {
+					...current,
+					name: patch.name ?? current.name,
+					description: patch.description === undefined ? current.description : (patch.description ?? null),
+					topology: patch.topology === undefined ? current.topology : patch.topology,
+					compensator: patch.compensator ?? current.compensator,
+					updatedAt: new Date(Math.max(Date.now(), current.updatedAt.getTime() + 1))
+				};
 				await tx
 					.update(template)
 					.set({ name: next.name, description: next.description, topology: next.topology, compensator: next.compensator, updatedAt: next.updatedAt })
-					.where(eq(template.id, existing.id));
+					.where(eq(template.id, current.id));
 				await audit.record(tx, {
-					workspaceId: existing.workspaceId,
+					workspaceId: current.workspaceId,
 					actor,
 					action: 'template.update',
 					entityType: 'template',
-					entityId: existing.id,
-					...audit.diff(summary(existing), summary(next), ['name', 'description', 'topology', 'compensator'])
+					entityId: current.id,
+					...audit.diff(summary(current), summary(next), ['name', 'description', 'topology', 'compensator'])
 				});
+				return next;
 			}),
 		'name',
 		duplicate
 	);
-	return next;
 }
 
 export async function remove(db: Database, actor: Actor, existing: Template): Promise<void> {
