@@ -17,7 +17,7 @@ import { defaultSweepRange, logGrid } from './sweep/grid';
 import { multiply } from './tf/algebra';
 import { frequencyResponse } from './tf/evaluate';
 import { robustnessSections } from './closedloop/sections';
-import { modulatorInputOf, stageInputOf } from './pipeline/documentModel';
+import { cornerPlantLoops, modulatorInputOf, stageInputOf } from './pipeline/documentModel';
 import type { FactoredTf } from './tf/types';
 
 export interface AnalyzeOptions {
@@ -106,7 +106,8 @@ function run(d: DesignDocument, options: AnalyzeOptions): AnalysisDetail {
 		vout: p.vout,
 		vref: d.feedback.vref,
 		r1: d.feedback.r1,
-		metricsRangeHz: wanted
+		metricsRangeHz: wanted,
+		cornerPlants: d.compensator.target?.placeFor === 'worst-corner' ? cornerPlantLoops(d) : undefined
 	});
 	const loop = compensator.builtLoop;
 	const metrics = compensator.builtLoopMetrics;

@@ -29,6 +29,8 @@ import {
 } from './placement';
 import { compensatorSchema, hasNetworkParts, type CompensatorDoc } from './schema';
 import { compensatorTf, idealCompensatorTf } from './transfer';
+import { refinePlacement } from './refine';
+import { fmtHz } from '../synthesis/networks';
 
 export { compensatorSchema, type CompensatorDoc } from './schema';
 export { CompensatorDesignError, type DesignWarning, type PlantFeatures } from './placement';
@@ -51,6 +53,8 @@ export interface CompensatorContext {
 	 * back as `builtLoopMetrics` for the caller to reuse (analyzeDesign does).
 	 */
 	metricsRangeHz?: { startHz: number; stopHz: number };
+	/** Fm·Gvd at the other operating cases, for target.placeFor 'worst-corner' (pipeline builds them). */
+	cornerPlants?: FactoredTf[];
 }
 
 export interface NetworkReport {
@@ -112,11 +116,38 @@ export function resolveParsedCompensator(c: CompensatorDoc, ctx: CompensatorCont
 	} else {
 		const t = c.target!;
 		const pctx = { plant: ctx.plant, fswHz: ctx.fswHz, features: ctx.features };
-		if (t.method === 'k-factor') placement = placeKFactor(c.kind, pctx, t.crossoverHz!, t.phaseMarginDeg!);
-		else if (t.method === 'features') placement = placeByFeatures(c.kind, pctx, t);
-		else placement = placeManually(c.kind, pctx, t);
+		const partsOf = (p: Placement) => partsFromShape(p.shape, { r1: ctx.r1, rb, gm: c.parts?.gm, ro: c.parts?.ro });
+		const place = (fcHz: number, pmDeg: number): Placement =>
+			t.method === 'k-factor' ? placeKFactor(c.kind, pctx, fcHz, pmDeg) : placeByFeatures(c.kind, pctx, { ...t, crossoverHz: fcHz });
+		const cornerPlants = t.method === 'k-factor' && t.placeFor === 'worst-corner' ? (ctx.cornerPlants ?? []) : [];
+		// A finite op-amp or the corners move the built loop off the request: re-place until it meets it (refine.ts).
+		const refine = t.method !== 'manual' && c.kind !== 'type2-ota' && (c.opamp !== undefined || cornerPlants.length > 0);
+		if (t.method === 'manual') placement = placeManually(c.kind, pctx, t);
+		else if (!refine) placement = place(t.crossoverHz!, t.phaseMarginDeg ?? 0);
+		else {
+			const r = refinePlacement({
+				fcHz: t.crossoverHz!,
+				pmDeg: t.phaseMarginDeg ?? 0,
+				targetsFc: true,
+				place,
+				partsOf,
+				plant: ctx.plant,
+				opamp: c.opamp ?? null,
+				cornerPlants,
+				rangeHz: analysisRange(ctx, [])
+			});
+			placement = r.placement;
+			// The notes of the first placement would describe a request the user did not make.
+			placement = { ...placement, notes: placement.notes.filter((n) => n.code !== 'boost-not-needed') };
+			if (r.shortfall) {
+				warnings.push({
+					code: 'placement-target-missed',
+					message: `Placement ${cornerPlants.length ? 'for the worst corner' : 'with the op-amp model'} could not meet the request: ${r.shortfall} (built loop: fc ${fmtHz(r.achieved.fcHz ?? 0)}, PM ${(r.achieved.pmDeg ?? 0).toFixed(1)}°${cornerPlants.length ? `, worst-corner PM ${(r.achieved.worstPmDeg ?? 0).toFixed(1)}°` : ''}).`
+				});
+			}
+		}
 		warnings.push(...placement.notes);
-		ideal = partsFromShape(placement.shape, { r1: ctx.r1, rb, gm: c.parts?.gm, ro: c.parts?.ro });
+		ideal = partsOf(placement);
 	}
 
 	const series: SeriesChoice | null = c.series === undefined ? DEFAULT_SERIES : c.series;

@@ -57,7 +57,13 @@ export const compensatorTargetSchema = z.object({
 	/** Features: zeros as multiples of the LC resonance f0 (default [1] or [1, 1]). */
 	zerosRelF0: z.array(positive('× f0')).optional(),
 	/** Features: poles as fractions of fsw, replacing the defaults (ESR zero, fsw/2). */
-	polesRelFsw: z.array(positive('× fsw')).optional()
+	polesRelFsw: z.array(positive('× fsw')).optional(),
+	/**
+	 * K-factor: where the phase-margin target must hold. 'nominal' places for the nominal operating
+	 * point; 'worst-corner' raises the boost until the built parts meet the target at every
+	 * operating case of the document's corners (or says why they cannot). Absent = 'nominal'.
+	 */
+	placeFor: z.enum(['nominal', 'worst-corner'], { error: 'must be "nominal" or "worst-corner"' }).optional()
 });
 
 export const compensatorSeriesSchema = z.object({

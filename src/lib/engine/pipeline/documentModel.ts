@@ -5,8 +5,13 @@
  * these.
  */
 import type { DesignDocument, DesignDocumentInput } from '../contract/designSchema';
-import { rampAmplitude, type ModulatorInput } from '../plants/modulator';
+import { operatingCases } from '../corners/operatingCases';
+import { isDesignInputError } from '../errors';
+import { modulatorTf, rampAmplitude, type ModulatorInput } from '../plants/modulator';
+import { powerStage } from '../plants/powerStage';
 import type { PowerStageInput } from '../plants/types';
+import { multiply } from '../tf/algebra';
+import type { FactoredTf } from '../tf/types';
 
 /** The power stage of a validated document, at its nominal point or at another Vin / Iout. */
 export function stageInputOf(d: DesignDocument, at?: { vin: number; iout: number }): PowerStageInput {
@@ -46,4 +51,24 @@ export function operatingPointDocument(
 		modulator: { ...doc.modulator, vramp: rampAmplitude(mod, at.vin, doc.plant.vin) },
 		compensator
 	};
+}
+
+/**
+ * Fm·Gvd at every operating case of the document's corners except the nominal (for placement
+ * for the worst corner); a case the model cannot reach (duty limit) is left out: the verdict
+ * reports it.
+ */
+export function cornerPlantLoops(d: DesignDocument): FactoredTf[] {
+	const mod = modulatorInputOf(d);
+	const cases = operatingCases({ vin: d.plant.vin, iout: d.plant.iout, vinRange: d.corners?.vin, ioutRange: d.corners?.iout });
+	const out: FactoredTf[] = [];
+	for (const c of cases) {
+		if (c.nominal) continue;
+		try {
+			out.push(multiply(modulatorTf(mod, c.vin, d.plant.vin), powerStage(stageInputOf(d, c)).gvd));
+		} catch (e) {
+			if (!isDesignInputError(e)) throw e;
+		}
+	}
+	return out;
 }
