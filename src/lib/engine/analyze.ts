@@ -19,6 +19,7 @@ import { frequencyResponse } from './tf/evaluate';
 import { robustnessSections } from './closedloop/sections';
 import { cornerPlantLoops, modulatorInputOf, stageInputOf } from './pipeline/documentModel';
 import type { FactoredTf } from './tf/types';
+import { formatEng } from '../units/format';
 
 export interface AnalyzeOptions {
 	/** Compute the Bode arrays [true]; false leaves them empty (faster, for batch runs). */
@@ -226,10 +227,10 @@ function loopWarnings(m: LoopMetrics, fswHz: number): EngineWarning[] {
 		out.push({ code: 'closed-loop-unstable', message: 'The closed loop has a pole in the right half plane (roots of 1 + T): it is unstable.' });
 	}
 	if (m.crossoverHz !== null && m.crossoverHz > half) {
-		out.push({ code: 'crossover-above-fsw-half', message: `A crossover sits at ${sig(m.crossoverHz)} Hz, above fsw/2 where the averaged model is not trusted.` });
+		out.push({ code: 'crossover-above-fsw-half', message: `A crossover sits at ${formatEng(m.crossoverHz, 'Hz')}, above fsw/2 where the averaged model is not trusted.` });
 	}
 	if (m.phaseCrossoverHz !== null && m.phaseCrossoverHz > half) {
-		out.push({ code: 'gain-margin-above-fsw-half', message: `The gain margin is taken at ${sig(m.phaseCrossoverHz)} Hz, above fsw/2 where the averaged model is not trusted; treat it as indicative.` });
+		out.push({ code: 'gain-margin-above-fsw-half', message: `The gain margin is taken at ${formatEng(m.phaseCrossoverHz, 'Hz')}, above fsw/2 where the averaged model is not trusted; treat it as indicative.` });
 	}
 	if (m.gainMarginDb !== null && m.gainMarginDb < 6) {
 		out.push({ code: 'gain-margin-low', message: `Gain margin ${m.gainMarginDb.toFixed(1)} dB is below the usual 6 dB minimum.` });
@@ -260,7 +261,6 @@ function mergeWarnings(...lists: EngineWarning[][]): EngineWarning[] {
 
 const clampDb = (x: number) => (Number.isNaN(x) ? -1000 : Math.max(-1000, Math.min(1000, x)));
 const finiteOr0 = (x: number) => (Number.isFinite(x) ? x : 0);
-const sig = (x: number) => Number(x.toPrecision(3)).toString();
 
 function stripUndefined(o: object): Record<string, string | number> {
 	const out: Record<string, string | number> = {};

@@ -2,16 +2,13 @@
 // API flattens them (first message per dotted path; "(body)" for a whole-object rule), so a
 // form shows the browser's and the server's errors through one code path.
 import type { z } from 'zod';
+import { zodFields } from '$lib/engine/contract/errors';
 
 export type FieldErrors = Record<string, string>;
 
+/** The project's one zod-error-to-fields helper (engine contract/errors.ts), "(body)" for a whole-object rule. */
 export function flatten(error: z.ZodError): FieldErrors {
-	const fields: FieldErrors = {};
-	for (const issue of error.issues) {
-		const path = issue.path.map(String).join('.') || '(body)';
-		fields[path] ??= issue.message;
-	}
-	return fields;
+	return zodFields(error, [], '(body)');
 }
 
 export function validate<S extends z.ZodType>(schema: S, value: unknown): { ok: true; data: z.infer<S> } | { ok: false; fields: FieldErrors } {

@@ -15,6 +15,7 @@ import type { StepFigures } from '../timeresponse/metrics';
 import { closedLoopDenominator, closedLoopTf, isStable } from './closedLoopTf';
 import { closedLoopResponses, type ClosedLoopResponses } from './responses';
 import { roundSignificant } from '../math/displayRounding';
+import { formatEng } from '../../units/format';
 
 export interface ClosedLoopInput {
 	plant: PlantModel;
@@ -103,7 +104,7 @@ export function analyzeClosedLoop(input: ClosedLoopInput): ClosedLoopSection {
 			const rule = input.crossoverHz ? ruleFor(input, step, riseTimeS) : null;
 			loadStep = { ...report(ls), step, riseTimeS, ruleOfThumb: rule };
 			if (ls.figures.settlingTimeS === null) {
-				warnings.push({ code: 'load-step-not-settled', message: `The load-step response has not settled within ${sig(ls.durationS)} s.` });
+				warnings.push({ code: 'load-step-not-settled', message: `The load-step response has not settled within ${formatEng(ls.durationS, 's')}.` });
 			}
 		}
 		const refStep = settings.referenceStep ?? 0.01 * input.dividerRatio * input.vout;
@@ -147,4 +148,3 @@ function ruleFor(input: ClosedLoopInput, step: number, riseTimeS: number): RuleO
 	});
 }
 
-const sig = (x: number) => Number(x.toPrecision(3)).toString();

@@ -30,6 +30,7 @@ import {
 import { compensatorSchema, hasNetworkParts, type CompensatorDoc } from './schema';
 import { compensatorTf, idealCompensatorTf } from './transfer';
 import { refinePlacement } from './refine';
+import { zodFields } from '../contract/errors';
 import { fmtHz } from '../synthesis/networks';
 
 export { compensatorSchema, type CompensatorDoc } from './schema';
@@ -298,11 +299,7 @@ function checkContext(ctx: CompensatorContext): void {
 }
 
 function fromZod(error: ZodError): CompensatorDesignError {
-	const fields: Record<string, string> = {};
-	for (const issue of error.issues) {
-		const path = ['compensator', ...issue.path.map(String)].join('.');
-		fields[path] ??= issue.message;
-	}
+	const fields = zodFields(error, ['compensator']);
 	const [field, message] = Object.entries(fields)[0];
 	return new CompensatorDesignError(`${field} ${message}`, field, 'invalid-design', fields);
 }

@@ -26,8 +26,13 @@ export function contractError(fields: Record<string, string>, code: ContractErro
 	return { error: { code, message: summary, fields } };
 }
 
-/** Dotted field path → first message, from a zod error. */
-export function zodFields(error: ZodError, prefix: string[] = []): Record<string, string> {
+/**
+ * Dotted field path → first message, from a zod error: the one zod-error-to-fields helper of the
+ * project (the API, the forms, the engine). `prefix` is put before every path (a string or path
+ * segments); `root` names a rule on the whole value ('(document)' here, '(body)' for the API).
+ */
+export function zodFields(error: ZodError, prefix: string | string[] = [], root = '(document)'): Record<string, string> {
+	prefix = typeof prefix === 'string' ? (prefix ? [prefix] : []) : prefix;
 	const fields: Record<string, string> = {};
 	for (const issue of error.issues) {
 		// A union failure reports the branch issues; surface the most specific one.
@@ -40,7 +45,7 @@ export function zodFields(error: ZodError, prefix: string[] = []): Record<string
 			}
 			if (best.length) continue;
 		}
-		const key = [...prefix, ...issue.path.map(String)].join('.') || '(document)';
+		const key = [...prefix, ...issue.path.map(String)].join('.') || root;
 		fields[key] ??= issue.message;
 	}
 	return fields;

@@ -9,6 +9,7 @@ import type { PlantModel } from '../plants/types';
 import { compileTf, lnMagPhaseAt } from '../tf/evaluate';
 import type { FactoredTf } from '../tf/types';
 import { bodeOf, type Bode } from '../closedloop/responses';
+import { formatEng } from '../../units/format';
 import {
 	filterCorrection,
 	filterFeatures,
@@ -162,7 +163,7 @@ export function analyzeInputFilter(
 	} else {
 		verdict = {
 			code: minMargin < 0 ? 'fail' : 'marginal',
-			message: `|Zs| ${minMargin < 0 ? `rises ${(-minMargin).toFixed(1)} dB above` : `comes within ${minMargin.toFixed(1)} dB of`} ${mN < mD ? '|ZN|' : '|ZD|'} near ${sig(mN < mD ? mNHz : mDHz)} Hz (${requiredDb} dB required); check the loop with the filter and consider more damping.`
+			message: `|Zs| ${minMargin < 0 ? `rises ${(-minMargin).toFixed(1)} dB above` : `comes within ${minMargin.toFixed(1)} dB of`} ${mN < mD ? '|ZN|' : '|ZD|'} near ${formatEng(mN < mD ? mNHz : mDHz, 'Hz')} (${requiredDb} dB required); check the loop with the filter and consider more damping.`
 		};
 	}
 	return {
@@ -180,4 +181,3 @@ export function analyzeInputFilter(
 	};
 }
 
-const sig = (x: number) => Number(x.toPrecision(3)).toString();

@@ -9,6 +9,7 @@ import { outputNetwork } from './capacitorBank';
 import { operatingPoint } from './operatingPoint';
 import { stageFeatures, stageTransferFunctions } from './stageModel';
 import type { PlantModel, PowerStageInput } from './types';
+import { formatEng } from '../../units/format';
 
 /** A load within 20 % of the CCM boundary is flagged [common practice: margin for L tolerance and load steps]. */
 export const NEAR_BOUNDARY = 1.2;
@@ -32,29 +33,27 @@ export function powerStage(input: PowerStageInput): PlantModel {
 	if (op.mode === 'dcm') {
 		warnings.push({
 			code: 'dcm-operating-point',
-			message: `The inductor current runs discontinuous (L = ${sig(input.l)} H is below the critical ${sig(op.criticalInductance)} H, or the load current is below ${sig(op.criticalLoadCurrent)} A); the CCM averaged model does not apply.`
+			message: `The inductor current runs discontinuous (L = ${formatEng(input.l, 'H')} is below the critical ${formatEng(op.criticalInductance, 'H')}, or the load current is below ${formatEng(op.criticalLoadCurrent, 'A')}); the CCM averaged model does not apply.`
 		});
-	}
-	else if (input.iout < NEAR_BOUNDARY * op.criticalLoadCurrent) {
+	} else if (input.iout < NEAR_BOUNDARY * op.criticalLoadCurrent) {
 		warnings.push({
 			code: 'near-ccm-boundary',
-			message: `The load (${sig(input.iout)} A) is within ${Math.round((NEAR_BOUNDARY - 1) * 100)} % of the CCM boundary (${sig(op.criticalLoadCurrent)} A): a little less load or inductance and the inductor current runs discontinuous, where the CCM averaged model does not apply.`
+			message: `The load (${formatEng(input.iout, 'A')}) is within ${Math.round((NEAR_BOUNDARY - 1) * 100)} % of the CCM boundary (${formatEng(op.criticalLoadCurrent, 'A')}): a little less load or inductance and the inductor current runs discontinuous, where the CCM averaged model does not apply.`
 		});
 	}
 	const halfFsw = input.fswHz / 2;
 	if (features.f0Hz > halfFsw) {
 		warnings.push({
 			code: 'resonance-above-fsw-half',
-			message: `The LC resonance (${sig(features.f0Hz)} Hz) sits above fsw/2; the averaged model is not trusted there.`
+			message: `The LC resonance (${formatEng(features.f0Hz, 'Hz')}) sits above fsw/2; the averaged model is not trusted there.`
 		});
 	}
 	if (features.rhpZeroHz !== null && features.rhpZeroHz > 0 && features.rhpZeroHz < features.f0Hz) {
 		warnings.push({
 			code: 'rhp-zero-below-resonance',
-			message: `The RHP zero (${sig(features.rhpZeroHz)} Hz) sits below the LC resonance; the usable crossover is very low.`
+			message: `The RHP zero (${formatEng(features.rhpZeroHz, 'Hz')}) sits below the LC resonance; the usable crossover is very low.`
 		});
 	}
 	return { topology: input.topology, operatingPoint: op, features, ...t, warnings };
 }
 
-const sig = (x: number) => Number(x.toPrecision(3)).toString();

@@ -4,6 +4,8 @@
  * ΔV ≈ ΔI·max(Rc, 1/(2π·fc·C)) covers ESR-dominated banks, where the ESR step ΔI·Rc appears at
  * once and the capacitive rule underestimates. Rc of a bank = Re Z_bank(j2πfc).
  */
+import { formatDeg, formatEng } from '../../units/format';
+
 export interface RuleOfThumbInput {
 	deltaI: number;
 	crossoverHz: number;
@@ -42,8 +44,8 @@ export function loadStepRuleOfThumb(input: RuleOfThumbInput): RuleOfThumb {
 			code: 'esr-dominated',
 			message:
 				input.esr >= xc
-					? `ESR-dominated bank: Rc (${sig(input.esr)} Ω) exceeds 1/(2π·fc·C) (${sig(xc)} Ω), so the ESR step ΔI·Rc sets the peak and ΔI/(2π·fc·C) underestimates it.`
-					: `Rc (${sig(input.esr)} Ω) is not small against 1/(2π·fc·C) (${sig(xc)} Ω); the ESR step adds to the capacitive estimate.`
+					? `ESR-dominated bank: Rc (${formatEng(input.esr, 'Ω')}) exceeds 1/(2π·fc·C) (${formatEng(xc, 'Ω')}), so the ESR step ΔI·Rc sets the peak and ΔI/(2π·fc·C) underestimates it.`
+					: `Rc (${formatEng(input.esr, 'Ω')}) is not small against 1/(2π·fc·C) (${formatEng(xc, 'Ω')}); the ESR step adds to the capacitive estimate.`
 		});
 	}
 	const fesr = input.esrZeroHz?.length ? Math.min(...input.esrZeroHz) : null;
@@ -51,14 +53,14 @@ export function loadStepRuleOfThumb(input: RuleOfThumbInput): RuleOfThumb {
 		applies = false;
 		notes.push({
 			code: 'crossover-above-esr-zero',
-			message: `The crossover (${sig(input.crossoverHz)} Hz) lies above the ESR zero (${sig(fesr)} Hz): the bank looks resistive at fc and the ESR step dominates.`
+			message: `The crossover (${formatEng(input.crossoverHz, 'Hz')}) lies above the ESR zero (${formatEng(fesr, 'Hz')}): the bank looks resistive at fc and the ESR step dominates.`
 		});
 	}
 	const pm = input.phaseMarginDeg;
 	if (pm != null && (pm < 45 || pm > 60)) {
 		notes.push({
 			code: 'phase-margin-outside-rule',
-			message: `The rule assumes PM ≈ 45–60°; this loop has ${sig(pm)}°, so ringing (low PM) or a slower, lower peak (high PM) moves the real value.`
+			message: `The rule assumes PM ≈ 45–60°; this loop has ${formatDeg(pm)}, so ringing (low PM) or a slower, lower peak (high PM) moves the real value.`
 		});
 	}
 	if (input.riseTimeS && input.riseTimeS * input.crossoverHz > 0.25) {
@@ -70,4 +72,3 @@ export function loadStepRuleOfThumb(input: RuleOfThumbInput): RuleOfThumb {
 	return { capacitiveV, esrStepV, generalV: dI * Math.max(input.esr, xc), applies, notes };
 }
 
-const sig = (x: number) => Number(x.toPrecision(3)).toString();

@@ -2,6 +2,7 @@
 // route handlers throw ApiError; the `endpoint()` wrapper turns it into the response.
 import { json } from '@sveltejs/kit';
 import type { z } from 'zod';
+import { zodFields as engineZodFields } from '../../engine/contract/errors';
 
 export type FieldErrors = Record<string, string>;
 
@@ -23,14 +24,9 @@ export const forbidden = (action: string) =>
 	new ApiError(403, 'forbidden', `your role in this workspace may not ${action}`);
 export const notFound = (what = 'resource') => new ApiError(404, 'not-found', `${what} not found`);
 
-/** Flattens zod issues to `{ "plant.inductor.l": "message" }`, first message per path. */
+/** Flattens zod issues to `{ "plant.inductor.l": "message" }`, first message per path: the engine's one helper, "(body)" for a whole-body rule. */
 export function zodFields(error: z.ZodError, prefix = ''): FieldErrors {
-	const fields: FieldErrors = {};
-	for (const issue of error.issues) {
-		const path = [prefix, ...issue.path.map(String)].filter(Boolean).join('.') || '(body)';
-		fields[path] ??= issue.message;
-	}
-	return fields;
+	return engineZodFields(error, prefix, '(body)');
 }
 
 export function invalid(error: z.ZodError, code = 'invalid-request', prefix = ''): ApiError {
