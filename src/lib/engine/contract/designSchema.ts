@@ -1,9 +1,15 @@
 /**
  * zod schema of the design document, contract v1 (spec: design-document.md). SI units; every
  * message names the rule, zod adds the field path. Rules: L, C, fsw, vin, vout, iout, vramp > 0;
- * buck vout < vin, boost vout > vin; vref ≤ vout; sweep startHz < stopHz, 2 ≤ points ≤ 20 000.
+ * buck vout < vin, boost vout > vin; vref ≤ vout; sweep startHz < stopHz, 2 ≤ points ≤ 5000.
  * The operating-point rules (duty < 0.95, boost below its maximum gain) need the model and are
  * checked in analyze.ts; they come back in the same error shape.
+ * Cost limits (README, "Limits"): every field that scales the work has a ceiling a practitioner
+ * would not reach. The loop delay is at most MAX_DELAY_PERIODS switching periods and the sweep
+ * ends by MAX_SWEEP_FSW_MULTIPLE × fsw, because each 1/delay Hz of analysed range adds one phase
+ * crossover (∠e^(−jωTd) = −360°·f·Td) that the metrics bracket, refine and list, at every corner
+ * and spread sample: a 1 s delay over 6 MHz was six million crossovers and 500 MB of answer.
+ * Together they allow at most 4 × 10 = 40 delay turns over the analysed range.
  */
 import { z } from 'zod';
 import { compensatorSchema } from '../compensators/schema';
@@ -14,8 +20,13 @@ import { loadStepSchema } from '../timeresponse/schema';
 import { targetsSchema } from './targetsSchema';
 
 export const SCHEMA_VERSION = 1;
-export const MAX_SWEEP_POINTS = 20000;
+/** Bode points of a sweep: network analysers give a few hundred to 1601; 5000 leaves room. */
+export const MAX_SWEEP_POINTS = 5000;
 export const DEFAULT_SWEEP_POINTS = 400;
+/** Longest loop delay in switching periods (a sampled modulator's delay is half a period to two). */
+export const MAX_DELAY_PERIODS = 4;
+/** Highest sweep frequency as a multiple of fsw (the averaged model itself ends at fsw/2). */
+export const MAX_SWEEP_FSW_MULTIPLE = 10;
 
 const missingOr = (message: string) => (issue: { input?: unknown }) => (issue.input === undefined ? 'is required' : message);
 const num = (unit: string) => z.number({ error: missingOr(`must be a number (${unit})`) });
@@ -130,7 +141,27 @@ export const designDocumentSchema = z
 		if (!(d.feedback.vref <= d.plant.vout)) {
 			ctx.addIssue({ code: 'custom', path: ['feedback', 'vref'], message: 'must be ≤ plant.vout' });
 		}
+		const fsw = d.plant.fsw;
+		const maxDelay = MAX_DELAY_PERIODS / fsw;
+		if (d.modulator.delay > maxDelay) {
+			ctx.addIssue({
+				code: 'custom',
+				path: ['modulator', 'delay'],
+				message: `must be ≤ ${MAX_DELAY_PERIODS} switching periods (${MAX_DELAY_PERIODS} / plant.fsw = ${sig(maxDelay)} s)`
+			});
+		}
+		const maxStop = MAX_SWEEP_FSW_MULTIPLE * fsw;
+		const s = d.sweep;
+		if (s && 'stopHz' in s && s.stopHz > maxStop) {
+			ctx.addIssue({ code: 'custom', path: ['sweep', 'stopHz'], message: `must be ≤ ${MAX_SWEEP_FSW_MULTIPLE} × plant.fsw (${sig(maxStop)} Hz)` });
+		}
+		if (s && 'freqHz' in s) {
+			const i = s.freqHz.findIndex((f) => f > maxStop);
+			if (i >= 0) ctx.addIssue({ code: 'custom', path: ['sweep', 'freqHz', i], message: `must be ≤ ${MAX_SWEEP_FSW_MULTIPLE} × plant.fsw (${sig(maxStop)} Hz)` });
+		}
 	});
+
+const sig = (x: number) => Number(x.toPrecision(3)).toString();
 
 /** A design document as written (defaults optional). */
 export type DesignDocumentInput = z.input<typeof designDocumentSchema>;

@@ -7,6 +7,10 @@
 import { z } from 'zod';
 import { PART_NAMES } from './variation';
 
+/** Most corners run exhaustively; above it the tolerances go one at a time plus the linearised
+ * worst cases, which is how a practitioner handles many tolerances anyway. Also the default. */
+export const MAX_CORNERS = 4096;
+
 const num = (unit: string) => z.number({ error: `must be a number (${unit})` });
 
 export const partToleranceSchema = z
@@ -32,7 +36,11 @@ export const cornersSchema = z
 		/** Load-current range. */
 		iout: rangeSchema('A').optional(),
 		/** Above this many corners, tolerances are run one at a time plus linearised worst cases [4096]. */
-		maxCorners: num('corners').int({ error: 'must be a whole number' }).min(1, { error: 'must be ≥ 1' }).max(100000, { error: 'must be ≤ 100000' }).default(4096)
+		maxCorners: num('corners')
+			.int({ error: 'must be a whole number' })
+			.min(1, { error: 'must be ≥ 1' })
+			.max(MAX_CORNERS, { error: `must be ≤ ${MAX_CORNERS} (more tolerances run one at a time plus the linearised worst cases)` })
+			.default(MAX_CORNERS)
 	})
 	.strict();
 

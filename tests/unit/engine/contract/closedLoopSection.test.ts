@@ -159,7 +159,7 @@ describe('invalid sections give field-named errors', () => {
 		['tolerance too wide', { tolerances: { l: { tol: 2 } } }, 'tolerances.l.tol', 'must be ≤ 0.9 (±90 %)'],
 		['tolerance distribution', { tolerances: { c: { tol: 0.1, dist: 'triangle' } } }, 'tolerances.c.dist', 'must be "uniform" or "normal"'],
 		['corner range', { corners: { vin: { min: 6, max: 4 } } }, 'corners.vin.min', 'min must be ≤ max'],
-		['spread samples', { spread: { samples: 200000 } }, 'spread.samples', 'must be ≤ 100000'],
+		['spread samples', { spread: { samples: 200000 } }, 'spread.samples', 'must be ≤ 10000'],
 		['spread seed', { spread: { seed: 1.5 } }, 'spread.seed', 'must be a whole number'],
 		['filter inductance', { inputFilter: { l: 0, c: 1e-5 } }, 'inputFilter.l', 'must be > 0'],
 		['filter margin', { inputFilter: { l: 1e-6, c: 1e-5, marginDb: -1 } }, 'inputFilter.marginDb', 'must be ≥ 0 dB']
