@@ -43,5 +43,6 @@ else
 fi
 banner
 export NODE_ENV=production
-# exec: SIGTERM reaches the server itself, which closes the pool and exits.
-exec node build
+# The supervisor restarts the server if it ever exits on its own (and logs why); SIGTERM goes
+# through it to the server, which closes its pools and exits, and then the supervisor ends.
+exec node scripts/supervise.mjs build
