@@ -3,7 +3,7 @@
 // development-only pages). Every endpoint still checks the caller's role itself through
 // $lib/server/authz/guard.
 import { building } from '$app/environment';
-import { isRedirect, redirect, type Handle } from '@sveltejs/kit';
+import { isRedirect, redirect, type Handle, type ServerInit } from '@sveltejs/kit';
 import { sequence } from '@sveltejs/kit/hooks';
 import { svelteKitHandler } from 'better-auth/svelte-kit';
 import { auth } from '$lib/server/auth';
@@ -12,6 +12,7 @@ import { isProduction } from '$lib/server/env';
 import { errorResponse, databaseUnavailable, isDatabaseUnavailable } from '$lib/server/http/errors';
 import { databaseAnswers } from '$lib/server/health';
 import { bodyLimitFor, boundedRequest, payloadTooLargeResponse } from '$lib/server/http/bodyLimit';
+import { startAnalysisPool } from '$lib/server/analysis-pool';
 import { withSecurityHeaders } from '$lib/server/http/securityHeaders';
 import * as tokens from '$lib/server/services/tokens';
 import { CLIENT_IP_HEADER } from '$lib/server/sign-in-throttle';
@@ -105,3 +106,8 @@ const securityHeaders: Handle = async ({ event, resolve }) => {
 };
 
 export const handle = sequence(securityHeaders, bodyLimit, clientAddress, identify, guard);
+
+/** At server start: load the analysis workers before the first analysis needs them. */
+export const init: ServerInit = () => {
+	if (!building) startAnalysisPool();
+};

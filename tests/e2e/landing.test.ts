@@ -30,5 +30,5 @@ test('the theme toggle switches to the dark palette and remembers it', async ({ 
 test('/api/health reports the database as up', async ({ request }) => {
 	const res = await request.get('/api/health');
 	expect(res.status()).toBe(200);
-	expect(await res.json()).toEqual({ status: 'ok', db: 'up' });
+	expect(await res.json()).toEqual({ status: 'ok', db: 'up', analyses: { threads: expect.any(Number), running: 0, waiting: 0 } });
 });

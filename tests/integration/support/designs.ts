@@ -23,3 +23,32 @@ export function buckDesign(overrides: { feedForward?: boolean; crossoverHz?: num
 		}
 	};
 }
+
+/**
+ * The costliest document the contract accepts (issue 13's abuse runs): buckDesign() with every
+ * field that scales the work at its ceiling (contract/designSchema.ts, corners/schema.ts,
+ * closedloop/sections.ts): the longest delay (4 switching periods), the widest and densest sweep
+ * (5000 points to 10 × fsw), 2¹² = 4096 exhaustive tolerance corners (12 toleranced parts, one
+ * operating point), the largest spread run inline (2000 samples, 400 bins), eight capacitor
+ * branches with ESL, a finite op-amp, a load step and an input filter.
+ */
+export function worstCaseDesign() {
+	const base = buckDesign();
+	const fsw = base.plant.fsw;
+	const parts = ['l', 'dcr', 'rdsOn', 'c', 'esr', 'esl', 'r1', 'r2', 'r3', 'c1', 'c2', 'c3'];
+	return {
+		...base,
+		plant: {
+			...base.plant,
+			capacitors: Array.from({ length: 8 }, (_, i) => ({ c: 22e-6 / (i + 1), esr: 0.003 * (i + 1), esl: 3e-10 * (i + 1), count: 1 }))
+		},
+		modulator: { ...base.modulator, delay: 4 / fsw },
+		compensator: { ...base.compensator, opamp: { a0Db: 100, gbw: 10e6 } },
+		sweep: { startHz: 1, stopHz: 10 * fsw, points: 5000 },
+		loadStep: { step: 1, riseTime: 1e-6, duration: 10 },
+		tolerances: Object.fromEntries(parts.map((p) => [p, { tol: 0.2, dist: 'normal', sigmas: 3 }])),
+		corners: { maxCorners: 4096 },
+		spread: { samples: 2000, seed: 7, bins: 400 },
+		inputFilter: { l: 1e-6, dcr: 0.01, c: 10e-6, damping: { optimalRatio: 4 } }
+	};
+}

@@ -16,8 +16,20 @@ export default async function setup(project: TestProject) {
 	const app = await startApp();
 	await Promise.all(['/api/v1/me', '/api/health', '/sign-in'].map((path) => fetch(app.origin + path).then((r) => r.text())));
 	await fetch(app.origin + '/api/v1/analyze', { method: 'POST', headers: { 'content-type': 'application/json', origin: app.origin }, body: '{}' });
+	await warmAnalysisPool(app.origin);
 	project.provide('appOrigin', app.origin);
 	project.provide('mailDir', app.mailDir);
 	project.provide('smtpPort', process.env.SMTP_PORT!);
 	return () => app.stop();
+}
+
+/** One analysis as a signed-in user: waits until the analysis pool's workers have loaded (in the
+ * dev server they compile the engine through tsx, seconds on a busy machine). */
+async function warmAnalysisPool(origin: string) {
+	const headers = { 'content-type': 'application/json', origin };
+	const email = `warm-up-${Date.now()}@example.test`;
+	const up = await fetch(origin + '/api/auth/sign-up/email', { method: 'POST', headers, body: JSON.stringify({ email, password: 'warm-up-pass-123', name: 'Warm-up' }) });
+	const cookie = up.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
+	const reply = await fetch(origin + '/api/v1/analyze', { method: 'POST', headers: { ...headers, cookie }, body: JSON.stringify({}) });
+	if (reply.status !== 400) throw new Error(`the analysis pool did not answer the warm-up: ${reply.status} ${await reply.text()}`);
 }

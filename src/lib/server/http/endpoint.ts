@@ -31,7 +31,12 @@ function isPayloadTooLarge(error: unknown): boolean {
 
 /** A JSON answer that must not be cached: one JSON.stringify, one UTF-8 encoding, exact content-length. */
 export function jsonBody(body: unknown, status: number): Response {
-	const bytes = Buffer.from(JSON.stringify(body) ?? 'null', 'utf8');
+	return jsonText(JSON.stringify(body) ?? 'null', status);
+}
+
+/** A JSON answer serialised elsewhere (an analysis worker), sent as it is. */
+export function jsonText(text: string, status: number): Response {
+	const bytes = Buffer.from(text, 'utf8');
 	return new Response(bytes, {
 		status,
 		headers: { 'content-type': 'application/json', 'content-length': String(bytes.byteLength), 'cache-control': 'no-store' }

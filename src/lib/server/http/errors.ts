@@ -41,7 +41,10 @@ export function errorBody(error: ApiError): { error: Record<string, unknown> } {
 }
 
 export function errorResponse(error: ApiError): Response {
-	return json(errorBody(error), { status: error.status, headers: { 'cache-control': 'no-store' } });
+	const headers: Record<string, string> = { 'cache-control': 'no-store' };
+	// A busy answer (429, 503) may say when to come back: `retryAfterS` in the body and the header.
+	if (typeof error.extra?.retryAfterS === 'number') headers['retry-after'] = String(error.extra.retryAfterS);
+	return json(errorBody(error), { status: error.status, headers });
 }
 
 /** Error codes (Node sockets, mysql2) that mean the database cannot be reached right now. */

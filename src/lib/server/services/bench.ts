@@ -7,7 +7,8 @@ import { desc, eq } from 'drizzle-orm';
 import type { Database } from '../db';
 import { benchFile, user } from '../db/schema';
 import { benchMetadataSchema, benchOverlay, parseBenchFile, sampledEvaluator, type BenchIssue } from '../../bench';
-import { analyzeDesign } from '../../engine/analyze';
+import { MAX_SWEEP_FSW_MULTIPLE, MAX_SWEEP_POINTS } from '../../engine/contract/designSchema';
+import * as analyses from '../analysis-pool';
 import { ApiError } from '../http/errors';
 import { zodFields } from '../http/errors';
 import * as audit from './audit';
@@ -99,13 +100,28 @@ export async function remove(db: Database, actor: Actor, row: BenchFile) {
 }
 
 /**
+ * The model's frequencies for a measurement: the measured ones up to the sweep's ceiling
+ * (10 × fsw; the deviation stops at fsw/2 anyway), evenly thinned to the sweep's point limit,
+ * first and last kept. Between them the overlay interpolates in log f.
+ */
+export function modelFrequencies(measuredHz: readonly number[], fswHz: unknown): number[] {
+	const ceiling = typeof fswHz === 'number' && fswHz > 0 ? MAX_SWEEP_FSW_MULTIPLE * fswHz : Infinity;
+	const within = measuredHz.filter((f) => f <= ceiling);
+	if (within.length <= MAX_SWEEP_POINTS) return within;
+	const step = (within.length - 1) / (MAX_SWEEP_POINTS - 1);
+	return Array.from({ length: MAX_SWEEP_POINTS }, (_, i) => within[Math.round(i * step)]);
+}
+
+/**
  * The file against a design: the model evaluated on the measured frequencies (the same trace
  * the file holds: loop gain or plant), measured margins, and the deviation clipped to fsw/2.
+ * The model runs in the analysis pool for `owner`.
  */
-export function overlay(row: BenchFile, design: unknown) {
+export async function overlay(owner: string, row: BenchFile, design: unknown) {
 	const s = row.series;
-	const sweep = { freqHz: s.freqHz.slice(0, 20_000) };
-	const model = analyzeDesign({ ...(design as Record<string, unknown>), sweep });
+	const fsw = (design as { plant?: { fsw?: unknown } } | null)?.plant?.fsw;
+	const sweep = { freqHz: modelFrequencies(s.freqHz, fsw) };
+	const model = await analyses.analyze(owner, { ...(design as Record<string, unknown>), sweep }, { closedLoop: false, sections: false });
 	if ('error' in model) return { model: null, modelError: model.error.message, metrics: null, deviation: null };
 	const trace = row.kind === 'plant' ? model.response.plant : model.response.loop;
 	const evaluate = sampledEvaluator({ freqHz: model.response.freqHz, magDb: trace.magDb, phaseDeg: trace.phaseDeg });

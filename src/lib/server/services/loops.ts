@@ -116,7 +116,8 @@ export async function save(
 		});
 	}
 	const design = await completeSpec(db, owner, input.design as Record<string, unknown>);
-	const verification = await verifyDocument(design);
+	// In the analysis pool (the saver's budget), before the transaction: the rail lock is held only for the write.
+	const verification = await verifyDocument(design, actor.userId);
 	if ('error' in verification) {
 		const fields = Object.fromEntries(Object.entries(verification.error.fields).map(([k, v]) => [`design.${k}`, v]));
 		throw new ApiError(422, verification.error.code, `the design cannot be verified: ${verification.error.message}`, fields);

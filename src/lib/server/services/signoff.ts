@@ -12,7 +12,8 @@ import * as loops from './loops';
 import * as rails from './rails';
 import * as reviews from './reviews';
 import { verdictFigures } from '../../verdict/figures';
-import { analyzeStored, cornerTraces, parameterDiff, stepResponses, verdictDiff } from './loop-analysis';
+import * as analyses from '../analysis-pool';
+import { parameterDiff, verdictDiff } from './loop-analysis';
 
 export type Loop = NonNullable<Awaited<ReturnType<typeof loops.get>>>;
 
@@ -70,8 +71,8 @@ export async function trail(db: Database, loop: Loop): Promise<(ReviewEntry & { 
 	});
 }
 
-/** Everything the review page shows: the stored verdict and what the engineer saw. */
-export async function reviewView(db: Database, loop: Loop) {
+/** Everything the review page shows: the stored verdict and what the engineer saw (drawn in the analysis pool, for `owner`). */
+export async function reviewView(db: Database, loop: Loop, owner: string) {
 	const { rail, board } = await context(db, loop);
 	const [comments, requests, history, previous, approved] = await Promise.all([
 		loops.comments(db, loop.id),
@@ -96,11 +97,11 @@ export async function reviewView(db: Database, loop: Loop) {
 		trail: history,
 		diffs: { previous: diffAgainst(previous, loop), approved: diffAgainst(approved, loop) }
 	};
-	const detail = analyzeStored(loop.design);
+	const detail = await analyses.stored(owner, { design: loop.design, verification: v, steps: true });
 	if ('error' in detail) return { ...common, analysisError: detail.error, plot: null, operatingPoint: null, network: null, closedLoop: null, steps: null };
 	const r = detail.response;
 	const m = r.metrics;
-	const traces = cornerTraces(detail, v);
+	const traces = detail.cornerTraces;
 	return {
 		...common,
 		analysisError: null,
@@ -115,14 +116,14 @@ export async function reviewView(db: Database, loop: Loop) {
 		operatingPoint: r.operatingPoint,
 		network: { kind: r.compensator.kind, zerosHz: (r.compensator.rounded ?? r.compensator.ideal).zerosHz, polesHz: (r.compensator.rounded ?? r.compensator.ideal).polesHz },
 		closedLoop: { stable: m.closedLoopStable, modulusMargin: m.modulusMargin, modulusMarginHz: m.modulusMarginHz, delayMarginS: m.delayMarginS, crossovers: m.crossovers, phaseCrossovers: m.phaseCrossovers, polesHz: m.closedLoopPolesHz },
-		steps: stepResponses(detail)
+		steps: detail.steps
 	};
 }
 
-/** The sign-off report of a revision as a PDF, from its stored verdict. */
-export async function reportPdf(db: Database, loop: Loop): Promise<Buffer | { error: { code: string; message: string; fields?: Record<string, string> } }> {
+/** The sign-off report of a revision as a PDF, from its stored verdict (drawn in the analysis pool, for `owner`). */
+export async function reportPdf(db: Database, loop: Loop, owner: string): Promise<Buffer | { error: { code: string; message: string; fields?: Record<string, string> } }> {
 	const { rail, board } = await context(db, loop);
-	const detail = analyzeStored(loop.design);
+	const detail = await analyses.stored(owner, { design: loop.design, verification: loop.verification });
 	if ('error' in detail) return detail;
 	return buildSignoffPdf({
 		rail: { name: rail?.name ?? 'rail', board: board?.name, notes: rail?.notes ?? undefined },
@@ -130,7 +131,7 @@ export async function reportPdf(db: Database, loop: Loop): Promise<Buffer | { er
 		document: detail.document,
 		response: detail.response,
 		verification: loop.verification,
-		cornerTraces: cornerTraces(detail, loop.verification),
+		cornerTraces: detail.cornerTraces,
 		review: (await trail(db, loop)).map(({ at, who, action, note, freqHz }) => ({ at, who, action, note, freqHz }))
 	});
 }

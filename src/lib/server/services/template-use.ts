@@ -6,12 +6,12 @@ import { and, desc, eq, inArray, max } from 'drizzle-orm';
 import type { z } from 'zod';
 import type { Database } from '../db';
 import { loopRevision, rail, template } from '../db/schema';
-import { analyzeDesign } from '../../engine/analyze';
 import type { AnalysisResponse } from '../../engine/contract/responseSchema';
 import type { DesignDocument } from '../../engine/contract/designSchema';
 import type { Verification } from '../../engine/verify/types';
 import { readForm, starterForm } from '../../design/form';
 import type { templateSchema } from '../../schemas/workspace';
+import * as analyses from '../analysis-pool';
 import { ApiError } from '../http/errors';
 import * as loops from './loops';
 import { completeSpec } from './rail-spec';
@@ -98,7 +98,7 @@ export async function apply(db: Database, actor: Actor, tpl: Template, target: R
 	}
 	const base = await railBaseDesign(db, target);
 	const design = designWithStrategy(base.design, tpl.compensator as Strategy);
-	const analysis = analyzeDesign(design, { includeResponse: false });
+	const analysis = await analyses.analyze(actor.userId, design, { includeResponse: false, closedLoop: false, sections: false });
 	if ('error' in analysis) {
 		throw new ApiError(422, 'template-not-placeable', `the template cannot be placed on ${target.name}: ${analysis.error.message}`, analysis.error.fields);
 	}
@@ -130,7 +130,7 @@ export async function apply(db: Database, actor: Actor, tpl: Template, target: R
 		result.saved = { id: row.id, revision: row.revision };
 		result.verification = row.verification;
 	} else {
-		const v = await verifyDocument(await completeSpec(db, target, design));
+		const v = await verifyDocument(await completeSpec(db, target, design), actor.userId);
 		result.verification = 'error' in v ? null : v;
 	}
 	return result;

@@ -108,7 +108,8 @@ export async function afterTemplateChange(
 		const [head] = await db.select().from(loopRevision).where(eq(loopRevision.railId, owner.id)).orderBy(sql`${loopRevision.revision} DESC`).limit(1);
 		if (!head) continue;
 		const before = head.verification ? briefOf(head.verification) : null;
-		const v = await verifyDocument(await completeSpec(db, owner, place(head.design)));
+		// A template edit re-verifies its rails in the pool, one at a time, under the template's key.
+		const v = await verifyDocument(await completeSpec(db, owner, place(head.design)), `template:${tpl.id}`);
 		if ('error' in v) {
 			out.push({ railId: owner.id, railName: owner.name, revision: head.revision, before, after: null, error: v.error.message, flagged: false });
 			continue;

@@ -12,7 +12,7 @@ import { desc, eq } from 'drizzle-orm';
 import type { RequestHandler } from './$types';
 
 export const GET: RequestHandler = endpoint(async (event) => {
-	const { row } = await authorizeRow(event, await bench.get(db, event.params.id), 'rail.read', 'bench file');
+	const { row, access } = await authorizeRow(event, await bench.get(db, event.params.id), 'rail.read', 'bench file');
 	const loopId = event.url.searchParams.get('loop');
 	let loop: { id: string; revision: number; design: unknown; railId: string } | null = null;
 	if (loopId) {
@@ -28,7 +28,7 @@ export const GET: RequestHandler = endpoint(async (event) => {
 		...rest,
 		series,
 		against: loop ? { loopId: loop.id, revision: loop.revision } : null,
-		overlay: loop ? bench.overlay(row, loop.design) : null
+		overlay: loop ? await bench.overlay(access.caller.userId, row, loop.design) : null
 	};
 });
 

@@ -10,6 +10,6 @@ import * as signoff from '$lib/server/services/signoff';
 import type { RequestHandler } from './$types';
 
 export const GET: RequestHandler = endpoint(async (event) => {
-	const { row } = await authorizeRow(event, await loops.get(db, event.params.id), 'loop.read', 'loop');
-	return signoff.reviewView(db, row);
+	const { row, access } = await authorizeRow(event, await loops.get(db, event.params.id), 'loop.read', 'loop');
+	return signoff.reviewView(db, row, access.caller.userId);
 });

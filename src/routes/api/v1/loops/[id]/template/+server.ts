@@ -7,7 +7,7 @@ import { created, endpoint } from '$lib/server/http/endpoint';
 import { ApiError } from '$lib/server/http/errors';
 import { parseBody } from '$lib/server/http/request';
 import { templateFromLoopSchema } from '$lib/schemas/signoff';
-import { analyzeDesignDetailed } from '$lib/engine';
+import * as analyses from '$lib/server/analysis-pool';
 import * as loops from '$lib/server/services/loops';
 import * as templates from '$lib/server/services/templates';
 import { strategyFromDesign } from '$lib/server/services/template-use';
@@ -17,7 +17,7 @@ export const POST: RequestHandler = endpoint(async (event) => {
 	const { row } = await authorizeRow(event, await loops.get(db, event.params.id), 'loop.read', 'loop');
 	const { caller } = await authorize(event, row.workspaceId, 'template.create', 'loop');
 	const input = await parseBody(event, templateFromLoopSchema);
-	const detail = analyzeDesignDetailed(row.design, { includeResponse: false });
+	const detail = await analyses.analyzeDocument(caller.userId, row.design, { includeResponse: false, closedLoop: false, sections: false });
 	if ('error' in detail) throw new ApiError(422, detail.error.code, `the stored design cannot be analysed: ${detail.error.message}`, detail.error.fields);
 	const compensator = strategyFromDesign(detail.document, detail.response);
 	const tpl = await templates.create(db, caller, row.workspaceId, {

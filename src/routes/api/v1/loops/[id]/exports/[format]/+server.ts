@@ -11,10 +11,9 @@ import { endpoint } from '$lib/server/http/endpoint';
 import { ApiError } from '$lib/server/http/errors';
 import { parseQuery } from '$lib/server/http/request';
 import { exportSignedOffJson, networkRoots, plotFromResponse, renderBodePng, renderBodeSvg, sweepCsv, verdictCsv } from '$lib/server/exports';
-import { netlistFromAnalysis } from '$lib/engine/spice';
 import * as loops from '$lib/server/services/loops';
 import * as signoff from '$lib/server/services/signoff';
-import { analyzeStored, cornerTraces } from '$lib/server/services/loop-analysis';
+import * as analyses from '$lib/server/analysis-pool';
 import { z } from 'zod';
 import type { RequestHandler } from './$types';
 
@@ -51,7 +50,8 @@ function file(body: string | Buffer, format: keyof typeof TYPES, name: string, i
 }
 
 export const GET: RequestHandler = endpoint(async (event) => {
-	const { row } = await authorizeRow(event, await loops.get(db, event.params.id), 'loop.read', 'loop');
+	const { row, access } = await authorizeRow(event, await loops.get(db, event.params.id), 'loop.read', 'loop');
+	const owner = access.caller.userId;
 	const format = event.params.format as (typeof EXPORT_FORMATS)[number];
 	if (!(EXPORT_FORMATS as readonly string[]).includes(format)) {
 		throw new ApiError(404, 'not-found', `no export called ${format}; use one of ${EXPORT_FORMATS.join(', ')}`);
@@ -62,7 +62,7 @@ export const GET: RequestHandler = endpoint(async (event) => {
 	const inline = format === 'svg' || format === 'png';
 
 	if (format === 'pdf') {
-		const pdf = await signoff.reportPdf(db, row);
+		const pdf = await signoff.reportPdf(db, row, owner);
 		if (!Buffer.isBuffer(pdf)) throw new ApiError(422, pdf.error.code, pdf.error.message, pdf.error.fields);
 		return file(pdf, 'pdf', `${base}-signoff`, false);
 	}
@@ -75,16 +75,19 @@ export const GET: RequestHandler = endpoint(async (event) => {
 		if (!out.ok) throw new ApiError(422, out.error.code, out.error.message, out.error.fields);
 		return file(out.json, 'json', base, false);
 	}
-	const detail = analyzeStored(row.design);
+	const detail = await analyses.stored(owner, {
+		design: row.design,
+		verification: inline ? row.verification : null,
+		netlist: format === 'spice' ? { batch: q.batch === '1', title: `Loopwright ${base}` } : undefined
+	});
 	if ('error' in detail) throw new ApiError(422, detail.error.code, `the stored design cannot be analysed: ${detail.error.message}`, detail.error.fields);
 	const nominal = detail.response;
 	if (format === 'csv') return file(sweepCsv(nominal), 'csv', base, false);
 	if (format === 'spice') {
-		const netlist = netlistFromAnalysis(detail, { batch: q.batch === '1', title: `Loopwright ${base}` });
-		return file(netlist, 'spice', base, false);
+		return file(detail.netlist ?? '', 'spice', base, false);
 	}
 	const fsw = detail.document.plant.fsw;
-	const corners = cornerTraces(detail, row.verification);
+	const corners = detail.cornerTraces;
 	let plot;
 	if (q.corner !== undefined) {
 		const c = corners[q.corner];
