@@ -3,6 +3,7 @@
 // address with inject('appOrigin'). Warms the routes up so the first test is not the slow one.
 import type { TestProject } from 'vitest/node';
 import { startApp } from './app';
+import { signUp } from './client';
 
 declare module 'vitest' {
 	export interface ProvidedContext {
@@ -23,13 +24,10 @@ export default async function setup(project: TestProject) {
 	return () => app.stop();
 }
 
-/** One analysis as a signed-in user: waits until the analysis pool's workers have loaded (in the
- * dev server they compile the engine through tsx, seconds on a busy machine). */
+/** One analysis as a signed-in (confirmed) user: waits until the analysis pool's workers have
+ * loaded (in the dev server they compile the engine through tsx, seconds on a busy machine). */
 async function warmAnalysisPool(origin: string) {
-	const headers = { 'content-type': 'application/json', origin };
-	const email = `warm-up-${Date.now()}@example.test`;
-	const up = await fetch(origin + '/api/auth/sign-up/email', { method: 'POST', headers, body: JSON.stringify({ email, password: 'warm-up-pass-123', name: 'Warm-up' }) });
-	const cookie = up.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
-	const reply = await fetch(origin + '/api/v1/analyze', { method: 'POST', headers: { ...headers, cookie }, body: JSON.stringify({}) });
-	if (reply.status !== 400) throw new Error(`the analysis pool did not answer the warm-up: ${reply.status} ${await reply.text()}`);
+	const user = await signUp(origin, 'warm-up');
+	const reply = await user.post('/api/v1/analyze', {});
+	if (reply.status !== 400) throw new Error(`the analysis pool did not answer the warm-up: ${reply.status} ${JSON.stringify(reply.body)}`);
 }
