@@ -14,10 +14,16 @@
 //     (CPU per answer < wall per answer).
 //  2. production checks: sign-in rate limits (better-auth's per address on /api/auth, our
 //     per address + account throttle on the form), a 2 MB bench upload, npm audit of production deps
-//  3. faults: a private MariaDB (own port and data folder) stopped and restarted under a write
+//  3. abuse: a fresh server with the default analysis limits; normal traffic (health, session,
+//     the rail page's API, a workspace page) quiet, then again while four users keep eight of the
+//     costliest accepted documents in flight (worstCaseDesign); p99 of the normal traffic quiet vs
+//     under abuse (target: within 3×), what the abusers were answered, the server's memory (RSS,
+//     worker threads included), normal analyses' latency beside it, and that the server stayed up.
+//  4. faults: a private MariaDB (own port and data folder) stopped and restarted under a write
 //     load: how requests fail while it is down, recovery without an app restart, and every
 //     acknowledged write counted in the database afterwards
-// Prints the figures and writes them to .tmp/load-records.json. Options: --no-build, --skip-faults.
+// Prints the figures and writes them to .tmp/load-records.json. Options: --no-build, --skip-faults,
+// --skip-abuse, --only-abuse.
 import autocannon from 'autocannon';
 import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
 import { randomBytes } from 'node:crypto';
@@ -25,7 +31,7 @@ import { mkdirSync, writeFileSync } from 'node:fs';
 import { readFileSync } from 'node:fs';
 import { loadavg } from 'node:os';
 import mysql from 'mysql2/promise';
-import { buckDesign } from '../tests/integration/support/designs';
+import { buckDesign, worstCaseDesign } from '../tests/integration/support/designs';
 import { ensureMailFake, freePort } from '../tests/integration/support/mail-fake';
 import { confirmationLink } from '../tests/integration/support/mail';
 
@@ -267,6 +273,141 @@ async function loadRuns(server: Server) {
 	return team;
 }
 
+/** Resident memory of the process `pid` (all its threads), MB, from /proc (Linux). */
+function processRssMb(pid: number): number {
+	const status = readFileSync(`/proc/${pid}/status`, 'utf8');
+	return Number(/VmRSS:\s+(\d+)/.exec(status)?.[1] ?? 0) / 1024;
+}
+
+/** A user with only a session (better-auth allows 3 sign-ups per 10 s per address in production: wait and retry). */
+async function signedInUser(origin: string, label: string): Promise<CookieJar> {
+	for (let attempt = 0; attempt < 10; attempt++) {
+		const email = `${label}-${Date.now()}@example.test`;
+		const up = await fetch(`${origin}/api/auth/sign-up/email`, { method: 'POST', headers: { origin, 'content-type': 'application/json' }, body: JSON.stringify({ email, password: PASSWORD, name: `Load ${label}` }) });
+		if (up.status === 200) {
+			// No session before the address is confirmed: open the link the server mailed to the fake.
+			const link = await confirmationLink(email);
+			const jar = new CookieJar();
+			jar.update(await fetch(origin + link.pathname + link.search, { redirect: 'manual' }));
+			return jar;
+		}
+		if (up.status !== 429) throw new Error(`sign-up failed: ${up.status} ${await up.text()}`);
+		await sleep(4000);
+	}
+	throw new Error('sign-up kept answering 429');
+}
+
+const percentile = (sorted: number[], p: number) => (sorted.length ? sorted[Math.min(sorted.length - 1, Math.ceil((p / 100) * sorted.length) - 1)] : null);
+
+/**
+ * Abuse run: normal traffic quiet and then while the costliest accepted documents keep the analysis
+ * pool full. Its own server with the default limits (the load server above allows one user 64
+ * analyses in flight so that 50 clients of one user measure throughput).
+ */
+async function abuseRun() {
+	const server = await startServer({ DB_NAME: TEST_DB });
+	try {
+		const normal = await signedInTeam(server.origin, 'normal');
+		const abusers = [];
+		for (let i = 0; i < 4; i++) abusers.push(await signedInUser(server.origin, `abuser${i}`));
+		const headers = { origin: server.origin, 'content-type': 'application/json' };
+		const traffic: autocannon.Request[] = [
+			{ method: 'GET', path: '/api/health' },
+			{ method: 'GET', path: '/api/v1/me' },
+			{ method: 'GET', path: `/api/v1/rails/${normal.railId}` },
+			{ method: 'GET', path: `/api/v1/rails/${normal.railId}/loops?limit=1` },
+			{ method: 'GET', path: `/api/v1/loops/${normal.loopId}` },
+			{ method: 'GET', path: `/w/${normal.workspaceId}` }
+		];
+		const normalRun = () => measuredRun(server, normal.jar, { url: server.origin, headers, requests: traffic, connections: 10, amount: 3000, duration: 60 });
+		/** Normal analyses one after another (the normal user's small design), latencies in ms. */
+		const normalAnalyses = async (until: () => boolean) => {
+			const ms: number[] = [];
+			const statuses: Record<string, number> = {};
+			while (!until()) {
+				const t = performance.now();
+				const r = await fetch(`${server.origin}/api/v1/analyze`, { method: 'POST', headers: { ...headers, cookie: normal.jar.header }, body: JSON.stringify(DESIGN) });
+				await r.arrayBuffer();
+				ms.push(performance.now() - t);
+				statuses[r.status] = (statuses[r.status] ?? 0) + 1;
+			}
+			ms.sort((a, b) => a - b);
+			return { count: ms.length, p50Ms: round(percentile(ms, 50) ?? 0, 0), maxMs: round(ms.at(-1) ?? 0, 0), statuses };
+		};
+		const rss: number[] = [];
+		const pid = server.child.pid!;
+		const sampler = setInterval(() => rss.push(processRssMb(pid)), 250);
+
+		log('abuse: warming up, then normal traffic quiet');
+		await normalRun();
+		const rssQuiet = processRssMb(pid);
+		let quietDone = false;
+		const quietAnalyses = normalAnalyses(() => quietDone);
+		const quiet = await normalRun();
+		quietDone = true;
+		const quietAnalysis = await quietAnalyses;
+		log('abuse: quiet', quiet, 'normal analyses', quietAnalysis);
+
+		// Four abusers, two lanes each: eight worst-case documents in flight at all times.
+		const worst = JSON.stringify(worstCaseDesign());
+		let stop = false;
+		const answers: Record<string, number> = {};
+		const abuseMs: number[] = [];
+		const lane = async (jar: CookieJar) => {
+			while (!stop) {
+				const t = performance.now();
+				try {
+					const r = await fetch(`${server.origin}/api/v1/analyze`, { method: 'POST', headers: { ...headers, cookie: jar.header }, body: worst });
+					await r.arrayBuffer();
+					answers[r.status] = (answers[r.status] ?? 0) + 1;
+				} catch (error) {
+					answers.error = (answers.error ?? 0) + 1;
+					if (server.child.exitCode !== null) return;
+				}
+				abuseMs.push(performance.now() - t);
+			}
+		};
+		const lanes = abusers.flatMap((jar) => [lane(jar), lane(jar)]);
+		// Let the pool fill before measuring.
+		for (let i = 0; i < 200; i++) {
+			const h = (await (await fetch(`${server.origin}/api/health`)).json()) as { analyses: { running: number; waiting: number } };
+			if (h.analyses.running > 0 && h.analyses.waiting > 0) break;
+			await sleep(100);
+		}
+		let abusedDone = false;
+		const abusedAnalyses = normalAnalyses(() => abusedDone);
+		const abused = await normalRun();
+		abusedDone = true;
+		const abusedAnalysis = await abusedAnalyses;
+		const healthDuring = (await (await fetch(`${server.origin}/api/health`)).json()) as Record<string, unknown>;
+		stop = true;
+		await Promise.all(lanes);
+		clearInterval(sampler);
+		const alive = server.child.exitCode === null && (await fetch(`${server.origin}/api/health`)).ok;
+		abuseMs.sort((a, b) => a - b);
+		log('abuse: under abuse', abused, 'normal analyses', abusedAnalysis, 'abusers answered', answers);
+		records.abuse = {
+			method:
+				'normal traffic: autocannon, 10 connections, 3000 requests cycling GET /api/health, /api/v1/me, the rail page API (3 calls) and the workspace page (HTML); once quiet, once while 4 users keep 8 worstCaseDesign() analyses in flight; a fresh server with the default analysis limits; RSS sampled every 250 ms (all threads)',
+			worstCaseDocumentBytes: worst.length,
+			quiet,
+			underAbuse: abused,
+			p99Ratio: round(abused.p99Ms / Math.max(1, quiet.p99Ms), 2),
+			normalAnalysesQuiet: quietAnalysis,
+			normalAnalysesUnderAbuse: abusedAnalysis,
+			abuserAnswers: answers,
+			abuserLatencyMs: { p50: round(percentile(abuseMs, 50) ?? 0, 0), max: round(abuseMs.at(-1) ?? 0, 0) },
+			healthDuringAbuse: healthDuring,
+			rssMb: { quiet: round(rssQuiet, 0), peak: round(Math.max(...rss), 0) },
+			serverStayedUp: alive,
+			loadAverage: loadavg().map((x) => round(x, 1)),
+			target: 'p99Ratio ≤ 3, serverStayedUp'
+		};
+	} finally {
+		await server.stop();
+	}
+}
+
 async function productionChecks(server: Server, team: { jar: CookieJar; railId: string; email: string }) {
 	// Sign-in: better-auth limits /sign-in to 3 per 10 s per client address in production.
 	const statuses: number[] = [];
@@ -397,23 +538,31 @@ async function main() {
 	if (args.has('--only-faults')) return faultRun().then(() => console.log(JSON.stringify(records, null, 2)));
 	sh('bash scripts/db-up.sh');
 	sh(`npx tsx scripts/migrate.ts ${TEST_DB}`, { DB_NAME: TEST_DB });
-	const server = await startServer({ DB_NAME: TEST_DB });
-	try {
-		const team = await loadRuns(server);
-		await productionChecks(server, team);
-	} finally {
-		await server.stop();
+	if (!args.has('--only-abuse')) {
+		// One user drives 50 clients here (throughput of the process, not fairness): the per-user
+		// analysis limit is raised for this server only; the abuse run uses the defaults.
+		const server = await startServer({ DB_NAME: TEST_DB, ANALYSIS_PER_USER: '64', ANALYSIS_QUEUE: '64' });
+		try {
+			const team = await loadRuns(server);
+			await productionChecks(server, team);
+		} finally {
+			await server.stop();
+		}
 	}
-	if (!args.has('--skip-faults')) await faultRun();
+	if (!args.has('--skip-abuse')) await abuseRun();
+	if (!args.has('--skip-faults') && !args.has('--only-abuse')) await faultRun();
 	mkdirSync('.tmp', { recursive: true });
 	writeFileSync('.tmp/load-records.json', JSON.stringify(records, null, 2));
 	log('records written to .tmp/load-records.json');
 	console.log(JSON.stringify(records, null, 2));
-	const a = records.analyze as { overheadRatioAt50: number };
+	const a = records.analyze as { overheadRatioAt50: number } | undefined;
+	const ab = records.abuse as { p99Ratio: number; serverStayedUp: boolean } | undefined;
 	const f = records.faults as { acknowledgedButLost: number; whileDown: { answers: Record<string, number> }; afterRestart: { firstSuccessAfterMs: number | null } } | undefined;
 	const not503 = f ? Object.keys(f.whileDown.answers).filter((k) => !/^(201|503)/.test(k)) : [];
 	const failed = [
-		a.overheadRatioAt50 >= 1.5 && 'analyze overhead at 50 clients is 1.5× or more',
+		a && a.overheadRatioAt50 >= 1.5 && 'analyze overhead at 50 clients is 1.5× or more',
+		ab && ab.p99Ratio > 3 && 'normal traffic p99 under abuse is more than 3× its quiet value',
+		ab && !ab.serverStayedUp && 'the server went down under abuse',
 		f && f.acknowledgedButLost > 0 && 'acknowledged writes were lost',
 		not503.length > 0 && `answers other than 503 while the database was down: ${not503.join(', ')}`,
 		f && f.afterRestart.firstSuccessAfterMs === null && 'no write succeeded after the database came back'
