@@ -2,7 +2,7 @@
 // 127.0.0.1:$SMTP_PORT (no auth required, no STARTTLS) and writes it to $MAIL_DIR as
 // `<id>.eml` (raw) plus `<id>.json` (envelope, subject and plain-text body). Stops on SIGTERM/SIGINT.
 // Run: npx tsx scripts/mail-fake.ts
-import { mkdir, writeFile } from 'node:fs/promises';
+import { mkdir, rename, writeFile } from 'node:fs/promises';
 import { join } from 'node:path';
 import { SMTPServer } from 'smtp-server';
 import { mailDir } from '../src/lib/server/mail/captured';
@@ -38,7 +38,9 @@ const server = new SMTPServer({
 					text
 				};
 				await writeFile(join(dir, `${id}.eml`), raw);
-				await writeFile(join(dir, `${id}.json`), JSON.stringify(envelope, null, 2));
+				// Written aside and renamed into place: a reader listing the folder never sees half an envelope.
+				await writeFile(join(dir, `${id}.json.part`), JSON.stringify(envelope, null, 2));
+				await rename(join(dir, `${id}.json.part`), join(dir, `${id}.json`));
 				callback();
 			} catch (error) {
 				callback(error as Error);
