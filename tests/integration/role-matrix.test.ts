@@ -6,7 +6,7 @@ import { randomUUID } from 'node:crypto';
 import { readdirSync, readFileSync, statSync } from 'node:fs';
 import { join, relative } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { can, ROLES, type Action, type Role } from '../../src/lib/server/authz/permissions';
+import { can, ROLES, type Action, type Role } from '../../src/lib/authz';
 import { documentedRoutes } from '../../src/lib/server/openapi';
 import { invitation, loopRevision, member, user, type LoopStatus } from '../../src/lib/server/db/schema';
 import { servedApp } from './support/app';

@@ -6,7 +6,7 @@ import { drizzleAdapter } from 'better-auth/adapters/drizzle';
 import { APIError } from 'better-auth/api';
 import { organization } from 'better-auth/plugins';
 import { ac, roles } from './authz/better-auth-roles';
-import { isRole, ROLES } from './authz/permissions';
+import { isRole, ROLES } from '../authz';
 import * as authSchema from './db/auth-schema';
 import type { Database } from './db';
 import { isProduction } from './env';

@@ -19,7 +19,7 @@ import {
 	workspaceUpdateSchema
 } from '../schemas/workspace';
 import { benchUploadJsonSchema, designImportSchema, templateApplySchema, templateFromLoopSchema } from '../schemas/signoff';
-import { ROLES, can, type Action } from './authz/permissions';
+import { ROLES, can, type Action } from '../authz';
 
 interface Operation {
 	method: 'get' | 'post' | 'patch' | 'delete';

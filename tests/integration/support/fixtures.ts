@@ -4,7 +4,7 @@
 import { randomUUID } from 'node:crypto';
 import { createDatabase } from '../../../src/lib/server/db';
 import { member } from '../../../src/lib/server/db/schema';
-import type { Role } from '../../../src/lib/server/authz/permissions';
+import type { Role } from '../../../src/lib/authz';
 import { signUp, type Client } from './client';
 
 export type Member = Client & { email: string; userId: string };

@@ -1,7 +1,7 @@
 // The permission matrix written out by hand from issue 5's role descriptions, checked
 // against the table the server uses, plus the rejection of better-auth's built-in role names.
 import { describe, expect, it } from 'vitest';
-import { ACTIONS, can, isRole, matrixRows, PERMISSIONS, ROLES, type Action } from '../../../src/lib/server/authz/permissions';
+import { ACTIONS, can, isRole, matrixRows, PERMISSIONS, ROLES, type Action } from '../../../src/lib/authz';
 import { roles as betterAuthRoles } from '../../../src/lib/server/authz/better-auth-roles';
 
 // [project rule, issue 5] owner: everything; engineer: create/edit projects, rails, loops,

@@ -3,7 +3,7 @@
 // Statements are our dotted actions grouped by entity, plus the plugin's default statements.
 import { createAccessControl } from 'better-auth/plugins/access';
 import { defaultStatements, ownerAc } from 'better-auth/plugins/organization/access';
-import { ACTIONS, PERMISSIONS, ROLES, type Action, type Role } from './permissions';
+import { ACTIONS, PERMISSIONS, ROLES, type Action, type Role } from '../../authz';
 
 type StatementMap = Record<string, string[]>;
 

@@ -7,7 +7,7 @@ import { and, eq } from 'drizzle-orm';
 import { db } from '../db';
 import { member } from '../db/schema';
 import { ApiError, forbidden, notFound, unauthorized } from '../http/errors';
-import { can, isRole, type Action, type Role } from './permissions';
+import { can, isRole, type Action, type Role } from '../../authz';
 
 export interface Caller {
 	userId: string;

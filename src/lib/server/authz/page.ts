@@ -4,7 +4,7 @@ import { error, redirect, type RequestEvent } from '@sveltejs/kit';
 import { signInPath } from '$lib/safeRedirect';
 import { ApiError } from '../http/errors';
 import { authorize, type Access } from './guard';
-import type { Action } from './permissions';
+import type { Action } from '../../authz';
 
 export async function authorizePage(event: RequestEvent, workspaceId: string, action: Action, what = 'page'): Promise<Access> {
 	if (!event.locals.user) redirect(303, signInPath(event.url.pathname + event.url.search));

@@ -9,7 +9,7 @@ import { ApiError } from '../http/errors';
 import { sendMail } from '../mail/transport';
 import { invitationMail } from '../mail/messages';
 import { countInvitation } from '../invitation-limits';
-import type { Role } from '../authz/permissions';
+import type { Role } from '../../authz';
 import * as audit from './audit';
 import type { Actor } from './types';
 import type { Workspace } from './workspaces';

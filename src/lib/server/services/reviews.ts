@@ -6,7 +6,7 @@ import { randomUUID } from 'node:crypto';
 import { and, asc, desc, eq, inArray, lt, sql } from 'drizzle-orm';
 import type { Database } from '../db';
 import { loopRevision, member, project, rail, reviewRequest, user, type ReviewRequestStatus } from '../db/schema';
-import { can } from '../authz/permissions';
+import { can } from '../../authz';
 import { ApiError } from '../http/errors';
 import { sendMail } from '../mail/transport';
 import { reviewDecisionMail, reviewRequestMail } from '../mail/review-messages';

@@ -8,7 +8,7 @@ import type { Database } from '../db';
 import { member, organization, user, workspaceSetting } from '../db/schema';
 import { ApiError, forbidden, notFound } from '../http/errors';
 import { DEFAULT_MARGIN_TARGETS, type workspaceCreateSchema, type workspaceUpdateSchema } from '../../schemas/workspace';
-import { can, type Role } from '../authz/permissions';
+import { can, type Role } from '../../authz';
 import * as audit from './audit';
 import { uniqueOr409 } from './errors';
 import type { Actor, Executor, MarginTargets } from './types';

@@ -4,7 +4,7 @@
 import { z } from 'zod';
 import { db } from '$lib/server/db';
 import { authorize, requestedWorkspaceId } from '$lib/server/authz/guard';
-import { can } from '$lib/server/authz/permissions';
+import { can } from '$lib/authz';
 import { endpoint } from '$lib/server/http/endpoint';
 import { pageQuery, parseQuery } from '$lib/server/http/request';
 import * as audit from '$lib/server/services/audit';

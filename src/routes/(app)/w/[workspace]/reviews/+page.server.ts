@@ -1,7 +1,7 @@
 // The review queue of the signed-in member in this workspace (services, checked like the API).
 import { db } from '$lib/server/db';
 import { authorizePage } from '$lib/server/authz/page';
-import { can } from '$lib/server/authz/permissions';
+import { can } from '$lib/authz';
 import * as reviews from '$lib/server/services/reviews';
 import type { PageServerLoad } from './$types';
 

@@ -4,7 +4,7 @@ import { asc, eq } from 'drizzle-orm';
 import { db } from '$lib/server/db';
 import { project, rail } from '$lib/server/db/schema';
 import { authorizePage } from '$lib/server/authz/page';
-import { can } from '$lib/server/authz/permissions';
+import { can } from '$lib/authz';
 import { search } from '$lib/server/services/template-use';
 import type { PageServerLoad } from './$types';
 

@@ -3,7 +3,7 @@
 import { error } from '@sveltejs/kit';
 import { db } from '$lib/server/db';
 import { authorizePage } from '$lib/server/authz/page';
-import { can } from '$lib/server/authz/permissions';
+import { can } from '$lib/authz';
 import * as loops from '$lib/server/services/loops';
 import * as signoff from '$lib/server/services/signoff';
 import { pageAnalysis } from '$lib/server/analysis-pool/page';

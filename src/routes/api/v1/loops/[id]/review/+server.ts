@@ -7,7 +7,7 @@
 // GET: who was asked and how they answered, plus who could be asked.
 import { db } from '$lib/server/db';
 import { authorizeRow } from '$lib/server/authz/guard';
-import type { Action } from '$lib/server/authz/permissions';
+import type { Action } from '$lib/authz';
 import { endpoint } from '$lib/server/http/endpoint';
 import { parseBody } from '$lib/server/http/request';
 import { loopReviewSchema } from '$lib/schemas/workspace';

@@ -1,6 +1,8 @@
 // The workspace permission matrix: which of our four roles may do which action. Pure data and
-// pure functions, no I/O, so it is tested as a table and every API route asks it through one
-// adapter (./guard.ts). better-auth's organization roles are built from this same table.
+// pure functions, no imports, so both sides use this one table: the server's guard
+// ($lib/server/authz/guard.ts, which every API route calls) decides with it, and pages ask
+// `can(role, action)` to hide controls a role could not use. better-auth's organization roles
+// are built from this same table.
 
 /** Our role names, strongest first. better-auth's built-in names (admin, member) are not roles here. */
 export const ROLES = ['owner', 'engineer', 'reviewer', 'viewer'] as const;
