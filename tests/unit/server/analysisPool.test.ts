@@ -96,6 +96,21 @@ describe('analysis pool', { timeout: 180_000 }, () => {
 		await Promise.all([running, waiting]);
 	});
 
+	it('gives a freed thread to the user served least, not to the oldest waiting task', async () => {
+		// [common practice: fair queueing across users] Alice keeps three analyses in flight on a
+		// one-thread pool; Bob's one analysis, sent after all of hers, runs as soon as her first ends.
+		const pool = await poolWith({ threads: 1, perUser: 3 });
+		const finished: string[] = [];
+		const job = (who: string, label: string, doc: unknown) => pool.run(who, analyze(doc), null).then(() => finished.push(label));
+		const jobs = [job('alice', 'alice-1', worstCaseDesign())];
+		while (pool.stats().running === 0) await new Promise((r) => setTimeout(r, 5));
+		jobs.push(job('alice', 'alice-2', buckDesign()), job('alice', 'alice-3', buckDesign()));
+		jobs.push(job('bob', 'bob-1', buckDesign()));
+		expect(pool.stats()).toMatchObject({ running: 1, waiting: 3 });
+		await Promise.all(jobs);
+		expect(finished).toEqual(['alice-1', 'bob-1', 'alice-2', 'alice-3']);
+	});
+
 	it('leaves the calling thread free while the workers compute', async () => {
 		const pool = await poolWith({ threads: 1 });
 		let done = false;

@@ -3,6 +3,11 @@
 // a worker that runs out is ended by V8), both answered 422 analysis-too-costly naming the
 // fields to reduce. In front of it, admission: at most `perUser` analyses per user in flight
 // (429) and at most `queue` waiting over all users (503), so no user can fill the queue alone.
+// Tasks go to tinypool only when a thread is free, and a freed thread goes to the waiting task
+// whose user has the fewest tasks on threads (oldest first among equals), not first come first
+// served (among users holding as many, the one served longest ago): with four users keeping eight costly documents queued, a fifth user's one analysis waits
+// for the next free thread, not behind all eight (the abuse run of scripts/load.ts measured a
+// 60 s wait and a 503 with a first-come queue).
 import { MessageChannel } from 'node:worker_threads';
 import Tinypool from 'tinypool';
 import { ApiError } from '../http/errors';
@@ -33,6 +38,14 @@ export class AnalysisPool {
 	#perOwner = new Map<string, number>();
 	#running = 0;
 	#waiting = 0;
+	/** Tasks holding a thread (handed to tinypool), per user and in all. */
+	#onThreads = new Map<string, number>();
+	#held = 0;
+	/** When each user with tasks in flight was last given a thread (a counter, not a clock). */
+	#lastGranted = new Map<string, number>();
+	#grants = 0;
+	/** Tasks admitted and waiting for a thread, in arrival order. */
+	#forThread: { owner: string; grant: () => void }[] = [];
 
 	constructor(limits: AnalysisLimits, filename: string) {
 		this.limits = limits;
@@ -73,7 +86,10 @@ export class AnalysisPool {
 			this.#waiting--;
 			this.#running++;
 		};
+		let holding = false;
 		try {
+			await this.#thread(owner);
+			holding = true;
 			// A worker ended under a task that was not stopped for its own budget (tinypool may hand
 			// a queued task to a worker that another task's budget is ending): run it again once.
 			for (let attempt = 1; ; attempt++) {
@@ -89,12 +105,63 @@ export class AnalysisPool {
 				}
 			}
 		} finally {
+			if (holding) this.#releaseThread(owner);
 			if (state === 'waiting') this.#waiting--;
 			else this.#running--;
 			const left = (this.#perOwner.get(owner) ?? 1) - 1;
 			if (left > 0) this.#perOwner.set(owner, left);
-			else this.#perOwner.delete(owner);
+			else {
+				this.#perOwner.delete(owner);
+				this.#lastGranted.delete(owner);
+			}
 		}
+	}
+
+	/** Resolves when `owner` may hand a task to tinypool; 503 after `queueWaitMs` without a thread. */
+	#thread(owner: string): Promise<void> {
+		if (this.#held < this.limits.threads && this.#forThread.length === 0) {
+			this.#hold(owner);
+			return Promise.resolve();
+		}
+		return new Promise((resolve, reject) => {
+			const waiter = {
+				owner,
+				grant: () => {
+					clearTimeout(timer);
+					this.#hold(owner);
+					resolve();
+				}
+			};
+			const timer = setTimeout(() => {
+				this.#forThread.splice(this.#forThread.indexOf(waiter), 1);
+				reject(new ApiError(503, 'analysis-busy', `no analysis worker was free within ${this.limits.queueWaitMs / 1000} s; try again shortly`, undefined, { retryAfterS: 5 }));
+			}, this.limits.queueWaitMs);
+			this.#forThread.push(waiter);
+		});
+	}
+
+	#hold(owner: string) {
+		this.#held++;
+		this.#onThreads.set(owner, (this.#onThreads.get(owner) ?? 0) + 1);
+		this.#lastGranted.set(owner, ++this.#grants);
+	}
+
+	/** Frees `owner`'s thread and grants it to the waiting task whose user holds the fewest threads, then was served longest ago. */
+	#releaseThread(owner: string) {
+		this.#held--;
+		const left = (this.#onThreads.get(owner) ?? 1) - 1;
+		if (left > 0) this.#onThreads.set(owner, left);
+		else this.#onThreads.delete(owner);
+		if (this.#forThread.length === 0) return;
+		const onThreads = (o: string) => this.#onThreads.get(o) ?? 0;
+		const lastGranted = (o: string) => this.#lastGranted.get(o) ?? 0;
+		let best = 0;
+		for (let i = 1; i < this.#forThread.length; i++) {
+			const [a, b] = [this.#forThread[i].owner, this.#forThread[best].owner];
+			if (onThreads(a) < onThreads(b) || (onThreads(a) === onThreads(b) && lastGranted(a) < lastGranted(b))) best = i;
+		}
+		const [next] = this.#forThread.splice(best, 1);
+		next.grant();
 	}
 
 	/** One run in a worker: the queue-wait timer until the worker says it started, then the time budget. */
