@@ -8,7 +8,7 @@
  * poles: `modalForm` reports the smallest relative pole separation so callers can fall back.
  */
 import type { Complex } from '../math/complex';
-import { toZpk } from '../tf/convert';
+import { factorRootsS } from '../tf/convert';
 import type { FactoredTf } from '../tf/types';
 
 export interface ModalForm {
@@ -22,36 +22,102 @@ export interface ModalForm {
 
 const mul = (a: Complex, b: Complex): Complex => ({ re: a.re * b.re - a.im * b.im, im: a.re * b.im + a.im * b.re });
 const sub = (a: Complex, b: Complex): Complex => ({ re: a.re - b.re, im: a.im - b.im });
+/**
+ * a/b by Smith's algorithm: never forms |b|², which overflows once |b| passes 1e154 (a 16-pole
+ * closed loop's pole differences multiply to that; the naive quotient then gave Inf/Inf = NaN).
+ */
 function div(a: Complex, b: Complex): Complex {
-	const d = b.re * b.re + b.im * b.im;
-	return { re: (a.re * b.re + a.im * b.im) / d, im: (a.im * b.re - a.re * b.im) / d };
+	if (Math.abs(b.re) >= Math.abs(b.im)) {
+		const r = b.im / b.re;
+		const d = b.re + b.im * r;
+		return { re: (a.re + a.im * r) / d, im: (a.im - a.re * r) / d };
+	}
+	const r = b.re / b.im;
+	const d = b.re * r + b.im;
+	return { re: (a.re * r + a.im) / d, im: (a.im * r - a.re) / d };
+}
+
+/**
+ * A complex product kept as mantissa·2^exponent: a residue of a bank with eight ESL branches is
+ * a product of some forty factors spanning 1e3…1e11 rad/s, whose partial products leave the
+ * double range although the residue itself is an ordinary number.
+ */
+class ScaledProduct {
+	private v: Complex;
+	private exp2 = 0;
+	constructor(start: Complex) {
+		this.v = start;
+		this.renormalise();
+	}
+	times(c: Complex): this {
+		this.v = mul(this.v, c);
+		return this.renormalise();
+	}
+	over(c: Complex): this {
+		this.v = div(this.v, c);
+		return this.renormalise();
+	}
+	value(): Complex {
+		// Two half-steps so 2^exp2 itself cannot overflow while the mantissa is small.
+		const h = Math.trunc(this.exp2 / 2);
+		const f = Math.pow(2, h) * Math.pow(2, this.exp2 - h);
+		return { re: this.v.re * f, im: this.v.im * f };
+	}
+	private renormalise(): this {
+		const m = Math.max(Math.abs(this.v.re), Math.abs(this.v.im));
+		if (m === 0 || !Number.isFinite(m)) return this;
+		const e = Math.floor(Math.log2(m));
+		if (e > 64 || e < -64) {
+			const f = Math.pow(2, -e); // exact: a power of two
+			this.v = { re: this.v.re * f, im: this.v.im * f };
+			this.exp2 += e;
+		}
+		return this;
+	}
 }
 
 /**
  * Partial fractions of tf. `splitRelative` > 0 moves each pole that lies within that relative
  * distance of an earlier one by splitRelative·|p| (along its own direction), so a double pole
  * gets finite residues; the response then changes by about that relative amount.
+ * Residues come from the normalised factors, G = gain·s^o·Π(1 − s/z)/Π(1 − s/p), so no
+ * high-frequency gain k (a product of every root) is ever formed:
+ *   r_i = gain·p_i^o·(−p_i)·Π(1 − p_i/z)/Π_{j≠i}(1 − p_i/p_j),
+ *   D = G(∞) = gain·Π(−1/z)/Π(−1/p) when o + #zeros = #poles, else 0.
  */
 export function modalForm(tf: FactoredTf, splitRelative = 0): ModalForm {
 	if (tf.delayS) throw new RangeError('modal form: replace the delay by a Padé approximant first');
-	const zpk = toZpk(tf);
-	const { zeros, k } = zpk;
-	const poles = splitRelative > 0 ? splitPoles(zpk.poles, splitRelative) : zpk.poles;
-	if (zeros.length > poles.length) throw new RangeError('modal form: improper transfer function');
-	const direct = zeros.length === poles.length ? k : 0;
+	if (tf.originPower < 0) throw new RangeError('modal form: a pole at the origin (no final value)');
+	const zeros = tf.zeros.flatMap(factorRootsS);
+	const exactPoles = tf.poles.flatMap(factorRootsS);
+	const poles = splitRelative > 0 ? splitPoles(exactPoles, splitRelative) : exactPoles;
+	if (zeros.length + tf.originPower > poles.length) throw new RangeError('modal form: improper transfer function');
+	const one: Complex = { re: 1, im: 0 };
+	let direct = 0;
+	if (zeros.length + tf.originPower === poles.length) {
+		const g = new ScaledProduct({ re: tf.gain, im: 0 });
+		for (const z of zeros) g.over({ re: -z.re, im: -z.im });
+		for (const p of poles) g.times({ re: -p.re, im: -p.im });
+		direct = g.value().re;
+	}
 	let minSeparation = Infinity;
 	const residues = poles.map((p, i) => {
-		let num: Complex = { re: k, im: 0 };
-		for (const z of zeros) num = mul(num, sub(p, z));
-		let den: Complex = { re: 1, im: 0 };
-		poles.forEach((q, j) => {
-			if (j === i) return;
-			const d = sub(p, q);
-			const sep = Math.hypot(d.re, d.im) / Math.max(Math.hypot(p.re, p.im), Math.hypot(q.re, q.im));
-			minSeparation = Math.min(minSeparation, sep);
-			den = mul(den, d);
-		});
-		return div(num, den);
+		const r = new ScaledProduct({ re: tf.gain, im: 0 }).times({ re: -p.re, im: -p.im });
+		for (let o = 0; o < tf.originPower; o++) r.times(p);
+		// Interleave zero and pole factors so the partial products stay near 1.
+		const others = poles.filter((_, j) => j !== i);
+		const n = Math.max(zeros.length, others.length);
+		for (let m = 0; m < n; m++) {
+			if (m < zeros.length) r.times(sub(one, div(p, zeros[m])));
+			if (m < others.length) {
+				const q = others[m];
+				const d = sub(p, q);
+				const sep = Math.hypot(d.re, d.im) / Math.max(Math.hypot(p.re, p.im), Math.hypot(q.re, q.im));
+				minSeparation = Math.min(minSeparation, sep);
+				r.over(sub(one, div(p, q)));
+			}
+		}
+		return r.value();
 	});
 	return { poles, residues, direct, minSeparation };
 }
