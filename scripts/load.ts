@@ -25,14 +25,15 @@
 // Prints the figures and writes them to .tmp/load-records.json. Options: --no-build, --skip-faults,
 // --skip-abuse, --only-abuse.
 import autocannon from 'autocannon';
-import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
+import { spawnSync } from 'node:child_process';
 import { randomBytes } from 'node:crypto';
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { readFileSync } from 'node:fs';
 import { loadavg } from 'node:os';
 import mysql from 'mysql2/promise';
 import { buckDesign, worstCaseDesign } from '../tests/integration/support/designs';
-import { ensureMailFake, freePort } from '../tests/integration/support/mail-fake';
+import { ensureMailFake } from '../tests/integration/support/mail-fake';
+import { CookieJar, prepareBuild, sh, sleep, startServer as startProductionServer, type Server } from './support/prod-server';
 import { confirmationLink } from '../tests/integration/support/mail';
 
 const args = new Set(process.argv.slice(2));
@@ -50,71 +51,13 @@ const SESSION_CACHE_SECONDS = process.env.SESSION_CACHE_SECONDS ? Number(process
 const BUILD_DIR = '.tmp/load-build';
 
 const log = (...m: unknown[]) => console.log('[load]', ...m);
-const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
 const round = (x: number, digits = 2) => Number(x.toFixed(digits));
 
 /** The design the load sends: the integration tests' 12 V → 5 V buck, Type III placed by K-factor. */
 const DESIGN = buckDesign();
 
-function sh(command: string, env: Record<string, string> = {}) {
-	const r = spawnSync('bash', ['-c', command], { stdio: 'inherit', env: { ...process.env, ...env } });
-	if (r.status !== 0) throw new Error(`failed (${r.status}): ${command}`);
-}
-
-interface Server {
-	origin: string;
-	child: ChildProcess;
-	stop(): Promise<void>;
-}
-
-/** `node build` on a free loopback port against the given database, in production mode. */
-async function startServer(env: Record<string, string>): Promise<Server> {
-	const port = await freePort();
-	const origin = `http://127.0.0.1:${port}`;
-	const child = spawn(process.execPath, [BUILD_DIR], {
-		env: { ...process.env, NODE_ENV: 'production', LOOPWRIGHT_ENV: 'production', HOST: '127.0.0.1', PORT: String(port), ORIGIN: origin, BETTER_AUTH_URL: origin, BETTER_AUTH_SECRET: SECRET, BODY_SIZE_LIMIT: '7M', ...env },
-		stdio: ['ignore', 'ignore', 'pipe']
-	});
-	child.stderr!.on('data', (d: Buffer) => {
-		const text = d.toString();
-		if (!/Rate limiting could not determine|User not found|Invalid password/.test(text)) process.stderr.write(`[server] ${text}`);
-	});
-	for (let i = 0; i < 100; i++) {
-		try {
-			if ((await fetch(`${origin}/api/health`)).ok) break;
-		} catch {
-			/* not listening yet */
-		}
-		await sleep(200);
-	}
-	return {
-		origin,
-		child,
-		stop: () =>
-			new Promise<void>((resolve) => {
-				if (child.exitCode !== null) return resolve();
-				const kill = setTimeout(() => child.kill('SIGKILL'), 10_000);
-				child.once('exit', () => (clearTimeout(kill), resolve()));
-				child.kill('SIGTERM');
-			})
-	};
-}
-
-/** Cookie header from a jar of `name=value` pairs, updated from Set-Cookie answers as a browser would. */
-class CookieJar {
-	private readonly jar = new Map<string, string>();
-	update(response: Response) {
-		for (const header of response.headers.getSetCookie()) {
-			const [pair] = header.split(';');
-			const eq = pair.indexOf('=');
-			if (pair.slice(eq + 1) === '' || /max-age=0/i.test(header)) this.jar.delete(pair.slice(0, eq));
-			else this.jar.set(pair.slice(0, eq), pair.slice(eq + 1));
-		}
-	}
-	get header() {
-		return [...this.jar].map(([k, v]) => `${k}=${v}`).join('; ');
-	}
-}
+/** `node build` (the private copy) on a free loopback port against the given database, in production mode. */
+const startServer = (env: Record<string, string>): Promise<Server> => startProductionServer({ buildDir: BUILD_DIR, secret: SECRET, env });
 
 /** A signed-up user (better-auth's /api/auth) with a workspace, a board, a rail and a saved loop. */
 async function signedInTeam(origin: string, label: string) {
@@ -532,11 +475,8 @@ async function main() {
 	// The servers mail sign-up confirmations to a fake SMTP server whose folder this process reads.
 	const mailer = await ensureMailFake();
 	if (mailer) process.on('exit', () => mailer.child.kill('SIGTERM'));
-	if (!args.has('--no-build')) {
-		log('building');
-		sh('npx vite build --logLevel warn', { BETTER_AUTH_SECRET: SECRET, LOOPWRIGHT_ENV: 'test' });
-	}
-	sh(`rm -rf ${BUILD_DIR} && mkdir -p .tmp && cp -r build ${BUILD_DIR}`);
+	if (!args.has('--no-build')) log('building');
+	prepareBuild(BUILD_DIR, { build: !args.has('--no-build'), env: { BETTER_AUTH_SECRET: SECRET, LOOPWRIGHT_ENV: 'test' } });
 	if (args.has('--only-faults')) return faultRun().then(() => console.log(JSON.stringify(records, null, 2)));
 	sh('bash scripts/db-up.sh');
 	sh(`npx tsx scripts/migrate.ts ${TEST_DB}`, { DB_NAME: TEST_DB });
