@@ -148,3 +148,18 @@ describe('spiceNetlist: text and errors', () => {
 		for (const l of elements.filter((l) => /^[RLC]/.test(l))) expect(l.split(/\s+/)[3]).toMatch(/^[0-9.e+-]+$/);
 	});
 });
+
+describe.runIf(hasNgspice)('the downloaded netlist (no batch option) in `ngspice -b`', () => {
+	// A regression script runs the file as downloaded; ngspice exits 1 "no simulations run" when the
+	// deck has no dot analysis [from memory: ngspice manual, batch mode]. Failed on the old netlist.
+	it('exits 0 and prints the loop gain at the sweep points', () => {
+		const r = spiceNetlist(load('buck-ceramic-1v2.json'));
+		if ('error' in r) throw new Error(r.error.message);
+		const file = path.join(work, 'as-downloaded.cir');
+		writeFileSync(file, r.netlist);
+		const run = spawnSync('ngspice', ['-b', file], { encoding: 'utf8', timeout: 30_000, cwd: work });
+		expect(run.stdout + run.stderr).not.toMatch(/no simulations run/);
+		expect(run.status).toBe(0);
+		expect(run.stdout).toMatch(/vdb\(loop\)/);
+	});
+});

@@ -166,8 +166,15 @@ export function netlistFromAnalysis(detail: AnalysisDetail, options: SpiceOption
 	}
 	n.blank();
 
+	const ac = `ac dec ${Math.max(1, Math.round(options.pointsPerDecade ?? 100))} ${num(sweep.startHz)} ${num(sweep.stopHz)}`;
+	// The same sweep as a dot analysis: `ngspice -b` runs dot analyses and exits 1 ("no simulations
+	// run") when there are none, so a regression script would read success as failure. An
+	// interactive run executes the control block below and leaves the dot line for `run`.
+	n.line(`.${ac}`);
+	n.line(`.print ac vdb(${SPICE_NODES.loop}) vp(${SPICE_NODES.loop})`);
+	n.blank();
 	n.line('.control');
-	n.line(`ac dec ${Math.max(1, Math.round(options.pointsPerDecade ?? 100))} ${num(sweep.startHz)} ${num(sweep.stopHz)}`);
+	n.line(ac);
 	n.line('let loopdb = vdb(loop)');
 	n.line('let loopdeg = 180/pi*cph(v(loop))');
 	if (options.wrdataPath) {
