@@ -79,6 +79,14 @@ describe('renderBodeSvg', () => {
 		expect(svg).toContain('url(#hatch)'); // the band above fsw/2
 	});
 
+	it('the frequency axis names its unit and a bench series is named in the legend (issue 16; failed before)', () => {
+		const bench = { label: 'FRA bench 2', freqHz: [1e3, 1e4], magDb: [30, 10], phaseDeg: [-100, -120] };
+		const svg = renderBodeSvg({ ...plot, measured: [bench] });
+		expect(svg).toContain('>frequency (Hz)</text>');
+		expect(svg).not.toMatch(/>frequency<\/text>/);
+		expect(svg).toMatch(/<text[^>]*>FRA bench 2<\/text>/);
+	});
+
 	it('non-finite samples become gaps, never NaN coordinates; the dark theme swaps the palette', () => {
 		const broken = {
 			...plot,

@@ -118,7 +118,7 @@ export function renderBodeSvg(plot: ExportPlot, options: BodeSvgOptions = {}): s
 	for (const f of ticks.major) {
 		out.push(`<text x="${r(x(f))}" y="${PHASE_H + 16}" text-anchor="middle" fill="${pal.ink}">${esc(formatEng(f, 'Hz'))}</text>`);
 	}
-	out.push(`<text x="${r(innerW)}" y="${PHASE_H + 30}" text-anchor="end" font-size="10" fill="${pal.muted}">frequency</text>`);
+	out.push(`<text x="${r(innerW)}" y="${PHASE_H + 30}" text-anchor="end" font-size="10" fill="${pal.muted}">frequency (Hz)</text>`);
 	out.push('</g>');
 	out.push('</svg>');
 	return out.join('\n');

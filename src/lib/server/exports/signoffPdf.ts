@@ -16,6 +16,8 @@ import { renderBodePng } from './png';
 import { drawableText } from './drawableText';
 import { fontFor, registerReportFonts, useFontFor } from './pdfFonts';
 import { PALETTES } from './theme';
+import { formatDateTime } from '../../text/dates';
+import { loopStatusText } from '../../text/status';
 
 export const REPORT_CAUTION =
 	'Small-signal estimate; confirm margins and transients on hardware; above 60 V DC or at mains follow the applicable safety standards and licensed practice.';
@@ -93,7 +95,7 @@ export function buildSignoffPdf(input: SignoffReportInput, options: PdfOptions =
 	// Header.
 	doc.font('Helvetica-Bold').fontSize(18).fillColor(INK).text('Loop sign-off report');
 	doc.moveDown(0.2);
-	const railLine = `Rail ${input.rail.name}${input.rail.board ? ` on board ${input.rail.board}` : ''}, revision ${input.revision.label}${input.revision.status ? ` (${input.revision.status})` : ''}`;
+	const railLine = `Rail ${input.rail.name}${input.rail.board ? ` on board ${input.rail.board}` : ''}, revision ${input.revision.label}${input.revision.status ? ` (${loopStatusText(input.revision.status)})` : ''}`;
 	doc.fontSize(11).fillColor(INK).text(useFontFor(doc, 'prose', railLine));
 	const meta = [
 		input.revision.author ? `author ${input.revision.author}` : null,
@@ -330,6 +332,5 @@ function partRole(name: string): string {
 }
 
 function dateText(x: string | Date): string {
-	const d = typeof x === 'string' ? new Date(x) : x;
-	return Number.isNaN(d.getTime()) ? String(x) : d.toISOString().replace('T', ' ').slice(0, 16) + ' UTC';
+	return formatDateTime(x, String(x));
 }

@@ -1,0 +1,25 @@
+// The words for status codes and the one date format (issue 16: raw `in-review` and three date forms).
+import { describe, expect, it } from 'vitest';
+import { formatDateTime } from '$lib/text/dates';
+import { loopStatusText, requestStatusText } from '$lib/text/status';
+
+describe('status words', () => {
+	it('no code reaches the screen with its hyphen', () => {
+		expect(loopStatusText('in-review')).toBe('in review');
+		expect(loopStatusText('changes-requested')).toBe('changes requested');
+		expect(requestStatusText('changes-requested')).toBe('changes requested');
+		expect(loopStatusText(null)).toBe('–');
+		expect(loopStatusText('some-new-state')).toBe('some new state');
+	});
+});
+
+describe('formatDateTime', () => {
+	it('one form in UTC whatever the input type [common practice: ISO 8601 instant]', () => {
+		const iso = '2026-12-02T15:51:30.000Z';
+		expect(formatDateTime(iso)).toBe('2 Dec 2026, 15:51 UTC');
+		expect(formatDateTime(new Date(iso))).toBe('2 Dec 2026, 15:51 UTC');
+		expect(formatDateTime(Date.parse(iso))).toBe('2 Dec 2026, 15:51 UTC');
+		expect(formatDateTime('not a date')).toBe('–');
+		expect(formatDateTime(null)).toBe('–');
+	});
+});
