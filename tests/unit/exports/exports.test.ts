@@ -25,6 +25,7 @@ import {
 import { jetBrainsMonoTtf } from '$lib/server/exports/fonts';
 import { exportSignedOffJson, verdictCsv } from '$lib/server/exports';
 import { verifyDesign } from '$lib/engine/verify/verifyDesign';
+import { STATUS_WORDS, VERDICT_LABELS } from '$lib/engine/verify/text';
 import type { Verification } from '$lib/engine/verify/types';
 import { withRailSpec } from '$lib/spec/railSpec';
 import { verdictFigures, verdictLine } from '$lib/verdict/figures';
@@ -171,6 +172,24 @@ describe('buildSignoffPdf', { timeout: 60_000 }, () => {
 		expect(t.pages).toBeGreaterThanOrEqual(2);
 		// the caution footer on every page
 		expect(text.split('Page ').length - 1).toBe(t.pages);
+	});
+
+	it('issue 16: an en dash and Ω survive in the PDF, and every verdict row is one line (failed before: "1 k ohm?1 M ohm", rows wrapped)', async () => {
+		const doc = { ...specDoc, compensator: { kind: 'type2', parts: { r2: 220, c1: 220e-9, c2: 2.2e-9 }, series: null } };
+		const v = verifyDesign(doc);
+		if ('error' in v) throw new Error(v.error.message);
+		expect(v.warnings.some((w) => w.code === 'resistor-out-of-range')).toBe(true);
+		const pdf = await buildSignoffPdf({ rail: { name: 'R_LOW' }, revision: { label: 'r1' }, document: doc as never, response: analyse(doc), verification: v });
+		const t = await pdfText(pdf);
+		expect(flat(t.text)).toContain('practical 1 kΩ–1 MΩ range');
+		expect(t.text).not.toMatch(/k ohm/);
+		// Each row of the verdict table: check, worst value, target and status on one text line.
+		const lines = t.text.split('\n');
+		for (const r of v.rows) {
+			const line = lines.find((l) => l.startsWith(VERDICT_LABELS[r.metric]) && l.includes(r.target));
+			expect(line, `${r.metric} row on one line`).toBeDefined();
+			expect(line).toContain(STATUS_WORDS[r.status]);
+		}
 	});
 
 	it('above 60 V the caution box says so prominently; a row not verified yet says so instead of a verdict', async () => {

@@ -9,7 +9,7 @@ import PDFDocument from 'pdfkit';
 import type { AnalysisResponse, DesignDocument } from '$lib/engine';
 import type { Verification } from '$lib/engine/verify/types';
 import { formatDb, formatDeg, formatEng, formatPart, formatPercent } from '$lib/units/format';
-import { VERDICT_LABELS, verdictValueText } from '$lib/engine/verify/text';
+import { STATUS_WORDS, VERDICT_LABELS, verdictValueText } from '$lib/engine/verify/text';
 import { verdictFigures, verdictLine } from '$lib/verdict/figures';
 import { networkRoots, plotFromResponse } from './plotData';
 import { renderBodePng } from './png';
@@ -18,6 +18,7 @@ import { fontFor, registerReportFonts, useFontFor } from './pdfFonts';
 import { PALETTES } from './theme';
 import { formatDateTime } from '../../text/dates';
 import { loopStatusText } from '../../text/status';
+import { cornerListText } from '../../verdict/cornerList';
 
 export const REPORT_CAUTION =
 	'Small-signal estimate; confirm margins and transients on hardware; above 60 V DC or at mains follow the applicable safety standards and licensed practice.';
@@ -120,12 +121,16 @@ export function buildSignoffPdf(input: SignoffReportInput, options: PdfOptions =
 		if (v.spread) doc.fontSize(8.5).fillColor(MUTED).text(useFontFor(doc, 'mono', `Spread yield ${f.yield} ${f.yieldOf}`), { width: w });
 		doc.font('Helvetica').fontSize(8).fillColor(MUTED).text(`Engine version ${v.engineVersion}; computed when the revision was saved and stored with it.`);
 		doc.moveDown(0.3);
+		// One line per check (its corner and reason follow in full width below): a reason naming a
+		// tolerance corner is long, and in a table cell it wrapped every row onto three lines.
 		table(
 			doc,
-			['Check', 'Worst', 'Target', 'Corner', 'Status and reason'],
-			[80, 55, 50, 130, w - 315],
-			v.rows.map((r) => ({ cells: [VERDICT_LABELS[r.metric], verdictValueText(r), r.target, r.corner ?? '', `${r.status}: ${r.reason}`], colour: STATUS_COLOUR[r.status] }))
+			['Check', 'Worst', 'Target', 'Status'],
+			[95, 75, w - 230, 60],
+			v.rows.map((r) => ({ cells: [VERDICT_LABELS[r.metric], verdictValueText(r), r.target, STATUS_WORDS[r.status]], colour: STATUS_COLOUR[r.status] }))
 		);
+		doc.moveDown(0.3);
+		for (const r of v.rows) doc.fontSize(8).fillColor(MUTED).text(useFontFor(doc, 'mono', `${VERDICT_LABELS[r.metric]}: ${r.reason}`), { width: w });
 	} else {
 		doc.font('Helvetica').fontSize(9).fillColor(STATUS_COLOUR.fail).text('This revision has no stored verdict yet; re-verify it (npm run reverify) before signing it off.');
 	}
@@ -183,7 +188,7 @@ export function buildSignoffPdf(input: SignoffReportInput, options: PdfOptions =
 
 	// Every warning the engine raised, at any corner.
 	heading(doc, 'Engine warnings');
-	const warnings = v ? v.warnings.map((wn) => `${wn.message}${wn.corners.length ? ` (at ${wn.corners.slice(0, 4).join('; ')}${wn.corners.length > 4 ? `; ${wn.corners.length - 4} more corners` : ''})` : ''}`) : input.response.warnings.map((wn) => wn.message);
+	const warnings = v ? v.warnings.map((wn) => `${wn.message}${wn.corners.length ? ` (at ${cornerListText(wn.corners, { total: v.corners.count })})` : ''}`) : input.response.warnings.map((wn) => wn.message);
 	if (warnings.length) for (const text of warnings) doc.fontSize(8.5).fillColor(INK).text(useFontFor(doc, 'mono', `- ${text}`), { width: w });
 	else doc.font('Helvetica').fontSize(9).fillColor(MUTED).text('None at any corner.');
 	doc.moveDown(0.6);
