@@ -240,7 +240,7 @@ describe('exports of a revision', () => {
 		expect(bad.status).toBe(400);
 		expect(bad.body.error.fields['document.plant.inductor.l']).toBe('must be > 0');
 		const garbage = await team.as.engineer.post(`/api/v1/rails/${rail.id}/import`, { text: '{ not json', baseRevision: 1 });
-		expect(garbage.body.error.fields['document.(document)']).toMatch(/is not valid JSON/);
+		expect(garbage.body.error.fields['document']).toMatch(/is not valid JSON/);
 		expect((await team.as.engineer.post(`/api/v1/rails/${rail.id}/import`, { document: buckDesign(), baseRevision: 0 })).status).toBe(409);
 	});
 

@@ -2,6 +2,8 @@
 import { describe, expect, it } from 'vitest';
 import { formatDateTime } from '$lib/text/dates';
 import { loopStatusText, requestStatusText } from '$lib/text/status';
+import { apiErrorText } from '$lib/text/errors';
+import { importDesignJson, importFailure } from '$lib/server/exports/designJson';
 
 describe('status words', () => {
 	it('no code reaches the screen with its hyphen', () => {
@@ -21,5 +23,20 @@ describe('formatDateTime', () => {
 		expect(formatDateTime(Date.parse(iso))).toBe('2 Dec 2026, 15:51 UTC');
 		expect(formatDateTime('not a date')).toBe('–');
 		expect(formatDateTime(null)).toBe('–');
+	});
+});
+
+describe('an import error reads once (issue 16: "(document.(document): is not valid JSON…" doubled)', () => {
+	it('the API answer and the sentence shown name the JSON problem once', () => {
+		const r = importDesignJson('{ not json');
+		if (r.ok) throw new Error('parsed');
+		const answer = importFailure(r.error);
+		expect(Object.keys(answer.fields)).toEqual(['document']);
+		const shown = apiErrorText(answer, 400);
+		expect(shown).toMatch(/^the design file is not valid JSON \(/);
+		expect(shown.match(/not valid JSON/g)).toHaveLength(1);
+		expect(shown).not.toContain('(document)');
+		// a field rule the message does not carry is still shown
+		expect(apiErrorText({ message: 'x failed', fields: { 'plant.vin': 'must be > 0' } }, 400)).toBe('x failed (plant.vin: must be > 0)');
 	});
 });

@@ -74,3 +74,15 @@ export function exportSignedOffJson(
 	};
 	return { ok: true, json: JSON.stringify(out, null, 2) + '\n' };
 }
+
+/**
+ * The API's answer to a file that failed import: the message says each problem once ("the design
+ * file is not valid JSON (…)"), and the fields sit under `document.` for the form, a rule on the
+ * whole file under `document` itself (it read "document.(document)" and twice over before).
+ */
+export function importFailure(error: ContractError['error']): { message: string; fields: Record<string, string> } {
+	const entries = Object.entries(error.fields ?? {});
+	const fields = Object.fromEntries(entries.map(([k, v]) => [k === '(document)' ? 'document' : `document.${k}`, v]));
+	const said = entries.map(([k, v]) => (k === '(document)' ? v : `${k} ${v}`)).join('; ');
+	return { message: said ? `the design file ${entries.length === 1 && entries[0][0] === '(document)' ? '' : 'failed validation: '}${said}` : error.message, fields };
+}

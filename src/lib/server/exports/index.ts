@@ -8,5 +8,5 @@ export { renderBodePng, svgToPng, type PngOptions } from './png';
 export { plotFromResponse, networkRoots, type PlotFromResponseOptions } from './plotData';
 export type { ExportPlot, ExportTrace, ExportMeasured, ExportTraceKind } from './plotTypes';
 export { buildSignoffPdf, REPORT_CAUTION, HIGH_VOLTAGE_LIMIT, type SignoffReportInput, type ReportCornerTrace, type ReviewEntry, type PdfOptions } from './signoffPdf';
-export { exportDesignJson, exportSignedOffJson, importDesignJson, DESIGN_JSON_MAX_CHARS, type DesignImportResult } from './designJson';
+export { exportDesignJson, exportSignedOffJson, importDesignJson, importFailure, DESIGN_JSON_MAX_CHARS, type DesignImportResult } from './designJson';
 export { PALETTES, type ThemeName, type Palette } from './theme';

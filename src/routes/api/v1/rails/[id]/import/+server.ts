@@ -6,7 +6,7 @@ import { authorizeRow } from '$lib/server/authz/guard';
 import { created, endpoint } from '$lib/server/http/endpoint';
 import { ApiError } from '$lib/server/http/errors';
 import { parseBody } from '$lib/server/http/request';
-import { importDesignJson } from '$lib/server/exports';
+import { importDesignJson, importFailure } from '$lib/server/exports';
 import { designImportSchema } from '$lib/schemas/signoff';
 import * as loops from '$lib/server/services/loops';
 import * as rails from '$lib/server/services/rails';
@@ -18,8 +18,8 @@ export const POST: RequestHandler = endpoint(async (event) => {
 	const input = await parseBody(event, designImportSchema);
 	const result = importDesignJson(input.text ?? JSON.stringify(input.document));
 	if (!result.ok) {
-		const fields = Object.fromEntries(Object.entries(result.error.fields ?? {}).map(([k, v]) => [`document.${k}`, v]));
-		throw new ApiError(400, 'invalid-design', `the design file failed validation: ${result.error.message}`, fields);
+		const answer = importFailure(result.error);
+		throw new ApiError(400, 'invalid-design', answer.message, answer.fields);
 	}
 	const row = await loops.save(db, access.caller, rail, { baseRevision: input.baseRevision, design: result.document, message: input.message });
 	await audit.record(db, { workspaceId: rail.workspaceId, actor: access.caller, action: 'loop.import', entityType: 'loop', entityId: row.id, after: { railId: rail.id, revision: row.revision } });
