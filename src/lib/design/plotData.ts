@@ -4,6 +4,7 @@
  * crossover and gain-margin marks, fsw/2, and the network's corners as draggable markers.
  */
 import type { BodeData, BodeTrace, PlotRoot } from '$lib/components/plot';
+import type { FreqMarker } from '$lib/components/plot/types';
 import type { NetworkShape } from '$lib/engine/synthesis/networks';
 import type { DesignAnalysis } from './analysis';
 
@@ -49,6 +50,22 @@ export interface LoopOverride {
 	roots: PlotRoot[];
 }
 
+/** The critical frequencies of the nominal plant and the document's crossover target, for the plot's marks. */
+export function criticalFrequencies(
+	features: { f0Hz: number; esrZeroHz: readonly number[]; rhpZeroHz: number | null },
+	fswHz: number,
+	crossoverTargetHz: number | null | undefined
+): FreqMarker[] {
+	const out: FreqMarker[] = [];
+	if (features.f0Hz > 0) out.push({ id: 'f0', label: 'LC f0', freqHz: features.f0Hz });
+	// Several banks with the same ESR zero are one mark.
+	for (const z of new Set(features.esrZeroHz.map((z) => Number(z.toPrecision(3))))) if (z > 0) out.push({ id: 'esr', label: 'ESR zero', freqHz: z });
+	if (features.rhpZeroHz !== null && features.rhpZeroHz > 0) out.push({ id: 'rhp', label: 'RHP zero', freqHz: features.rhpZeroHz });
+	out.push({ id: 'half-fsw', label: 'fsw/2', freqHz: fswHz / 2 });
+	if (crossoverTargetHz) out.push({ id: 'fc-target', label: 'fc target', freqHz: crossoverTargetHz });
+	return out.sort((x, y) => x.freqHz - y.freqHz);
+}
+
 export function bodeData(a: DesignAnalysis, roots: PlotRoot[], override?: LoopOverride): BodeData {
 	const traces: BodeTrace[] = [];
 	a.corners.forEach((c, i) => {
@@ -68,6 +85,7 @@ export function bodeData(a: DesignAnalysis, roots: PlotRoot[], override?: LoopOv
 		crossover: override ? override.crossover : m.crossoverHz !== null && m.phaseMarginDeg !== null ? { freqHz: m.crossoverHz, phaseMarginDeg: m.phaseMarginDeg } : null,
 		gainMargin: override ? override.gainMargin : m.gainMarginDb !== null && m.phaseCrossoverHz !== null ? { freqHz: m.phaseCrossoverHz, gainMarginDb: m.gainMarginDb } : null,
 		modelLimitHz: a.document.plant.fsw / 2,
+		markers: criticalFrequencies(a.nominal.response.features, a.document.plant.fsw, a.nominal.document.compensator.target?.crossoverHz),
 		roots: override?.roots ?? roots
 	};
 }

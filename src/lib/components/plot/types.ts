@@ -41,8 +41,18 @@ export interface BodeData {
 	/** fsw/2: above it the averaged model is not trusted; shaded. */
 	modelLimitHz: number | null;
 	roots: PlotRoot[];
+	/** Critical frequencies of the plant and the spec, drawn as labelled vertical marks (optional). */
+	markers?: FreqMarker[];
 	/** Measured bench data, drawn as dots on their own frequencies (optional). */
 	measured?: MeasuredSeries[];
+}
+
+/** A labelled frequency: the LC resonance, an ESR zero, the RHP zero, fsw/2, the crossover target. */
+export interface FreqMarker {
+	id: 'f0' | 'esr' | 'rhp' | 'half-fsw' | 'fc-target';
+	/** Short label drawn on the plot ("RHP zero"). */
+	label: string;
+	freqHz: number;
 }
 
 /** One measured Bode file: Hz ascending, dB, unwrapped degrees. */
