@@ -12,6 +12,8 @@ declare global {
 			session: AuthSession['session'] | null;
 			/** How the caller proved who they are. */
 			authenticatedBy: 'session' | 'token' | null;
+			/** Always set: the one workspace the presenting API token may act in, else null (sessions, personal tokens). */
+			tokenWorkspaceId: string | null;
 		}
 		interface Error {
 			message: string;

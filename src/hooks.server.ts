@@ -40,13 +40,15 @@ const identify: Handle = async ({ event, resolve }) => {
 	event.locals.user = null;
 	event.locals.session = null;
 	event.locals.authenticatedBy = null;
+	event.locals.tokenWorkspaceId = null;
 	const bearer = /^Bearer\s+(\S+)$/i.exec(event.request.headers.get('authorization') ?? '')?.[1];
 	try {
 		if (bearer && event.url.pathname.startsWith('/api/v1/')) {
-			const user = await tokens.authenticate(db, bearer);
-			if (user) {
-				event.locals.user = user;
+			const found = await tokens.authenticate(db, bearer);
+			if (found) {
+				event.locals.user = found.user;
 				event.locals.authenticatedBy = 'token';
+				event.locals.tokenWorkspaceId = found.workspaceId;
 			}
 		} else if (!building) {
 			const found = await auth.api.getSession({ headers: event.request.headers });

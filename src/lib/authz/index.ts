@@ -36,7 +36,8 @@ export const ACTIONS = [
 	'template.update',
 	'template.delete',
 	'bench.upload',
-	'audit.read'
+	'audit.read',
+	'token.manage'
 ] as const;
 export type Action = (typeof ACTIONS)[number];
 

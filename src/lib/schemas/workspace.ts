@@ -149,7 +149,19 @@ export const workspaceUpdateSchema = z
 
 export const invitationSchema = z.object({ email: z.email(), role: roleSchema });
 export const memberRoleSchema = z.object({ role: roleSchema });
+export const TOKEN_MAX_DAYS = 366;
 export const tokenCreateSchema = z.object({
-	name: z.string().trim().min(1).max(100),
-	expiresInDays: z.number().int().min(1).max(366).nullable().optional()
+	name: z.string().trim().min(1, 'name the token (what uses it)').max(100, 'at most 100 characters'),
+	expiresInDays: z
+		.number({ error: 'days must be a whole number' })
+		.int('days must be a whole number')
+		.min(1, 'at least 1 day')
+		.max(TOKEN_MAX_DAYS, `at most ${TOKEN_MAX_DAYS} days`)
+		.nullable()
+		.optional(),
+	/** The one workspace the token may act in; omitted or null: every workspace of its user. */
+	workspaceId: z.string().min(1).max(36).nullable().optional()
 });
+
+/** GET /api/v1/home: every workspace of the caller, or the one named. */
+export const homeQuerySchema = z.object({ workspace: z.string().min(1, 'name a workspace id').max(36, 'a workspace id has at most 36 characters').optional() });

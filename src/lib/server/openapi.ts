@@ -19,6 +19,7 @@ import {
 	workspaceUpdateSchema
 } from '../schemas/workspace';
 import { benchUploadJsonSchema, designImportSchema, templateApplySchema, templateFromLoopSchema } from '../schemas/signoff';
+import { passwordChangeSchema, profileSchema, tokenSignInSchema } from '../schemas/auth';
 import { ROLES, can, type Action } from '../authz';
 
 interface Operation {
@@ -110,8 +111,38 @@ const OPERATIONS: Operation[] = [
 	{ method: 'get', path: '/templates/{id}/rails', summary: 'The rails whose latest revision was placed from this template', action: 'template.read', success: 200 },
 	{ method: 'get', path: '/audit', summary: 'The audit trail, newest first (?entityId= narrows it to one row)', action: 'audit.read', workspaceQuery: true, paged: true, success: 200 },
 	{ method: 'get', path: '/tokens', summary: "The caller's API tokens (never the secrets)", success: 200 },
-	{ method: 'post', path: '/tokens', summary: 'Create an API token (from a signed-in session); the secret is shown once', body: tokenCreateSchema, success: 201 },
+	{
+		method: 'post',
+		path: '/tokens',
+		summary: 'Create an API token (from a signed-in session, never with another token); the secret is shown once. With `workspaceId` it acts only in that workspace and its owners can revoke it',
+		body: tokenCreateSchema,
+		success: 201
+	},
+	{
+		method: 'post',
+		path: '/tokens/sign-in',
+		summary: "A script's first token from e-mail and password (no session needed; the sign-in failure limits apply, 429 beyond them); the secret is shown once",
+		body: tokenCreateSchema.extend(tokenSignInSchema.shape),
+		success: 201
+	},
 	{ method: 'delete', path: '/tokens/{id}', summary: 'Revoke one of your tokens', success: 204 },
+	{ method: 'get', path: '/workspaces/{id}/tokens', summary: 'The API tokens bound to the workspace, whoever\'s they are (never the secrets)', action: 'token.manage', success: 200 },
+	{ method: 'delete', path: '/workspaces/{id}/tokens/{tokenId}', summary: 'Revoke a token bound to the workspace', action: 'token.manage', success: 204 },
+	{ method: 'patch', path: '/me', summary: 'Change your display name', body: profileSchema, success: 200 },
+	{
+		method: 'post',
+		path: '/me/password',
+		summary: 'Change your password (from a signed-in session); ends your other sessions, `revokeTokens` also revokes your API tokens',
+		body: passwordChangeSchema,
+		success: 200
+	},
+	{
+		method: 'get',
+		path: '/home',
+		summary: 'Your pending sign-offs, your rails whose stored verdict is caution or fail, and recent activity (each at most 20), over your workspaces or the one named',
+		workspaceQuery: true,
+		success: 200
+	},
 	{ method: 'post', path: '/analyze', summary: 'Stateless analysis of a design document (the body is the document)', body: designDocumentSchema, success: 200 }
 ];
 

@@ -35,7 +35,9 @@ const expected: Record<Action, string> = {
 	'template.update': 'owner engineer',
 	'template.delete': 'owner engineer',
 	'bench.upload': 'owner engineer',
-	'audit.read': 'owner engineer reviewer viewer'
+	'audit.read': 'owner engineer reviewer viewer',
+	// [project rule] owners see and revoke the API tokens bound to their workspace, whoever's they are.
+	'token.manage': 'owner'
 };
 
 describe('permission matrix', () => {

@@ -39,20 +39,30 @@ export async function membershipRole(workspaceId: string, userId: string): Promi
 
 export async function authorize(event: RequestEvent, workspaceId: string, action: Action, what = 'resource'): Promise<Access> {
 	const caller = requireCaller(event);
+	// A token bound to one workspace sees every other workspace as nonexistent.
+	if (!withinTokenScope(event, workspaceId)) throw notFound(what);
 	const role = await membershipRole(workspaceId, caller.userId);
 	if (role === null) throw notFound(what);
 	if (!can(role, action)) throw forbidden(action);
 	return { caller, workspaceId, role: isRole(role) ? role : null };
 }
 
+/** False when the request carries an API token bound to another workspace than `workspaceId`. */
+export function withinTokenScope(event: RequestEvent, workspaceId: string): boolean {
+	const bound = event.locals.tokenWorkspaceId;
+	return !bound || bound === workspaceId;
+}
+
 /**
  * The workspace a collection request (list or create) addresses: `?workspace=` or the
- * `x-workspace-id` header, else the session's active workspace, else the caller's only one.
+ * `x-workspace-id` header, else the workspace the API token is bound to, else the session's active
+ * workspace, else the caller's only one.
  */
 export async function requestedWorkspaceId(event: RequestEvent): Promise<string> {
 	const caller = requireCaller(event);
 	const explicit = event.url.searchParams.get('workspace') ?? event.request.headers.get('x-workspace-id');
 	if (explicit) return explicit;
+	if (event.locals.tokenWorkspaceId) return event.locals.tokenWorkspaceId;
 	const active = event.locals.session?.activeOrganizationId;
 	if (active) return active;
 	const rows = await db.select({ id: member.organizationId }).from(member).where(eq(member.userId, caller.userId)).limit(2);

@@ -265,6 +265,11 @@ export const apiToken = mysqlTable(
 		userId: varchar('user_id', { length: 36 })
 			.notNull()
 			.references(() => user.id, { onDelete: 'cascade' }),
+		/**
+		 * The one workspace the token may act in (its owners can see and revoke it); null: a personal
+		 * token that acts in every workspace of its user, which only the user can revoke.
+		 */
+		workspaceId: varchar('workspace_id', { length: 36 }).references(() => organization.id, { onDelete: 'cascade' }),
 		name: varchar('name', { length: 100 }).notNull(),
 		prefix: varchar('prefix', { length: 16 }).notNull(),
 		tokenHash: varchar('token_hash', { length: 64 }).notNull().unique(),
@@ -273,7 +278,7 @@ export const apiToken = mysqlTable(
 		expiresAt: datetime('expires_at', { fsp: 3 }),
 		revokedAt: datetime('revoked_at', { fsp: 3 })
 	},
-	(t) => [index('api_token_user_idx').on(t.userId)]
+	(t) => [index('api_token_user_idx').on(t.userId), index('api_token_workspace_idx').on(t.workspaceId)]
 );
 
 /**
