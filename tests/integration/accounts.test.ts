@@ -71,6 +71,7 @@ describe('invitations', () => {
 		const demote = await team.as.owner.patch(`/api/v1/workspaces/${team.workspaceId}/members/${self.id}`, { role: 'viewer' });
 		expect(demote.status).toBe(422);
 		expect(demote.body.error.code).toBe('last-owner');
+		expect(demote.body.error.fields).toEqual({ role: 'the last owner stays owner: make someone else owner first' });
 	});
 });
 

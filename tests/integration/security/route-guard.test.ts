@@ -23,8 +23,8 @@ const { db, pool } = testDb();
 let team: Team;
 const ids: Record<string, string> = {};
 
-/** Needs no caller: it describes the API, never data. */
-const PUBLIC_API = ['GET /api/v1/openapi.json'];
+/** Needs no caller: the API description (never data), and a script's first token from e-mail and password (the way in, like the sign-in form). */
+const PUBLIC_API = ['GET /api/v1/openapi.json', 'POST /api/v1/tokens/sign-in'];
 /** Routes with an id that belong to the caller personally (checked by user id, not by role). */
 const PERSONAL_ID_ROUTES = ['/api/v1/tokens/[id]'];
 /** Page actions that serve signed-out visitors by design (they are the way in), or hand the session to better-auth. */
@@ -70,6 +70,7 @@ const PARAM_ROWS: Record<string, string> = {
 	'loops/[id]': 'loop',
 	'templates/[id]': 'template',
 	'tokens/[id]': 'token',
+	'tokens/[tokenId]': 'token',
 	'members/[memberId]': 'member',
 	'invitations/[invitationId]': 'invitation'
 };
@@ -136,7 +137,9 @@ describe('every page action and signed-in load checks the caller (static)', () =
 describe('every /api/v1 handler refuses strangers (dynamic)', () => {
 	const handlers = apiHandlers();
 	const unresolved: string[] = [];
-	const withQuery = (h: (typeof handlers)[number], path: string) => (h.source.includes('requestedWorkspaceId(') ? `${path}?workspace=${ids.workspace}` : path);
+	// Collection routes that address a workspace by ?workspace= (the home reads every workspace of the caller without it).
+	const withQuery = (h: (typeof handlers)[number], path: string) =>
+		h.source.includes('requestedWorkspaceId(') || h.source.includes('homeQuerySchema') ? `${path}?workspace=${ids.workspace}` : path;
 	const bodyFor = (method: string) => (method === 'GET' || method === 'DELETE' ? undefined : {});
 
 	it('answers 401 to a signed-out caller and to a forged token', async () => {

@@ -15,6 +15,8 @@ import type { Actor } from './types';
 import type { Workspace } from './workspaces';
 
 const VALID_DAYS = 7;
+/** Newest invitations one list answer holds (pending ones are among the newest: they expire after VALID_DAYS). */
+export const INVITATION_LIST_LIMIT = 200;
 
 export type Invitation = typeof invitation.$inferSelect;
 
@@ -23,7 +25,8 @@ export function list(db: Database, workspaceId: string) {
 		.select({ id: invitation.id, email: invitation.email, role: invitation.role, status: invitation.status, expiresAt: invitation.expiresAt, createdAt: invitation.createdAt })
 		.from(invitation)
 		.where(eq(invitation.organizationId, workspaceId))
-		.orderBy(desc(invitation.createdAt));
+		.orderBy(desc(invitation.createdAt))
+		.limit(INVITATION_LIST_LIMIT);
 }
 
 export async function get(db: Database, workspaceId: string, id: string): Promise<Invitation | null> {

@@ -91,8 +91,12 @@ export async function members(db: Database, workspaceId: string) {
 		.from(member)
 		.innerJoin(user, eq(user.id, member.userId))
 		.where(eq(member.organizationId, workspaceId))
-		.orderBy(asc(user.name));
+		.orderBy(asc(user.name))
+		.limit(MEMBER_LIST_LIMIT);
 }
+
+/** Members one list answer holds: far beyond a design team, a bound on the answer's size. */
+export const MEMBER_LIST_LIMIT = 1000;
 
 export type Member = typeof member.$inferSelect;
 
@@ -128,7 +132,11 @@ function decideUnderLock(rows: LockedMember[], actor: Actor, targetId: string, a
 	const target = rows.find((r) => r.id === targetId);
 	if (!target) throw notFound('member');
 	const ownersAfter = rows.filter((r) => (r.id === target.id ? roleAfter : r.role) === 'owner').length;
-	if (ownersAfter === 0) throw new ApiError(422, 'last-owner', 'a workspace needs at least one owner; make someone else owner first');
+	if (ownersAfter === 0) {
+		// A role change names the field it refuses, so the members screen shows it at the role.
+		const fields = action === 'member.updateRole' ? { role: 'the last owner stays owner: make someone else owner first' } : undefined;
+		throw new ApiError(422, 'last-owner', 'a workspace needs at least one owner; make someone else owner first', fields);
+	}
 	return target;
 }
 
