@@ -74,3 +74,19 @@ test('critical frequencies are labelled on the plot: LC f0, ESR zero, fsw/2 and 
 		await page.screenshot({ path: `test-results/design-1280-${theme}.png` });
 	}
 });
+
+test('input-filter tab: an empty Rd (no damping, as its help says) is not marked as an error', async ({ page }) => {
+	await openSandbox(page);
+	await page.getByTestId('tab-filter').click();
+	const rd = page.getByTestId('field-filter-rd');
+	await expect(rd).toHaveValue('');
+	await rd.focus();
+	await page.getByTestId('field-filter-cd').focus(); // Rd left empty
+	await expect(page.getByTestId('error-filter-rd')).toHaveCount(0);
+	await expect(rd).not.toHaveAttribute('aria-invalid', 'true');
+	// A value that cannot be read still is.
+	await rd.fill('4.7x');
+	await page.getByTestId('field-filter-cd').focus();
+	await expect(page.getByTestId('error-filter-rd')).toContainText('unknown prefix');
+	await expect(page.getByTestId('filter-verdict')).not.toContainText(/\d{4,} Hz/);
+});

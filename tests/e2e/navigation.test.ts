@@ -49,8 +49,18 @@ test('a new user goes from an empty home to a board health table and a rail desi
 	// First rail, typed in engineering notation.
 	const board = new BoardPage(page);
 	await board.openNewRail();
+	// Nothing is marked before the user types or submits (issue 16: every field was red at once).
+	await expect(board.form.locator('[aria-invalid="true"]')).toHaveCount(0);
+	await expect(board.form.locator('[data-testid^="error-"]')).toHaveCount(0);
+	await board.form.getByTestId('field-vout').focus();
+	await board.form.getByTestId('field-fsw').focus();
+	await expect(board.fieldError('vout')).toHaveText('enter a value'); // judged once left
 	await board.fillRail(RAIL_5V0);
 	await board.saveRail();
+	// A new rail opens on its design screen (issue 16); back on the board it is listed.
+	await expect(page).toHaveURL(/\/rails\/[^/]+$/);
+	await expect(page.getByTestId('rail-name')).toHaveText('5V0_MAIN');
+	await page.goBack();
 	await expect(board.row('5V0_MAIN')).toBeVisible();
 	await expect(board.row('5V0_MAIN')).toContainText('500 kHz');
 	await expect(board.row('5V0_MAIN')).toContainText('200 mA–3 A');
@@ -74,6 +84,8 @@ test('a new user goes from an empty home to a board health table and a rail desi
 	await expect(board.fieldError('name')).toContainText('already exists');
 	await board.fillRail({ name: 'VDD_1V8' });
 	await board.saveRail();
+	await expect(page.getByTestId('rail-name')).toHaveText('VDD_1V8');
+	await page.goBack();
 	await expect(board.rows()).toHaveCount(2);
 	await expect(board.row('VDD_1V8')).toContainText('1.2 MHz');
 

@@ -73,6 +73,8 @@ export interface FieldSpec extends QuantityRule {
 	/** Display unit when it is not an SI symbol (dB, °, parts). */
 	suffix?: string;
 	hint?: string;
+	/** Empty is a valid answer (it means "none"); only a typed value is read and judged. */
+	optional?: boolean;
 }
 
 const pos = (label: string, unit: UnitSymbol, extra: Partial<FieldSpec> = {}): FieldSpec => ({ label, unit, positive: true, ...extra });

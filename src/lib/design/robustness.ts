@@ -105,7 +105,7 @@ export const FILTER_FIELDS: Record<keyof FilterForm, FieldSpec> = {
 	l: { label: 'Lf', unit: 'H', positive: true },
 	dcr: { label: 'Lf series R', unit: 'Ω', positive: true, allowZero: true },
 	c: { label: 'Cf', unit: 'F', positive: true },
-	rd: { label: 'Rd (damping)', unit: 'Ω', positive: true, hint: 'empty = no damping' },
+	rd: { label: 'Rd (damping)', unit: 'Ω', positive: true, hint: 'empty = no damping', optional: true },
 	cd: { label: 'Cd (damping)', unit: 'F', positive: true },
 	marginDb: { label: 'Required margin', unit: '', suffix: 'dB', min: 0, max: 40 }
 };

@@ -2,6 +2,7 @@
 // Names as the formula sheet §0: R1 input/divider top, Rb divider bottom, R2+C1 in series in the feedback path,
 // C2 across it, R3+C3 in series across R1 (Type III); the OTA drives R2+C1 ∥ C2 to ground with the divider in the loop.
 // Formulas: domain sheet §5.1–§5.3 and §5.5 (standard inverting-amplifier algebra; Venable 1983 layout). Hz throughout.
+import { formatEng } from '../../units/format';
 
 export const COMPENSATOR_KINDS = ['type1', 'type2', 'type3', 'type2-ota'] as const;
 export type CompensatorKind = (typeof COMPENSATOR_KINDS)[number];
@@ -251,10 +252,7 @@ export function partsRecord(p: NetworkParts): Record<string, number> {
 	return out;
 }
 
+/** A frequency in the engine's messages: the project's one engineering-notation formatter. */
 export function fmtHz(freqHz: number): string {
-	if (!Number.isFinite(freqHz)) return String(freqHz);
-	const abs = Math.abs(freqHz);
-	if (abs >= 1e6) return `${+(freqHz / 1e6).toPrecision(3)} MHz`;
-	if (abs >= 1e3) return `${+(freqHz / 1e3).toPrecision(3)} kHz`;
-	return `${+freqHz.toPrecision(3)} Hz`;
+	return formatEng(freqHz, 'Hz', { missing: String(freqHz) });
 }
