@@ -33,7 +33,7 @@ test('unsaved edits ask before leaving; nothing changed or just saved leaves qui
 	await page.goto(url);
 	await expect(page.getByTestId('fc-chip')).toBeVisible();
 	await page.getByTestId('field-l').fill('6.8u');
-	await expect(page.getByTestId('verdict')).toHaveAttribute('data-state', 'final');
+	await expect(page.getByTestId('verdict')).toHaveAttribute('data-state', 'final', { timeout: 30_000 });
 	await page.getByTestId('rail-board-link').click();
 	await expect.poll(() => dialogs.length).toBe(1);
 	expect(dialogs[0]).toContain('not saved');

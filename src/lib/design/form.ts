@@ -5,6 +5,7 @@
  */
 import { DEFAULT_MARGIN_TARGETS, type DesignDocumentInput } from '$lib/engine';
 import { DEFAULT_SAMPLES, MAX_SAMPLES } from '$lib/engine/spread/spread';
+import { crossoverCeilingHz, worstRhpZeroHz } from '$lib/engine/compensators/crossoverLimit';
 import { parseQuantity, formatForInput, type QuantityRule, type UnitSymbol } from '$lib/units';
 import { defaultToleranceRows, readTolerances, toleranceRowsFromDocument, type ToleranceRow } from './tolerances';
 
@@ -46,6 +47,8 @@ export interface DesignForm {
 	r1: string;
 	fcTarget: string;
 	pmTarget: string;
+	/** Degrees the K-factor/features placement aims above pmTarget (the verdict's target); the starter sets it. */
+	pmHeadroomDeg?: number;
 	gmTarget: string;
 	kind: CompensatorKind;
 	method: PlacementMethod;
@@ -222,7 +225,8 @@ export function readForm(form: DesignForm): FormResult {
 			? null
 			: { resistors: form.seriesR === 'none' ? null : form.seriesR, capacitors: form.seriesC === 'none' ? null : form.seriesC };
 	compensator.series = series;
-	const goal = { crossoverHz: targets.crossoverHz, phaseMarginDeg: targets.phaseMarginDeg };
+	// The placement may aim above the verdict's PM target: tolerance corners cost phase.
+	const goal = { crossoverHz: targets.crossoverHz, phaseMarginDeg: targets.phaseMarginDeg === undefined ? undefined : Math.min(85, targets.phaseMarginDeg + (form.pmHeadroomDeg ?? 0)) };
 	if (form.method === 'k-factor') compensator.target = { method: 'k-factor', ...goal };
 	else if (form.method === 'features') compensator.target = { method: 'features', ...goal };
 	else if (form.method === 'manual') {
@@ -383,6 +387,24 @@ export interface RailSummary {
 
 const f = (v: number | undefined, unit: UnitSymbol = '') => (v === undefined || v === null ? '' : toField(v, unit));
 
+/** Phase the starter's placement keeps above the PM target for the tolerance corners [chosen: checked by tests/unit/design/starter-verdict.test.ts]. */
+export const STARTER_PM_HEADROOM_DEG = 15;
+/** The starter's bank: four 22 µF ceramics. */
+const STARTER_CAP_F = 22e-6;
+const STARTER_CAP_COUNT = 4;
+
+/** The inductance at the CCM boundary at the lightest load, worst over Vin [common practice]. */
+function criticalInductance(rail: RailSummary): number {
+	const i = rail.ioutMin;
+	if (!(i > 0)) return 0;
+	if (rail.topology === 'buck') return (rail.vout * (1 - rail.vout / rail.vinMax)) / (2 * i * rail.fsw);
+	// Boost: Vout·D·(1 − D)²/(2·Iout·fsw), largest at D = 1/3 when the range reaches it.
+	const dOf = (vin: number) => 1 - vin / rail.vout;
+	const ds = [dOf(rail.vinMin), dOf(rail.vinMax)];
+	if (ds[1] < 1 / 3 && ds[0] > 1 / 3) ds.push(1 / 3);
+	return Math.max(...ds.map((d) => (rail.vout * d * (1 - d) ** 2) / (2 * i * rail.fsw)));
+}
+
 /** A first design for a rail with no saved loop: inductor for ~30 % ripple, four 22 µF ceramics, a K-factor Type III. */
 export function starterForm(rail: RailSummary): DesignForm {
 	const base = demoForm();
@@ -390,9 +412,21 @@ export function starterForm(rail: RailSummary): DesignForm {
 	const duty = buck ? rail.vout / rail.vinNom : 1 - rail.vinNom / rail.vout;
 	const inductorCurrent = buck ? rail.ioutNom : rail.ioutNom / (1 - duty);
 	// ΔIL = 0.3·IL: L = Vout(1 − D)/(ΔIL·fsw) for a buck, Vin·D/(ΔIL·fsw) for a boost [common practice].
-	const l = (buck ? rail.vout * (1 - duty) : rail.vinNom * duty) / (0.3 * inductorCurrent * rail.fsw);
+	const ripple = (buck ? rail.vout * (1 - duty) : rail.vinNom * duty) / (0.3 * inductorCurrent * rail.fsw);
+	// CCM down to the lightest load with the inductor 20 % low and 25 % to spare (the verdict
+	// cautions within 20 % of the boundary), but not more than four times the ripple choice.
+	const l = Math.min(4 * ripple, Math.max(ripple, 1.6 * criticalInductance(rail)));
 	const vref = Math.min(0.6, rail.vout);
 	const targets = rail.effectiveMarginTargets;
+	const maxCrossoverFraction = targets?.maxCrossoverFraction ?? DEFAULT_MARGIN_TARGETS.maxCrossoverFraction;
+	const lShown = Number(l.toPrecision(2));
+	// fsw/10, or lower where the verdict's fsw limit or a boost's worst RHP zero asks (one rule).
+	// and not beyond 5× the LC resonance, where a Type III's zeros would sit above f0 and leave the
+	// phase below −180° at high gain (conditional stability) [chosen; see the starter test].
+	const bank = STARTER_CAP_F * STARTER_CAP_COUNT;
+	const f0 = (buck ? 1 : rail.vinNom / rail.vout) / (2 * Math.PI * Math.sqrt(lShown * bank));
+	const ceiling = crossoverCeilingHz({ fswHz: rail.fsw, maxCrossoverFraction, rhpZeroHz: worstRhpZeroHz(rail.topology, { ...rail, l: lShown }) });
+	const fc = Math.min(rail.fsw / 10, 0.8 * ceiling, 5 * f0);
 	return {
 		...base,
 		name: rail.name,
@@ -405,16 +439,18 @@ export function starterForm(rail: RailSummary): DesignForm {
 		ioutMin: f(rail.ioutMin, 'A'),
 		ioutMax: f(rail.ioutMax, 'A'),
 		fsw: f(rail.fsw, 'Hz'),
-		l: toField(Number(l.toPrecision(2)), 'H'),
-		capacitors: [capacitorRow('22u', '3m', '0', '4')],
+		l: toField(lShown, 'H'),
+		capacitors: [capacitorRow(toField(STARTER_CAP_F, 'F'), '3m', '0', String(STARTER_CAP_COUNT))],
 		vref: f(vref, 'V'),
-		fcTarget: toField(rail.fsw / 10, 'Hz', 3),
+		fcTarget: toField(Number(fc.toPrecision(2)), 'Hz', 3),
 		pmTarget: String(targets?.phaseMarginDeg ?? 50),
 		gmTarget: String(targets?.gainMarginDb ?? 10),
-		maxCrossoverFraction: targets?.maxCrossoverFraction ?? DEFAULT_MARGIN_TARGETS.maxCrossoverFraction,
+		maxCrossoverFraction,
 		// The rail's tolerances and spread settings, as a save without them would get from the rail.
 		...(rail.spec ? { tolerances: toleranceRowsFromDocument(rail.spec.tolerances), spreadSamples: String(rail.spec.spread.samples), spreadSeed: String(rail.spec.spread.seed) } : {}),
-		method: 'k-factor'
+		method: 'k-factor',
+		// Placed for the PM target plus headroom, so the worst tolerance corner still meets it.
+		pmHeadroomDeg: STARTER_PM_HEADROOM_DEG
 	};
 }
 

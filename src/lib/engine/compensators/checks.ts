@@ -2,6 +2,7 @@
 // fsw/5, a third of the RHP zero and the LC resonance; network poles above fsw/2 (outside the averaged model);
 // conditional stability; target missed; op-amp loop gain below 10× the noise gain between fc and the top pole.
 import { fmtHz } from '../synthesis/networks';
+import { RHP_ZERO_CROSSOVER_FRACTION, RHP_ZERO_WARNING_FRACTION } from './crossoverLimit';
 import type { NetworkParts } from '../synthesis/networks';
 import type { LoopCheck } from './loopCheck';
 import type { DesignWarning, PlantFeatures } from './placement';
@@ -20,12 +21,12 @@ export function crossoverWarnings(fcHz: number, fswHz: number, features: PlantFe
 		});
 	}
 	const rhp = features.rhpZeroHz;
-	if (rhp !== null && fcHz > rhp / 3) {
+	if (rhp !== null && fcHz > rhp * RHP_ZERO_WARNING_FRACTION) {
 		out.push({
 			code: 'crossover-above-rhp-third',
 			message:
 				`Crossover ${fmtHz(fcHz)} is above a third of the RHP zero (${fmtHz(rhp)}); the RHP zero's phase lag ` +
-				`cannot be compensated. Keep fc at or below ${fmtHz(rhp / 5)} (a fifth of it).`
+				`cannot be compensated. Keep fc at or below ${fmtHz(rhp * RHP_ZERO_CROSSOVER_FRACTION)} (a fifth of it).`
 		});
 	}
 	const ratio = fcHz / features.f0Hz;

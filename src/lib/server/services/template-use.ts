@@ -10,6 +10,7 @@ import type { AnalysisResponse } from '../../engine/contract/responseSchema';
 import type { DesignDocument } from '../../engine/contract/designSchema';
 import type { Verification } from '../../engine/verify/types';
 import { readForm, starterForm } from '../../design/form';
+import { defaultCrossoverHz } from '../../engine/compensators/crossoverLimit';
 import type { templateSchema } from '../../schemas/workspace';
 import * as analyses from '../analysis-pool';
 import { ApiError } from '../http/errors';
@@ -71,7 +72,9 @@ export function designWithStrategy(base: Record<string, unknown>, strategy: Stra
 	const plant = base.plant as { fsw: number };
 	const old = (base.compensator ?? {}) as { opamp?: unknown };
 	const t = strategy.target;
-	const crossoverHz = t?.crossoverFraction ? t.crossoverFraction * plant.fsw : t?.crossoverHz;
+	// A strategy without a crossover (the demo's "below the RHP zero") takes the placement's own
+	// rule on this plant: fsw/10 under the fsw limit and a fifth of the worst RHP zero.
+	const crossoverHz = t?.crossoverFraction ? t.crossoverFraction * plant.fsw : (t?.crossoverHz ?? (t && t.method !== 'manual' ? defaultCrossoverHz(base as never) : undefined));
 	const target = t
 		? {
 				method: t.method === 'manual' ? 'features' : t.method,
