@@ -70,7 +70,7 @@ const identify: Handle = async ({ event, resolve }) => {
 };
 
 /** Page trees only signed-in users may open (their loads check again). */
-const SIGNED_IN_AREAS = ['/w', '/app'];
+const SIGNED_IN_AREAS = ['/w', '/app', '/settings'];
 
 const guard: Handle = async ({ event, resolve }) => {
 	const path = event.url.pathname;

@@ -75,3 +75,51 @@ export interface MemberRow {
 	role: string;
 	joinedAt: string;
 }
+
+export interface InvitationRow {
+	id: string;
+	email: string;
+	role: string;
+	status: string;
+	expiresAt: string;
+	createdAt: string;
+}
+
+/** An API token as lists show it (never the secret). */
+export interface TokenRow {
+	id: string;
+	name: string;
+	prefix: string;
+	/** The one workspace it acts in; null: every workspace of its user. */
+	workspaceId: string | null;
+	workspaceName: string | null;
+	createdAt: string;
+	lastUsedAt: string | null;
+	expiresAt: string | null;
+	revokedAt: string | null;
+	/** In an owner's list of the workspace's tokens: whose it is. */
+	userName?: string;
+	userEmail?: string;
+}
+
+/** The answer of POST /api/v1/tokens: the row and, this once, the secret. */
+export type CreatedToken = TokenRow & { token: string };
+
+interface HomePlace {
+	workspaceId: string;
+	workspaceName: string;
+	projectId: string;
+	projectName: string;
+	railId: string;
+	railName: string;
+	loopId: string;
+	revision: number;
+}
+
+export interface HomeData {
+	workspaceIds: string[];
+	pendingReviews: (HomePlace & { requestedAt: string; requestedByName: string | null; note: string | null; message: string })[];
+	attentionRails: (HomePlace & { status: 'caution' | 'fail'; summary: string | null; savedAt: string })[];
+	activity: (HomePlace & { kind: 'revision' | 'review-requested' | 'approved' | 'changes-requested'; at: string; actorName: string | null; reviewerName: string | null; message: string | null })[];
+	limit: number;
+}

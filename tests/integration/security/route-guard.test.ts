@@ -32,7 +32,7 @@ const ACCOUNT_ACTIONS = ['/sign-in default', '/sign-up default', '/forgot-passwo
 /** Page loads that read the database without a role: the invitation link shows whom it invites (its id is the secret). */
 const PUBLIC_LOADS_WITH_DATA = ['/invitations/[id]'];
 /** Page trees only signed-in users may open (hooks.server.ts). */
-const SIGNED_IN_AREAS = ['/w', '/app'];
+const SIGNED_IN_AREAS = ['/w', '/app', '/settings'];
 
 beforeAll(async () => {
 	team = await buildTeam(app.origin, db);
