@@ -3,6 +3,7 @@
 // review status (one review pending) and two templates. Runs once per database (seed_mark
 // row 'demo-v1'); every step also finds before it creates, so a half-finished run can resume.
 // Run: npx tsx scripts/seed.ts   (npm start runs it; DB_* settings as in scripts/env.sh)
+// With --scale it also makes the "Scale test" workspace (200 rails × 20 revisions, ./seed-scale.ts).
 
 import { DEMO_PASSWORD, DEMO_USERS } from './demo-users';
 
@@ -18,6 +19,7 @@ import * as templates from '../src/lib/server/services/templates';
 import * as workspaces from '../src/lib/server/services/workspaces';
 import type { RailInput } from '../src/lib/schemas/workspace';
 import type { LoopStatus } from '../src/lib/server/db/schema';
+import { seedScale } from './seed-scale';
 
 const MARK = 'demo-v1';
 const WORKSPACE = { name: 'Kestrel Fieldworks', slug: 'kestrel-fieldworks' };
@@ -196,18 +198,23 @@ async function seedBoard(
 	}
 }
 
-async function main() {
-	const [done] = await db.select().from(seedMark).where(eq(seedMark.name, MARK)).limit(1);
-	if (done) {
-		console.log(`[seed] demo data already present (seeded ${done.appliedAt.toISOString()})`);
-		return;
-	}
+async function demoPeople() {
 	const auth = createAuth(db);
 	const people = new Map<string, { userId: string; email: string }>();
 	for (const u of DEMO_USERS) {
 		const row = await findOrCreateUser(auth, u);
 		people.set(u.role, { userId: row.id, email: row.email });
 	}
+	return people;
+}
+
+async function main() {
+	const [done] = await db.select().from(seedMark).where(eq(seedMark.name, MARK)).limit(1);
+	if (done) {
+		console.log(`[seed] demo data already present (seeded ${done.appliedAt.toISOString()})`);
+		return;
+	}
+	const people = await demoPeople();
 	const owner = people.get('owner')!;
 
 	const [existingWorkspace] = await db.select().from(organization).where(eq(organization.slug, WORKSPACE.slug)).limit(1);
@@ -245,8 +252,17 @@ async function main() {
 	for (const u of DEMO_USERS) console.log(`[seed]   ${u.role.padEnd(8)} ${u.email}`);
 }
 
+/** The scale workspace repeats the demo rails with each one's latest design as its base. */
+async function scale() {
+	const people = await demoPeople();
+	const who = (role: string) => people.get(role)!;
+	const bases = [...gateway, ...sensorNode].map((s) => ({ rail: s.rail, design: s.revisions[s.revisions.length - 1].design }));
+	await seedScale(db, { owner: who('owner'), engineer: who('engineer'), reviewer: who('reviewer'), viewer: who('viewer') }, bases);
+}
+
 try {
 	await main();
+	if (process.argv.includes('--scale')) await scale();
 } catch (error) {
 	console.error('[seed] failed:', error);
 	process.exitCode = 1;
