@@ -5,6 +5,7 @@ import type { marginTargetsSchema, RailInput } from '$lib/schemas/workspace';
 import type { Verification } from '$lib/engine/verify/types';
 import type { VerdictFlag } from '$lib/verdict/flag';
 import type { railSpecSections } from '$lib/spec/railSpec';
+import type { VerdictHeadline } from '$lib/verdict/figures';
 
 export type MarginTargets = z.infer<typeof marginTargetsSchema>;
 
@@ -65,6 +66,22 @@ export interface LoopSummary {
 	engineVersion: string | null;
 	authorName: string | null;
 	createdAt: string;
+}
+
+/** The latest revision of a rail on the board: its summary and the stored verdict's headline. */
+export type BoardLoop = Omit<LoopSummary, 'verification'> & { verification: VerdictHeadline | null };
+export type BoardRail = Rail & { latest: BoardLoop | null };
+
+/** GET /api/v1/projects/{id}/board: the board-health page in one answer. */
+export interface Board {
+	project: Project;
+	/** The caller's role in the board's workspace (null: a name that is not one of ours). */
+	role: string | null;
+	/** The workspace's margin targets (defaults for new revisions). */
+	targets: MarginTargets;
+	rails: BoardRail[];
+	total: number;
+	truncated: boolean;
 }
 
 export interface MemberRow {

@@ -31,7 +31,15 @@ export interface VerdictFigures {
 	corners: number;
 }
 
-export function verdictFigures(v: Verification): VerdictFigures {
+/**
+ * The part of a stored verdict its headline figures read: what the board table carries per rail
+ * (no corner list, warnings or parts, which are most of its size).
+ */
+export type VerdictHeadline = Pick<Verification, 'engineVersion' | 'status' | 'summary' | 'rows' | 'targets' | 'worst' | 'spread'> & {
+	corners: Omit<Verification['corners'], 'list'>;
+};
+
+export function verdictFigures(v: VerdictHeadline): VerdictFigures {
 	const w = v.worst;
 	// The headline texts are the verdict rows' values as every verdict table prints them.
 	const text = (metric: VerdictRow['metric']) => {

@@ -1,7 +1,7 @@
 // Application tables. Singular names and snake_case columns, matching better-auth's tables,
 // which are generated into auth-schema.ts and re-exported here. A workspace is better-auth's
 // `organization`; every app row carries `workspace_id` so isolation is one equality check.
-import { relations } from 'drizzle-orm';
+import { relations, sql } from 'drizzle-orm';
 import {
 	bigint,
 	datetime,
@@ -17,6 +17,7 @@ import {
 } from 'drizzle-orm/mysql-core';
 import { organization, user } from './auth-schema';
 import type { Verification } from '../../engine/verify/types';
+import type { VerdictHeadline } from '../../verdict/figures';
 import type { MarginTargets, RailTolerances, VerdictFlag } from '../services/types';
 
 export * from './auth-schema';
@@ -125,6 +126,20 @@ export const loopRevision = mysqlTable(
 		 * step of scripts/migrate.ts fills them.
 		 */
 		verification: json('verification').$type<Verification | null>(),
+		/**
+		 * The verdict's headline (status, summary, rows, targets, worst figures, corner counts,
+		 * spread), written by the database from `verification` whenever that is written: ~3 kB of
+		 * the ~80 kB verdict, so the board table reads every rail's verdict without parsing the
+		 * corner lists. Never written by the app; one definition, the stored verdict.
+		 */
+		verdictHeadline: json('verdict_headline')
+			.$type<VerdictHeadline | null>()
+			.generatedAlwaysAs(
+				sql.raw(
+					"IF(`verification` IS NULL, NULL, JSON_OBJECT('engineVersion', JSON_EXTRACT(`verification`, '$.engineVersion'), 'status', JSON_EXTRACT(`verification`, '$.status'), 'summary', JSON_EXTRACT(`verification`, '$.summary'), 'rows', JSON_EXTRACT(`verification`, '$.rows'), 'targets', JSON_EXTRACT(`verification`, '$.targets'), 'worst', JSON_EXTRACT(`verification`, '$.worst'), 'corners', JSON_OBJECT('mode', JSON_EXTRACT(`verification`, '$.corners.mode'), 'count', JSON_EXTRACT(`verification`, '$.corners.count'), 'unstable', JSON_EXTRACT(`verification`, '$.corners.unstable'), 'failed', JSON_EXTRACT(`verification`, '$.corners.failed')), 'spread', JSON_EXTRACT(`verification`, '$.spread')))"
+				),
+				{ mode: 'stored' }
+			),
 		/** ENGINE_VERSION that computed `verification`; `npm run reverify` recomputes older ones. */
 		engineVersion: varchar('engine_version', { length: 32 }),
 		message: varchar('message', { length: 500 }).notNull(),

@@ -17,7 +17,8 @@ import { verifyDocument } from './verify';
 import type { Actor } from './types';
 import type { Rail } from './rails';
 
-export type LoopRevision = typeof loopRevision.$inferSelect;
+/** A stored revision as the app reads and writes it (verdict_headline is the database's, read only by the board). */
+export type LoopRevision = Omit<typeof loopRevision.$inferSelect, 'verdictHeadline'>;
 export type ReviewAction = 'request-review' | 'approve' | 'request-changes';
 
 /** Which status each review action leads to, and from which statuses it may start. */
@@ -27,7 +28,7 @@ export const TRANSITIONS: Record<ReviewAction, { from: LoopStatus[]; to: LoopSta
 	'request-changes': { from: ['in-review'], to: 'changes-requested' }
 };
 
-const summaryColumns = {
+export const summaryColumns = {
 	id: loopRevision.id,
 	workspaceId: loopRevision.workspaceId,
 	railId: loopRevision.railId,
@@ -48,7 +49,7 @@ const summaryColumns = {
  * The stored verdict without its per-corner list (hundreds of rows): what a list, the board
  * table and a flag need. The whole verdict comes with one revision (`get`).
  */
-const verdictColumn = sql<Verification | null>`JSON_REMOVE(${loopRevision.verification}, '$.corners.list')`.mapWith((v: unknown) =>
+export const verdictColumn = sql<Verification | null>`JSON_REMOVE(${loopRevision.verification}, '$.corners.list')`.mapWith((v: unknown) =>
 	typeof v === 'string' ? (JSON.parse(v) as Verification) : ((v ?? null) as Verification | null)
 );
 

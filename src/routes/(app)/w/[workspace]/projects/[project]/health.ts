@@ -1,7 +1,7 @@
 // Board health: one rail's row read from the stored verdict of its latest saved loop (engine
 // verify, computed at save): worst PM, GM and the crossover with the corner that sets each,
 // the spread yield, and the verdict. Nothing is judged here; the text is verdictFigures'.
-import type { LoopSummary } from '$lib/client/types';
+import type { BoardLoop } from '$lib/client/types';
 import type { ChipStatus } from '$lib/components/table/status';
 import type { VerdictRow } from '$lib/engine/verify/types';
 import { verdictFigures, type VerdictFigures } from '$lib/verdict/figures';
@@ -34,7 +34,7 @@ function judged(row: VerdictRow | undefined, value: number | null, text: string,
 	return { value, text, corner, status: row.status, reason: row.reason };
 }
 
-export function railHealth(loop: LoopSummary | null): RailHealth {
+export function railHealth(loop: BoardLoop | null): RailHealth {
 	if (!loop) {
 		const n = none('no saved loop yet');
 		return { fc: n, pm: n, gm: n, yield: n, overall: 'none', summary: 'No saved loop yet: open the rail to design one.', figures: null };
