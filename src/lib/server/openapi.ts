@@ -54,6 +54,7 @@ const OPERATIONS: Operation[] = [
 	{ method: 'delete', path: '/projects/{id}', summary: 'Delete a project with its rails and loops', action: 'project.delete', success: 204 },
 	{ method: 'get', path: '/projects/{id}/rails', summary: "The board's rails with corners, targets in force and latest revision", action: 'rail.read', paged: true, success: 200 },
 	{ method: 'post', path: '/projects/{id}/rails', summary: 'Add a rail', action: 'rail.create', body: railCreateSchema, success: 201 },
+	{ method: 'get', path: '/projects/{id}/board', summary: 'The board-health table in one answer: the board, your role, the workspace targets and every rail (up to 1000) with its latest revision and stored verdict headline', action: 'rail.read', success: 200 },
 	{ method: 'get', path: '/rails/{id}', summary: 'One rail', action: 'rail.read', success: 200 },
 	{ method: 'patch', path: '/rails/{id}', summary: 'Edit a rail (merged with the stored rail, validated whole)', action: 'rail.update', body: railUpdateSchema, success: 200 },
 	{ method: 'delete', path: '/rails/{id}', summary: 'Delete a rail with its loops', action: 'rail.delete', success: 204 },
