@@ -19,7 +19,8 @@ import { frequencyResponse } from './tf/evaluate';
 import { robustnessSections } from './closedloop/sections';
 import { cornerPlantLoops, modulatorInputOf, stageInputOf } from './pipeline/documentModel';
 import type { FactoredTf } from './tf/types';
-import { formatEng } from '../units/format';
+import { formatDb, formatEng } from '../units/format';
+import { plausibilityWarnings } from './contract/plausibility';
 
 export interface AnalyzeOptions {
 	/** Compute the Bode arrays [true]; false leaves them empty (faster, for batch runs). */
@@ -206,7 +207,7 @@ function run(d: DesignDocument, options: AnalyzeOptions): AnalysisDetail {
 			analysedRangeHz: range,
 			unavailable: { ...metrics.unavailable } as Record<string, string>
 		},
-		warnings: mergeWarnings(plant.warnings, compensator.warnings, loopWarnings(metrics, p.fsw))
+		warnings: mergeWarnings(plausibilityWarnings(d), plant.warnings, compensator.warnings, loopWarnings(metrics, p.fsw))
 	};
 	const detail: AnalysisDetail = { response, document: d, plant, plantLoop, compensator, loop, metrics };
 	// Robustness sections: only when asked for, so batch runs (includeResponse: false) stay cheap.
@@ -233,7 +234,7 @@ function loopWarnings(m: LoopMetrics, fswHz: number): EngineWarning[] {
 		out.push({ code: 'gain-margin-above-fsw-half', message: `The gain margin is taken at ${formatEng(m.phaseCrossoverHz, 'Hz')}, above fsw/2 where the averaged model is not trusted; treat it as indicative.` });
 	}
 	if (m.gainMarginDb !== null && m.gainMarginDb < 6) {
-		out.push({ code: 'gain-margin-low', message: `Gain margin ${m.gainMarginDb.toFixed(1)} dB is below the usual 6 dB minimum.` });
+		out.push({ code: 'gain-margin-low', message: `Gain margin ${formatDb(m.gainMarginDb)} is below the usual 6 dB minimum.` });
 	}
 	if (m.modulusMargin !== null && m.modulusMargin < 0.4 && m.closedLoopStable !== false) {
 		out.push({ code: 'modulus-margin-low', message: `min |1 + T| = ${m.modulusMargin.toFixed(2)}: the Nyquist curve passes close to −1 (peak sensitivity ${(1 / m.modulusMargin).toFixed(1)}).` });

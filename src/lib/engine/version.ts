@@ -3,5 +3,7 @@
  * the corner set, a verdict rule): stored verdicts carry the version they were computed with, and
  * a re-verification after a bump flags the rails whose verdict changed.
  * History: 2 = governing margins by smallest |PM| / |GM|, one corner set, verdict from the document's targets.
+ * 3 = a crossover above a fifth of the RHP zero at any corner is a caution (compensators/crossoverLimit.ts);
+ * plausibility warnings (contract/plausibility.ts) join the stored warnings.
  */
-export const ENGINE_VERSION = '2';
+export const ENGINE_VERSION = '3';

@@ -1,14 +1,15 @@
 // Plain-words checks on a compensated loop [common practice, domain sheet §6.4, §7.2, §5.6]: crossover against
-// fsw/5, a third of the RHP zero and the LC resonance; network poles above fsw/2 (outside the averaged model);
+// fsw/5, the RHP-zero rule (crossoverLimit.ts) and the LC resonance; network poles above fsw/2 (outside the averaged model);
 // conditional stability; target missed; op-amp loop gain below 10× the noise gain between fc and the top pole.
 import { fmtHz } from '../synthesis/networks';
-import { RHP_ZERO_CROSSOVER_FRACTION, RHP_ZERO_WARNING_FRACTION } from './crossoverLimit';
+import { rhpZeroWarning } from './crossoverLimit';
+import { formatDb, formatDeg } from '../../units/format';
 import type { NetworkParts } from '../synthesis/networks';
 import type { LoopCheck } from './loopCheck';
 import type { DesignWarning, PlantFeatures } from './placement';
 import { noiseGainMagnitude, opampGainMagnitude, type OpampModel } from './transfer';
 
-const deg = (x: number) => `${+x.toFixed(1)}°`;
+const deg = formatDeg;
 
 export function crossoverWarnings(fcHz: number, fswHz: number, features: PlantFeatures): DesignWarning[] {
 	const out: DesignWarning[] = [];
@@ -20,15 +21,8 @@ export function crossoverWarnings(fcHz: number, fswHz: number, features: PlantFe
 				`make the loop unreliable there. Aim for fsw/10 (${fmtHz(fswHz / 10)}) or below.`
 		});
 	}
-	const rhp = features.rhpZeroHz;
-	if (rhp !== null && fcHz > rhp * RHP_ZERO_WARNING_FRACTION) {
-		out.push({
-			code: 'crossover-above-rhp-third',
-			message:
-				`Crossover ${fmtHz(fcHz)} is above a third of the RHP zero (${fmtHz(rhp)}); the RHP zero's phase lag ` +
-				`cannot be compensated. Keep fc at or below ${fmtHz(rhp * RHP_ZERO_CROSSOVER_FRACTION)} (a fifth of it).`
-		});
-	}
+	const rhp = rhpZeroWarning(fcHz, features.rhpZeroHz);
+	if (rhp) out.push(rhp);
 	const ratio = fcHz / features.f0Hz;
 	if (ratio > 0.5 && ratio < 2) {
 		out.push({
@@ -87,7 +81,7 @@ export function loopWarnings(loop: LoopCheck, target: { crossoverHz?: number; ph
 			code: 'conditionally-stable',
 			message:
 				`The loop phase crosses −180° at ${fmtHz(loop.conditionalAtHz)} while the gain is still above 1 ` +
-				`(${+(-loop.gainReductionMarginDb!).toFixed(1)} dB): conditionally stable, so a drop in loop gain of that much ` +
+				`(${formatDb(-loop.gainReductionMarginDb!)}): conditionally stable, so a drop in loop gain of that much ` +
 				`(light load, low input, a saturated amplifier) can make it oscillate. Move the compensator zeros down toward ` +
 				`the LC resonance, or lower the Q of the output filter.`
 		});

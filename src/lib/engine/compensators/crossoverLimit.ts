@@ -2,14 +2,35 @@
  * The highest crossover a placement aims for on its own (a new rail's starter, a template without
  * a crossover): the verdict's own fsw limit (targets.maxCrossoverFraction · fsw) and, for a boost,
  * a fifth of its lowest RHP zero, where the RHP zero's phase lag is still small [common practice,
- * domain sheet §6.4; the same fifth the crossover warnings of checks.ts advise]. One rule for both.
+ * domain sheet §6.4]. One rule for the starter, the crossover warning and the verdict.
  */
 import { DEFAULT_MARGIN_TARGETS } from '../contract/targetsSchema';
+import type { EngineWarning } from '../errors';
+import { formatEng } from '../../units/format';
 
-/** fc at or below this fraction of the RHP zero (a fifth). */
+/**
+ * fc at or below this fraction of the RHP zero (a fifth) [common practice: design notes put fc at
+ * 1/5 … 1/10 of fRHP; the zero adds gain while it takes phase, −atan(1/5) = −11.3° at a fifth].
+ * The crossover warning, the verdict's fc row (at every corner) and the starter design use it.
+ */
 export const RHP_ZERO_CROSSOVER_FRACTION = 1 / 5;
-/** Above this fraction of the RHP zero the crossover warning fires (a third). */
-export const RHP_ZERO_WARNING_FRACTION = 1 / 3;
+
+/** Code of the warning (and of the verdict's caution) when the rule is broken. */
+export const RHP_ZERO_RULE_CODE = 'crossover-above-rhp-limit';
+
+/** The warning when fc is above a fifth of the RHP zero, else null. */
+export function rhpZeroWarning(fcHz: number | null, rhpZeroHz: number | null): EngineWarning | null {
+	if (fcHz === null || rhpZeroHz === null || !(rhpZeroHz > 0)) return null;
+	const limit = RHP_ZERO_CROSSOVER_FRACTION * rhpZeroHz;
+	if (!(fcHz > limit)) return null;
+	const f = (x: number) => formatEng(x, 'Hz');
+	return {
+		code: RHP_ZERO_RULE_CODE,
+		message:
+			`Crossover ${f(fcHz)} is above a fifth of the RHP zero (${f(rhpZeroHz)}): the zero's phase lag cannot be ` +
+			`compensated and it raises the gain. Keep fc at or below ${f(limit)}.`
+	};
+}
 
 /** Boost RHP zero (D'²R − r)/(2πL) with D' = Vin/Vout and R = Vout/Iout: lowest at Vin min, Iout max. */
 export function boostRhpZeroHz(p: { vin: number; vout: number; iout: number; l: number; rSeries?: number }): number {

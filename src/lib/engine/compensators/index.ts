@@ -32,6 +32,7 @@ import { compensatorTf, idealCompensatorTf } from './transfer';
 import { refinePlacement } from './refine';
 import { zodFields } from '../contract/errors';
 import { fmtHz } from '../synthesis/networks';
+import { formatDeg, formatEng, formatPart, formatPercent } from '../../units/format';
 
 export { compensatorSchema, type CompensatorDoc } from './schema';
 export { CompensatorDesignError, type DesignWarning, type PlantFeatures } from './placement';
@@ -143,7 +144,7 @@ export function resolveParsedCompensator(c: CompensatorDoc, ctx: CompensatorCont
 			if (r.shortfall) {
 				warnings.push({
 					code: 'placement-target-missed',
-					message: `Placement ${cornerPlants.length ? 'for the worst corner' : 'with the op-amp model'} could not meet the request: ${r.shortfall} (built loop: fc ${fmtHz(r.achieved.fcHz ?? 0)}, PM ${(r.achieved.pmDeg ?? 0).toFixed(1)}°${cornerPlants.length ? `, worst-corner PM ${(r.achieved.worstPmDeg ?? 0).toFixed(1)}°` : ''}).`
+					message: `Placement ${cornerPlants.length ? 'for the worst corner' : 'with the op-amp model'} could not meet the request: ${r.shortfall} (built loop: fc ${fmtHz(r.achieved.fcHz ?? 0)}, PM ${formatDeg(r.achieved.pmDeg ?? 0)}${cornerPlants.length ? `, worst-corner PM ${formatDeg(r.achieved.worstPmDeg ?? 0)}` : ''}).`
 				});
 			}
 		}
@@ -181,7 +182,13 @@ export function resolveParsedCompensator(c: CompensatorDoc, ctx: CompensatorCont
 	if (fcForChecks !== null) warnings.push(...crossoverWarnings(fcForChecks, ctx.fswHz, ctx.features));
 	// Judged on the placed (ideal) corners: rounding moves them a few percent, which the achieved margins show.
 	warnings.push(...poleWarnings(idealReport.polesHz, ctx.fswHz));
-	warnings.push(...loopWarnings(builtCheck, c.target));
+	const loopNotes = loopWarnings(builtCheck, c.target);
+	warnings.push(...loopNotes);
+	// Advice to simplify the network would be wrong on a loop that oscillates.
+	if (loopNotes.some((w) => w.code === 'unstable')) {
+		const i = warnings.findIndex((w) => w.code === 'boost-not-needed');
+		if (i >= 0) warnings.splice(i, 1);
+	}
 	warnings.push(...partWarnings(builtParts));
 	if (opamp && fcForChecks !== null) warnings.push(...opampWarnings(builtParts, opamp, fcForChecks, builtReport.polesHz));
 	if (rounded && ideal.rb !== null && rounded.rb !== null) {
@@ -189,7 +196,7 @@ export function resolveParsedCompensator(c: CompensatorDoc, ctx: CompensatorCont
 		if (Math.abs(shift) > 0.005) {
 			warnings.push({
 				code: 'divider-vout-shift',
-				message: `Rounding Rb to ${rounded.rb} Ω sets Vout to ${+(ctx.vout * (1 + shift)).toPrecision(4)} V (${+(shift * 100).toFixed(2)}%); choose R1 so Rb lands on a series value.`
+				message: `Rounding Rb to ${formatPart(rounded.rb, 'Ω')} sets Vout to ${formatEng(ctx.vout * (1 + shift), 'V', { digits: 4 })} (${shift > 0 ? '+' : ''}${formatPercent(shift)}); choose R1 so Rb lands on a series value.`
 			});
 		}
 	}
@@ -280,7 +287,7 @@ function notInSeries(parts: NetworkParts, series: SeriesChoice): DesignWarning[]
 		const family = partFamily(name);
 		const s = family === 'resistor' ? series.resistors : family === 'capacitor' ? series.capacitors : null;
 		if (s && !isInSeries(value, s)) {
-			out.push({ code: 'part-not-in-series', message: `${name.toUpperCase()} = ${value} is not an ${s} value.` });
+			out.push({ code: 'part-not-in-series', message: `${name.toUpperCase()} = ${formatPart(value, family === 'resistor' ? 'Ω' : 'F')} is not an ${s} value.` });
 		}
 	}
 	return out;

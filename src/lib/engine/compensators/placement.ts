@@ -13,6 +13,7 @@ import {
 	type NetworkShape
 } from '../synthesis/networks';
 import type { CompensatorTarget } from './schema';
+import { formatDeg } from '../../units/format';
 
 export interface DesignWarning {
 	code: string;
@@ -60,7 +61,7 @@ export const BOOST_LIMIT_DEG: Record<CompensatorKind, number> = { type1: 0, type
 /** Usable window kept inside the limits so K stays finite and > 1 (realisable parts). */
 const BOOST_MARGIN_DEG = 5;
 
-const deg = (x: number) => `${+x.toFixed(1)}°`;
+const deg = formatDeg;
 
 /** |P| and unwrapped ∠P (deg) of the plant at f. */
 function plantAt(plant: FactoredTf, freqHz: number) {

@@ -6,6 +6,7 @@
 // refinePlacement re-places with a corrected request (a short fixed-point iteration on the
 // built loop, op-amp model included) until the built loop meets fc and PM at the nominal point
 // and, with placeFor 'worst-corner', the PM target at every operating case.
+import { formatDeg } from '../../units/format';
 import { loopMetrics } from '../analysis/margins';
 import { multiply, type FactoredTf } from '../tf';
 import type { NetworkParts } from '../synthesis/networks';
@@ -81,7 +82,7 @@ export function refinePlacement(r: RefineRequest): RefineResult {
 		const next = r.place(fcReq, pmReq);
 		// The K-factor limits cap the boost: a request it cannot deliver stops the iteration.
 		if (next.kFactor && next.kFactor.usedBoostDeg < next.kFactor.requiredBoostDeg - 1e-9) {
-			shortfall = `a ${r.cornerPlants.length ? 'worst-corner ' : ''}PM of ${r.pmDeg}° needs more phase boost than this network type gives`;
+			shortfall = `a ${r.cornerPlants.length ? 'worst-corner ' : ''}PM of ${formatDeg(r.pmDeg)} needs more phase boost than this network type gives`;
 			placement = next;
 			parts = r.partsOf(next);
 			const gc2 = compensatorTf(parts, r.opamp);

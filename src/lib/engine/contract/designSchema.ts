@@ -18,6 +18,7 @@ import { inputFilterSchema } from '../inputfilter/schema';
 import { spreadSchema } from '../spread/schema';
 import { loadStepSchema } from '../timeresponse/schema';
 import { targetsSchema } from './targetsSchema';
+import { formatEng } from '../../units/format';
 
 export const SCHEMA_VERSION = 1;
 /** Bode points of a sweep: network analysers give a few hundred to 1601; 5000 leaves room. */
@@ -147,21 +148,20 @@ export const designDocumentSchema = z
 			ctx.addIssue({
 				code: 'custom',
 				path: ['modulator', 'delay'],
-				message: `must be ≤ ${MAX_DELAY_PERIODS} switching periods (${MAX_DELAY_PERIODS} / plant.fsw = ${sig(maxDelay)} s)`
+				message: `must be ≤ ${MAX_DELAY_PERIODS} switching periods (${MAX_DELAY_PERIODS} / plant.fsw = ${formatEng(maxDelay, 's')})`
 			});
 		}
 		const maxStop = MAX_SWEEP_FSW_MULTIPLE * fsw;
 		const s = d.sweep;
 		if (s && 'stopHz' in s && s.stopHz > maxStop) {
-			ctx.addIssue({ code: 'custom', path: ['sweep', 'stopHz'], message: `must be ≤ ${MAX_SWEEP_FSW_MULTIPLE} × plant.fsw (${sig(maxStop)} Hz)` });
+			ctx.addIssue({ code: 'custom', path: ['sweep', 'stopHz'], message: `must be ≤ ${MAX_SWEEP_FSW_MULTIPLE} × plant.fsw (${formatEng(maxStop, 'Hz')})` });
 		}
 		if (s && 'freqHz' in s) {
 			const i = s.freqHz.findIndex((f) => f > maxStop);
-			if (i >= 0) ctx.addIssue({ code: 'custom', path: ['sweep', 'freqHz', i], message: `must be ≤ ${MAX_SWEEP_FSW_MULTIPLE} × plant.fsw (${sig(maxStop)} Hz)` });
+			if (i >= 0) ctx.addIssue({ code: 'custom', path: ['sweep', 'freqHz', i], message: `must be ≤ ${MAX_SWEEP_FSW_MULTIPLE} × plant.fsw (${formatEng(maxStop, 'Hz')})` });
 		}
 	});
 
-const sig = (x: number) => Number(x.toPrecision(3)).toString();
 
 /** A design document as written (defaults optional). */
 export type DesignDocumentInput = z.input<typeof designDocumentSchema>;

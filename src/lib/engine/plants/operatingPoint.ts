@@ -7,6 +7,7 @@
 import { DesignInputError } from '../errors';
 import { bankImpedance, type EquivalentBranch } from './capacitorBank';
 import type { OperatingPoint, PowerStageInput } from './types';
+import { formatEng, formatPart } from '../../units/format';
 
 /** Duty cycles at or above this are rejected (contract rule). */
 export const MAX_DUTY = 0.95;
@@ -55,7 +56,7 @@ export function operatingPoint(p: PowerStageInput, branches: readonly Equivalent
 	if (!(disc >= 0)) {
 		const maxV = 0.5 * Vg * Math.sqrt(R / r);
 		throw new DesignInputError({
-			'plant.vout': `beyond the boost's maximum gain: with r = ${fmt(r)} Ω and R = ${fmt(R)} Ω the output can reach at most ${fmt(maxV)} V`
+			'plant.vout': `beyond the boost's maximum gain: with r = ${formatPart(r, 'Ω')} and R = ${formatPart(R, 'Ω')} the output can reach at most ${formatEng(maxV, 'V', { digits: 4 })}`
 		});
 	}
 	const Dc = (Vg * R + Math.sqrt(disc)) / (2 * V * R);
@@ -89,4 +90,3 @@ export function operatingPoint(p: PowerStageInput, branches: readonly Equivalent
 	};
 }
 
-const fmt = (x: number) => Number(x.toPrecision(4)).toString();

@@ -2,6 +2,7 @@
 // loading) and capacitors below about 10 pF (comparable to pin and layout capacitance) or above about 10 µF
 // (size, leakage) [common practice; domain sheet §5.3 "practical limits"]. Pure checks; messages in plain words.
 import type { NetworkParts } from './networks';
+import { formatEng } from '../../units/format';
 
 export interface PartWarning {
 	code: 'resistor-out-of-range' | 'capacitor-out-of-range';
@@ -55,22 +56,5 @@ export function partWarnings(parts: NetworkParts): PartWarning[] {
 	return out;
 }
 
-function engineering(value: number, unit: string): string {
-	const prefixes: [number, string][] = [
-		[1e6, 'M'],
-		[1e3, 'k'],
-		[1, ''],
-		[1e-3, 'm'],
-		[1e-6, 'µ'],
-		[1e-9, 'n'],
-		[1e-12, 'p'],
-		[1e-15, 'f']
-	];
-	for (const [scale, prefix] of prefixes) {
-		if (Math.abs(value) >= scale * 0.9995) return `${+(value / scale).toPrecision(3)} ${prefix}${unit}`;
-	}
-	return `${value.toExponential(2)} ${unit}`;
-}
-
-export const formatOhms = (r: number) => engineering(r, 'Ω');
-export const formatFarads = (c: number) => engineering(c, 'F');
+const formatOhms = (r: number) => formatEng(r, 'Ω');
+const formatFarads = (c: number) => formatEng(c, 'F');

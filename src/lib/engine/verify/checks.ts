@@ -1,12 +1,13 @@
 /**
  * The checks run at every corner beyond the plant's own warnings (DCM, near the CCM boundary):
- * the op-amp's bandwidth against the noise gain (compensators/checks.ts, §5.6 rule) and, when the
+ * the crossover against the RHP zero (compensators/crossoverLimit.ts), the op-amp's bandwidth against the noise gain (compensators/checks.ts, §5.6 rule) and, when the
  * document has an input filter, Middlebrook's criterion (inputfilter/, §9). One definition, used
  * by the verdict and by the analysis response's corners section.
  */
 import type { CornerCheck } from '../corners/corners';
 import type { DesignDocument } from '../contract/designSchema';
 import { opampWarnings } from '../compensators/checks';
+import { rhpZeroWarning } from '../compensators/crossoverLimit';
 import { idealCompensatorTf } from '../compensators/transfer';
 import type { EngineWarning } from '../errors';
 import { middlebrookCheck } from '../inputfilter/analyzeInputFilter';
@@ -17,12 +18,13 @@ import { formatEng } from '../../units/format';
 /** Points of the Middlebrook grid at each corner (two decades below f0 to fsw/2). */
 const FILTER_GRID_POINTS = 200;
 
-export function cornerChecksFor(doc: DesignDocument): CornerCheck | undefined {
+export function cornerChecksFor(doc: DesignDocument): CornerCheck {
 	const opamp = doc.compensator.opamp ?? null;
 	const filter = doc.inputFilter;
-	if (!opamp && !filter) return undefined;
 	return (built, m, spec) => {
 		const out: EngineWarning[] = [];
+		const rhp = rhpZeroWarning(m.crossoverHz, built.plant.features.rhpZeroHz);
+		if (rhp) out.push(rhp);
 		if (opamp && m.crossoverHz !== null && spec.parts.kind !== 'type2-ota') {
 			const poles = idealCompensatorTf(spec.parts).poles.map(rootFreqHz);
 			out.push(...opampWarnings(spec.parts, opamp, m.crossoverHz, poles));

@@ -1,8 +1,9 @@
 /**
  * The verdict rules (issue 14), one place for every screen, export and stored verdict.
  * Thresholds [common practice]:
- * - PM below the target by up to 5°, GM by up to 3 dB, a crossover above maxCrossoverFraction·fsw
- *   or outside the crossoverHz range: caution.
+ * - PM below the target by up to 5°, GM by up to 3 dB, a crossover above maxCrossoverFraction·fsw,
+ *   above a fifth of the RHP zero at any corner (compensators/crossoverLimit.ts) or outside the
+ *   crossoverHz range: caution.
  * - More short, any corner closed-loop unstable or not modelled, no crossover at a corner, or a
  *   crossover above fsw/2 (outside the averaged model): fail.
  * - Spread yield below 100 % at the targets: caution; below 90 %: fail.
@@ -12,6 +13,7 @@
  */
 import { formatDb, formatDeg, formatEng, formatPercent } from '../../units/format';
 import type { Targets } from '../contract/targetsSchema';
+import { RHP_ZERO_RULE_CODE } from '../compensators/crossoverLimit';
 import type { VerdictRow, VerdictStatus, VerifiedCorner, Worst } from './types';
 
 export const PM_CAUTION_DEG = 5;
@@ -52,7 +54,7 @@ export function gmRow(t: Targets, worst: Worst | null): VerdictRow {
 	return { metric: 'gm', status, value: worst.value, target, corner: worst.corner, reason: `Worst GM ${formatDb(worst.value)} at ${worst.corner} ${verb} the ${formatDb(t.gainMarginDb)} target.` };
 }
 
-export function fcRow(t: Targets, fswHz: number, low: Worst | null, high: Worst | null): VerdictRow {
+export function fcRow(t: Targets, fswHz: number, low: Worst | null, high: Worst | null, warnings: RuleInput['warnings'] = []): VerdictRow {
 	const limit = t.maxCrossoverFraction * fswHz;
 	const range = t.crossoverHz;
 	const parts = [`≤ ${formatEng(limit, 'Hz')} (${formatPercent(t.maxCrossoverFraction)} of fsw)`];
@@ -63,6 +65,12 @@ export function fcRow(t: Targets, fswHz: number, low: Worst | null, high: Worst 
 	const f = (x: number) => formatEng(x, 'Hz');
 	if (high.value > fswHz / 2) {
 		return { metric: 'fc', status: 'fail', value: high.value, target, corner: high.corner, reason: `Crossover ${f(high.value)} at ${high.corner} is above fsw/2 (${f(fswHz / 2)}), outside the averaged model.` };
+	}
+	const rhp = warnings.find((w) => w.code === RHP_ZERO_RULE_CODE);
+	if (rhp) {
+		const corner = rhp.corners[0] ?? null;
+		const more = rhp.corners.length > 1 ? ` (and ${rhp.corners.length - 1} more corner${rhp.corners.length > 2 ? 's' : ''})` : '';
+		return { metric: 'fc', status: 'caution', value: high.value, target, corner, reason: `At ${corner}${more}: ${rhp.message}` };
 	}
 	if (high.value > limit) {
 		return { metric: 'fc', status: 'caution', value: high.value, target, corner: high.corner, reason: `Crossover ${f(high.value)} at ${high.corner} is above ${f(limit)} (${formatPercent(t.maxCrossoverFraction)} of fsw).` };
@@ -128,7 +136,7 @@ export function verdictOf(input: RuleInput): { status: VerdictStatus; summary: s
 	const rows: VerdictRow[] = [
 		pmRow(t, input.corners, input.worst.phaseMarginDeg),
 		gmRow(t, input.worst.gainMarginDb),
-		fcRow(t, input.fswHz, input.worst.crossoverLowHz, input.worst.crossoverHighHz),
+		fcRow(t, input.fswHz, input.worst.crossoverLowHz, input.worst.crossoverHighHz, input.warnings),
 		stabilityRow(input.corners)
 	];
 	if (input.spread) rows.push(yieldRow(input.spread));

@@ -170,7 +170,7 @@ describe('parts, series and the op-amp', () => {
 });
 
 describe('targets out of reach say why', () => {
-	it('crossover above fsw/5, near the resonance, above a third of the RHP zero', () => {
+	it('crossover above fsw/5, near the resonance, above a fifth of the RHP zero', () => {
 		// [common practice: §7.2 targets, §6.4]
 		const buck = exampleBuck();
 		const high = resolveCompensator({ kind: 'type3', target: { method: 'k-factor', crossoverHz: 150e3, phaseMarginDeg: 45 } }, { ...buck, r1: 10e3 });
@@ -180,7 +180,10 @@ describe('targets out of reach say why', () => {
 		expect(codes(near)).toContain('crossover-near-resonance');
 		const boost = exampleBoost();
 		const rhp = resolveCompensator({ kind: 'type3', target: { method: 'k-factor', crossoverHz: 90e3, phaseMarginDeg: 45 } }, { ...boost, r1: 10e3 });
-		expect(rhp.warnings.find((w) => w.code === 'crossover-above-rhp-third')!.message).toMatch(/Keep fc at or below 48\.2 kHz/);
+		// One rule, one number: above a fifth of the RHP zero, and the advice names that same fifth
+		const w = rhp.warnings.find((x) => x.code === 'crossover-above-rhp-limit')!;
+		expect(w.message).toMatch(/above a fifth of the RHP zero \(241 kHz\).*Keep fc at or below 48\.2 kHz/);
+		expect(w.message).not.toMatch(/third/);
 	});
 });
 
