@@ -15,7 +15,8 @@ import { cornerLabel, operatingCases, type CaseName } from './operatingCases';
 import { applyVariation, partsPresent, type PartName, type Variation } from './variation';
 
 /** Extra checks run at every corner (op-amp bandwidth, input filter …): warnings for that corner. */
-export type CornerCheck = (built: BuiltLoop, metrics: LoopMetrics, spec: LoopSpec) => EngineWarning[];
+/** A check run at every corner; `variation` says which operating case and part factors it is. */
+export type CornerCheck = (built: BuiltLoop, metrics: LoopMetrics, spec: LoopSpec, variation: Variation) => EngineWarning[];
 
 export interface CornerSettings {
 	vin?: { min: number; max: number };
@@ -83,7 +84,7 @@ export function evaluateVariant(spec: LoopSpec, v: Variation, checks?: CornerChe
 		const s = applyVariation(spec, v);
 		const built = buildLoop(s);
 		const m = loopMetrics(built.loop, s.rangeHz);
-		const messages = checks ? [...built.plant.warnings, ...checks(built, m, s)] : built.plant.warnings;
+		const messages = checks ? [...built.plant.warnings, ...checks(built, m, s, v)] : built.plant.warnings;
 		return {
 			crossoverHz: m.crossoverHz,
 			phaseMarginDeg: m.phaseMarginDeg,

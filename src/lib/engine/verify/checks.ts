@@ -21,9 +21,12 @@ const FILTER_GRID_POINTS = 200;
 export function cornerChecksFor(doc: DesignDocument): CornerCheck {
 	const opamp = doc.compensator.opamp ?? null;
 	const filter = doc.inputFilter;
-	return (built, m, spec) => {
+	return (built, m, spec, variation) => {
 		const out: EngineWarning[] = [];
-		const rhp = rhpZeroWarning(m.crossoverHz, built.plant.features.rhpZeroHz);
+		// The RHP rule is a design rule over the operating range, as the starter design applies
+		// it (crossoverLimit.ts); part tolerances reach the verdict through PM and GM.
+		const nominalParts = Object.values(variation.factors ?? {}).every((f) => f === 1) && !variation.branchFactors;
+		const rhp = nominalParts ? rhpZeroWarning(m.crossoverHz, built.plant.features.rhpZeroHz) : null;
 		if (rhp) out.push(rhp);
 		if (opamp && m.crossoverHz !== null && spec.parts.kind !== 'type2-ota') {
 			const poles = idealCompensatorTf(spec.parts).poles.map(rootFreqHz);

@@ -2,7 +2,7 @@
  * The verdict rules (issue 14), one place for every screen, export and stored verdict.
  * Thresholds [common practice]:
  * - PM below the target by up to 5°, GM by up to 3 dB, a crossover above maxCrossoverFraction·fsw,
- *   above a fifth of the RHP zero at any corner (compensators/crossoverLimit.ts) or outside the
+ *   above a fifth of the RHP zero at any operating case (compensators/crossoverLimit.ts) or outside the
  *   crossoverHz range: caution.
  * - More short, any corner closed-loop unstable or not modelled, no crossover at a corner, or a
  *   crossover above fsw/2 (outside the averaged model): fail.
