@@ -47,3 +47,32 @@ test('unsaved edits ask before leaving; nothing changed or just saved leaves qui
 	await expect(page).not.toHaveURL(url);
 	expect(dialogs).toHaveLength(1);
 });
+
+test('the review page draws its plot in the page theme (dark stays dark) at 1280 px', async ({ authenticatedAs, baseURL }) => {
+	const owner = await authenticatedAs('owner');
+	const { url } = await boardWithRail(owner, baseURL!);
+	const page = owner.page;
+	await page.setViewportSize({ width: 1280, height: 800 });
+	await page.goto(url);
+	await page.getByLabel('What changed').fill('Starter');
+	await expect(page.getByTestId('save-button')).toBeEnabled({ timeout: 30_000 });
+	await page.getByTestId('save-button').click();
+	await expect(page.getByTestId('save-note')).toContainText('Saved as r1');
+	const loops = await (await page.request.get(`/api/v1/rails/${url.split('/').pop()}/loops?limit=1`)).json();
+	await page.goto(`/w/${owner.workspaceId}/reviews/${loops.items[0].id}`);
+	const plot = page.getByTestId('review-plot');
+	await expect(plot.locator('svg').first()).toBeVisible();
+	const colours: Record<string, { panel: string; axis: string }> = {};
+	for (const theme of ['light', 'dark']) {
+		await page.evaluate((t) => (document.documentElement.dataset.theme = t), theme);
+		colours[theme] = await plot.evaluate((el) => {
+			const text = el.querySelector('svg text') as SVGTextElement;
+			const panel = el.closest('section') as HTMLElement;
+			return { panel: getComputedStyle(panel).backgroundColor, axis: getComputedStyle(text).fill };
+		});
+		await page.screenshot({ path: `test-results/review-1280-${theme}.png` });
+	}
+	// The panel behind the plot and the plot's own text change with the theme.
+	expect(colours.dark.panel).not.toBe(colours.light.panel);
+	expect(colours.dark.axis).not.toBe(colours.light.axis);
+});
