@@ -139,6 +139,8 @@ test('a bench file uploads and overlays the plot, and every export downloads', a
 	await expect(page.getByTestId('bench-metrics')).toContainText('Measured: fc');
 	await expect(page.getByTestId('bench-deviation')).toContainText('|Δ| ≤ 0.00 dB');
 	expect(await page.getByTestId('measured-mag').locator('circle').count()).toBeGreaterThan(300);
+	// The plot's legend names the bench series (issue 16: the dots had no key; fails on the old legend).
+	await expect(page.getByTestId('legend-measured').first()).toContainText('(measured)');
 
 	// A broken file names its line and column.
 	await page.getByTestId('bench-file').setInputFiles({ name: 'broken.csv', mimeType: 'text/csv', buffer: Buffer.from('Frequency (Hz),Gain (dB),Phase (deg)\n100,40,-90\n1000,x,-100\n') });
