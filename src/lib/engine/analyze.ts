@@ -17,7 +17,7 @@ import { defaultSweepRange, logGrid } from './sweep/grid';
 import { multiply } from './tf/algebra';
 import { frequencyResponse } from './tf/evaluate';
 import { robustnessSections } from './closedloop/sections';
-import { cornerPlantLoops, modulatorInputOf, stageInputOf } from './pipeline/documentModel';
+import { capacitorDeratingOf, cornerPlantLoops, hasDerating, modulatorInputOf, stageInputOf } from './pipeline/documentModel';
 import type { FactoredTf } from './tf/types';
 import { formatDb, formatEng } from '../units/format';
 import { plausibilityWarnings } from './contract/plausibility';
@@ -209,6 +209,7 @@ function run(d: DesignDocument, options: AnalyzeOptions): AnalysisDetail {
 		},
 		warnings: mergeWarnings(plausibilityWarnings(d), plant.warnings, compensator.warnings, loopWarnings(metrics, p.fsw))
 	};
+	if (hasDerating(d)) response.capacitorDerating = capacitorDeratingOf(d);
 	const detail: AnalysisDetail = { response, document: d, plant, plantLoop, compensator, loop, metrics };
 	// Robustness sections: only when asked for, so batch runs (includeResponse: false) stay cheap.
 	const extra = robustnessSections(detail, { closedLoop: options.closedLoop ?? (include || d.loadStep !== undefined), sections: options.sections });

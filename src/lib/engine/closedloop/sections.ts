@@ -132,7 +132,7 @@ export function robustnessSections(detail: AnalysisDetail, options: RobustnessOp
 		for (const [name, t] of Object.entries(tolerances)) if (t) tol[name as PartName] = t.tol;
 		const cs = d.corners;
 		const report = guarded('corners', warnings, () =>
-			runCorners(spec, { vin: cs.vin, iout: cs.iout, tolerances: tol, maxCorners: cs.maxCorners, checks: cornerChecksFor(d) }, grid)
+			runCorners(spec, { vin: cs.vin, iout: cs.iout, temperature: cs.temperature, tolerances: tol, maxCorners: cs.maxCorners, checks: cornerChecksFor(d) }, grid)
 		);
 		if (report) {
 			out.corners = { ...report, traces: report.traces.map((t) => ({ ...t, magDb: cleanDb(t.magDb), phaseDeg: cleanDeg(t.phaseDeg) })) };

@@ -19,6 +19,7 @@ import { spreadSchema } from '../spread/schema';
 import { loadStepSchema } from '../timeresponse/schema';
 import { targetsSchema } from './targetsSchema';
 import { formatEng } from '../../units/format';
+import { temperatureClass } from '../plants/derating';
 
 export const SCHEMA_VERSION = 1;
 /** Bode points of a sweep: network analysers give a few hundred to 1601; 5000 leaves room. */
@@ -39,6 +40,24 @@ const inRange = (unit: string, min: number, max: number) =>
 		.min(min, { error: `must be ≥ ${min} ${unit}` })
 		.max(max, { error: `must be ≤ ${max} ${unit}` });
 
+/** C(V) of one part: measured points (V, C per part) or the curve C0 / (1 + (V/V0)^k). */
+const dcBiasSchema = z.union(
+	[
+		z
+			.object({
+				points: z
+					.array(z.object({ v: positive('V').max(1e4, { error: 'must be ≤ 10 kV' }), c: positive('F').max(100, { error: 'must be ≤ 100 F' }) }).strict(), {
+						error: 'must be a list of { v, c } points'
+					})
+					.min(1, { error: 'needs at least one point' })
+					.max(12, { error: 'at most 12 points' })
+			})
+			.strict(),
+		z.object({ v0: positive('V').max(1e4, { error: 'must be ≤ 10 kV' }), k: positive('exponent').max(10, { error: 'must be ≤ 10' }) }).strict()
+	],
+	{ error: 'must be { points: [{ v, c }] } or { v0, k }' }
+);
+
 export const capacitorBranchSchema = z.object(
 	{
 	c: inRange('F', 1e-12, 100),
@@ -50,7 +69,14 @@ export const capacitorBranchSchema = z.object(
 		.max(1e-3, { error: 'must be ≤ 0.001 H' })
 		.refine((x) => x === 0 || x >= 1e-15, { error: 'must be 0 or ≥ 1e-15 H' })
 		.default(0),
-	count: num('parts').int({ error: 'must be a whole number' }).min(1, { error: 'must be ≥ 1' }).max(1000, { error: 'must be ≤ 1000' }).default(1)
+	count: num('parts').int({ error: 'must be a whole number' }).min(1, { error: 'must be ≥ 1' }).max(1000, { error: 'must be ≤ 1000' }).default(1),
+	// Derating (plants/derating.ts), all optional: absent = the typed value at every corner.
+	dcBias: dcBiasSchema.optional(),
+	tempClass: z
+		.string({ error: 'must be a class code such as X7R, X5R or C0G' })
+		.refine((s) => temperatureClass(s) !== null, { error: 'must be a class code such as X7R, X5R, X6S or C0G' })
+		.optional(),
+	ageing: num('fraction').min(0, { error: 'must be ≥ 0' }).max(0.5, { error: 'must be ≤ 0.5 (50 %)' }).optional()
 	},
 	{ error: missingOr('must be an object { c, esr, esl, count }') }
 );
@@ -70,7 +96,15 @@ export const plantSchema = z
 			.array(capacitorBranchSchema, { error: 'must be a list of capacitor branches' })
 			.min(1, { error: 'needs at least one capacitor branch' })
 			.max(8, { error: 'at most 8 capacitor branches' }),
-		rdsOn: nonNegative('Ω').max(1e3, { error: 'must be ≤ 1000 Ω' }).default(0)
+		rdsOn: nonNegative('Ω').max(1e3, { error: 'must be ≤ 1000 Ω' }).default(0),
+		/** Relative rise of rdsOn per °C above 25 °C (e.g. 0.004), for temperature corners [none]. */
+		rdsOnTempco: nonNegative('1/°C').max(0.05, { error: 'must be ≤ 0.05 per °C' }).optional(),
+		/**
+		 * Light-load behaviour: 'forced-ccm' (synchronous, the CCM model holds at any load),
+		 * 'diode-emulation' (synchronous, enters DCM below the boundary) or 'diode' (a diode
+		 * rectifier, enters DCM). Absent = as before: DCM is warned about, not excluded.
+		 */
+		lightLoad: z.enum(['forced-ccm', 'diode-emulation', 'diode'], { error: 'must be "forced-ccm", "diode-emulation" or "diode"' }).optional()
 	}, { error: missingOr('must be an object') })
 	.superRefine((p, ctx) => {
 		if (p.topology === 'buck' && !(p.vout < p.vin)) {

@@ -76,6 +76,13 @@ export const analysisResponseSchema = z.object({
 		unavailable: z.record(z.string(), z.string())
 	}),
 	warnings: z.array(warning),
+	/**
+	 * Per capacitor branch, only when some branch has derating data: the typed value per part, the
+	 * effective one every analysis uses, and its factors (DC bias at Vout, temperature at 25 °C, ageing).
+	 */
+	capacitorDerating: z
+		.array(z.object({ typed: finite, effective: finite, dcBias: finite, temperature: finite, ageing: finite }))
+		.optional(),
 	// Optional robustness sections (robustnessSchema.ts): closedLoop when the response is
 	// included or the document has loadStep; the others when the document asks for them.
 	closedLoop: closedLoopSectionSchema.optional(),

@@ -72,6 +72,8 @@ const cornerPoint = z.object({
 	iout: finite,
 	vinCase: caseName,
 	ioutCase: caseName,
+	temperatureC: finite.optional(),
+	tempCase: caseName.optional(),
 	factors,
 	kind: z.enum(['nominal', 'operating', 'exhaustive', 'one-at-a-time', 'linearised-worst']),
 	label: z.string()

@@ -21,6 +21,8 @@ export type CornerCheck = (built: BuiltLoop, metrics: LoopMetrics, spec: LoopSpe
 export interface CornerSettings {
 	vin?: { min: number; max: number };
 	iout?: { min: number; max: number };
+	/** Temperature range, °C (nominal 25 °C). */
+	temperature?: { min: number; max: number };
 	/** Relative tolerance (0.1 = ±10 %) per part; parts the loop lacks are ignored. */
 	tolerances?: Partial<Record<PartName, number>>;
 	/** Limit on the number of corners before falling back to one-at-a-time [4096]. */
@@ -34,6 +36,9 @@ export interface CornerPoint {
 	iout: number;
 	vinCase: CaseName;
 	ioutCase: CaseName;
+	/** Part temperature, °C, and its case (only with a temperature range). */
+	temperatureC?: number;
+	tempCase?: CaseName;
 	/** Multiplier applied to each toleranced part (only parts ≠ 1 listed). */
 	factors: Partial<Record<PartName, number>>;
 	/** How the corner was chosen. */
@@ -101,7 +106,7 @@ export function evaluateVariant(spec: LoopSpec, v: Variation, checks?: CornerChe
 }
 
 export function runCorners(spec: LoopSpec, settings: CornerSettings, freqHz?: ArrayLike<number>): CornerReport {
-	const ops = operatingCases({ vin: spec.stage.vin, iout: spec.stage.iout, vinRange: settings.vin, ioutRange: settings.iout });
+	const ops = operatingCases({ vin: spec.stage.vin, iout: spec.stage.iout, vinRange: settings.vin, ioutRange: settings.iout, temperatureRange: settings.temperature });
 	const present = new Set(partsPresent(spec));
 	const tol = Object.entries(settings.tolerances ?? {}).filter(
 		([name, t]) => present.has(name as PartName) && typeof t === 'number' && t > 0
@@ -112,17 +117,17 @@ export function runCorners(spec: LoopSpec, settings: CornerSettings, freqHz?: Ar
 	const corners: CornerResult[] = [];
 	const warningMessages: Record<string, string> = {};
 	const run = (p: Omit<CornerPoint, 'label'>) => {
-		const { messages, ...metrics } = evaluateVariant(spec, { vin: p.vin, iout: p.iout, factors: p.factors }, settings.checks);
+		const { messages, ...metrics } = evaluateVariant(spec, { vin: p.vin, iout: p.iout, temperatureC: p.temperatureC, factors: p.factors }, settings.checks);
 		for (const w of messages) warningMessages[w.code] ??= w.message;
 		const r: CornerResult = { ...p, label: cornerLabel(p), ...metrics };
 		corners.push(r);
 		return r;
 	};
 	const nominal = ops[0];
-	run({ vin: nominal.vin, iout: nominal.iout, vinCase: 'nom', ioutCase: 'nom', factors: {}, kind: 'nominal' });
+	run({ vin: nominal.vin, iout: nominal.iout, vinCase: 'nom', ioutCase: 'nom', ...(nominal.tempCase ? { temperatureC: nominal.temperatureC, tempCase: nominal.tempCase } : {}), factors: {}, kind: 'nominal' });
 	for (const o of ops) {
 		if (o.nominal && tol.length === 0) continue;
-		const op = { vin: o.vin, iout: o.iout, vinCase: o.vinCase, ioutCase: o.ioutCase };
+		const op = { vin: o.vin, iout: o.iout, vinCase: o.vinCase, ioutCase: o.ioutCase, ...(o.tempCase ? { temperatureC: o.temperatureC, tempCase: o.tempCase } : {}) };
 		if (exhaustive) {
 			for (let mask = 0; mask < 2 ** tol.length; mask++) {
 				const factors: Partial<Record<PartName, number>> = {};
@@ -203,4 +208,4 @@ export function runCorners(spec: LoopSpec, settings: CornerSettings, freqHz?: Ar
 	};
 }
 
-const strip = (c: CornerPoint): CornerPoint => ({ vin: c.vin, iout: c.iout, vinCase: c.vinCase, ioutCase: c.ioutCase, factors: c.factors, kind: c.kind, label: c.label });
+const strip = (c: CornerPoint): CornerPoint => ({ vin: c.vin, iout: c.iout, vinCase: c.vinCase, ioutCase: c.ioutCase, ...(c.tempCase ? { temperatureC: c.temperatureC, tempCase: c.tempCase } : {}), factors: c.factors, kind: c.kind, label: c.label });

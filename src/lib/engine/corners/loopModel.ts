@@ -12,7 +12,8 @@ import type { PlantModel, PowerStageInput } from '../plants/types';
 import type { NetworkParts } from '../synthesis/networks';
 import { multiply } from '../tf/algebra';
 import type { FactoredTf } from '../tf/types';
-import { modulatorInputOf, stageInputOf } from '../pipeline/documentModel';
+import { modulatorInputOf, stageInputOf, thermalOf } from '../pipeline/documentModel';
+import type { ThermalModel } from '../plants/derating';
 
 export interface LoopSpec {
 	stage: PowerStageInput;
@@ -23,6 +24,8 @@ export interface LoopSpec {
 	opamp: OpampModel | null;
 	/** Range for the margin search, Hz. */
 	rangeHz: { startHz: number; stopHz: number };
+	/** How the stage moves with temperature (absent: it does not). */
+	thermal?: ThermalModel;
 }
 
 export interface BuiltLoop {
@@ -69,6 +72,7 @@ export function loopSpecFromDetail(detail: AnalysisDetail): LoopSpec {
 		vinNominal: p.vin,
 		parts,
 		opamp: d.compensator.opamp ?? null,
-		rangeHz: { ...detail.response.metrics.analysedRangeHz }
+		rangeHz: { ...detail.response.metrics.analysedRangeHz },
+		thermal: thermalOf(d)
 	};
 }

@@ -1,11 +1,12 @@
 /**
  * The one corner set (issue 14): the operating cases Vin {min, nom, max} × Iout {min, nom, max}
- * with duplicates removed and the nominal first, each later combined with the tolerance signs
+ * × temperature {min, 25 °C, max} (only when the document gives a temperature range) with duplicates removed and the nominal first, each later combined with the tolerance signs
  * (corners.ts). Every screen, export and count uses this list, and labels a corner with
  * `cornerLabel`. With feed-forward the ramp follows Vin; that scaling lives in one place,
  * plants/modulator.ts (modulatorTf(mod, vin, vinNominal)), which every corner build calls.
  */
 import { PART_LABELS, type PartName } from './variation';
+import { REFERENCE_TEMPERATURE_C } from '../plants/derating';
 
 export type CaseName = 'min' | 'nom' | 'max';
 
@@ -14,6 +15,9 @@ export interface OperatingCase {
 	iout: number;
 	vinCase: CaseName;
 	ioutCase: CaseName;
+	/** Part temperature, °C, and its case (absent without a temperature range). */
+	temperatureC?: number;
+	tempCase?: CaseName;
 	nominal: boolean;
 }
 
@@ -24,6 +28,8 @@ export interface OperatingRanges {
 	/** The ranges (document's corners.vin / corners.iout); absent = the nominal only. */
 	vinRange?: { min: number; max: number };
 	ioutRange?: { min: number; max: number };
+	/** Temperature range, °C (the nominal is 25 °C); absent = 25 °C only, no T in the labels. */
+	temperatureRange?: { min: number; max: number };
 }
 
 /** [name, value] for min, nom, max, a value equal to the nominal kept once (as 'nom'). */
@@ -38,10 +44,13 @@ function levels(nom: number, range?: { min: number; max: number }): [CaseName, n
 /** Vin × Iout operating cases, nominal first, the rest in reading order (Vin min…max, Iout min…max). */
 export function operatingCases(r: OperatingRanges): OperatingCase[] {
 	const out: OperatingCase[] = [];
+	const temps: [CaseName | undefined, number | undefined][] = r.temperatureRange ? levels(REFERENCE_TEMPERATURE_C, r.temperatureRange) : [[undefined, undefined]];
 	for (const [vinCase, vin] of levels(r.vin, r.vinRange)) {
 		for (const [ioutCase, iout] of levels(r.iout, r.ioutRange)) {
-			const nominal = vinCase === 'nom' && ioutCase === 'nom';
-			out.push({ vin, iout, vinCase, ioutCase, nominal });
+			for (const [tempCase, temperatureC] of temps) {
+				const nominal = vinCase === 'nom' && ioutCase === 'nom' && (tempCase ?? 'nom') === 'nom';
+				out.push(tempCase ? { vin, iout, vinCase, ioutCase, temperatureC, tempCase, nominal } : { vin, iout, vinCase, ioutCase, nominal });
+			}
 		}
 	}
 	return out.sort((a, b) => Number(b.nominal) - Number(a.nominal));
@@ -54,8 +63,9 @@ function signedPercent(factor: number): string {
 }
 
 /** "Vin max, Iout min, L −20 %, C +10 %": the words every screen and export uses for a corner. */
-export function cornerLabel(c: { vinCase: CaseName; ioutCase: CaseName; factors?: Partial<Record<PartName, number>> }): string {
+export function cornerLabel(c: { vinCase: CaseName; ioutCase: CaseName; tempCase?: CaseName; factors?: Partial<Record<PartName, number>> }): string {
 	const parts = [`Vin ${c.vinCase}`, `Iout ${c.ioutCase}`];
+	if (c.tempCase) parts.push(`T ${c.tempCase}`);
 	for (const [name, f] of Object.entries(c.factors ?? {})) {
 		if (typeof f === 'number' && f !== 1) parts.push(`${PART_LABELS[name as PartName]} ${signedPercent(f)}`);
 	}

@@ -35,6 +35,15 @@ export const cornersSchema = z
 		vin: rangeSchema('V').optional(),
 		/** Load-current range. */
 		iout: rangeSchema('A').optional(),
+		/** Ambient / part temperature range, °C (the nominal is 25 °C): capacitor classes, DCR and RDS(on) follow it. */
+		temperature: z
+			.object({
+				min: num('°C').min(-60, { error: 'must be ≥ −60 °C' }).max(200, { error: 'must be ≤ 200 °C' }),
+				max: num('°C').min(-60, { error: 'must be ≥ −60 °C' }).max(200, { error: 'must be ≤ 200 °C' })
+			})
+			.strict()
+			.refine((r) => r.min <= r.max, { error: 'min must be ≤ max', path: ['min'] })
+			.optional(),
 		/** Above this many corners, tolerances are run one at a time plus linearised worst cases [4096]. */
 		maxCorners: num('corners')
 			.int({ error: 'must be a whole number' })

@@ -7,6 +7,7 @@
  */
 import type { NetworkParts } from '../synthesis/networks';
 import type { LoopSpec } from './loopModel';
+import { dcrAt, rdsOnAt, REFERENCE_TEMPERATURE_C, temperatureClass } from '../plants/derating';
 
 export const PLANT_PARTS = ['l', 'dcr', 'rdsOn', 'c', 'esr', 'esl'] as const;
 export const COMPENSATOR_PARTS = ['r1', 'r2', 'r3', 'c1', 'c2', 'c3', 'gm', 'ro'] as const;
@@ -38,6 +39,8 @@ export interface Variation {
 	iout?: number;
 	/** Multiplier per part (1 = nominal). */
 	factors?: Partial<Record<PartName, number>>;
+	/** Part temperature, °C (absent = 25 °C): capacitor class, DCR (copper) and RDS(on) follow it. */
+	temperatureC?: number;
 	/** Per-branch multipliers for c, esr, esl (index = capacitor branch), applied after `factors`. */
 	branchFactors?: { c?: readonly number[]; esr?: readonly number[]; esl?: readonly number[] };
 }
@@ -58,8 +61,12 @@ export function applyVariation(spec: LoopSpec, v: Variation): LoopSpec {
 	const f = (name: PartName) => v.factors?.[name] ?? 1;
 	const bf = v.branchFactors ?? {};
 	const s = spec.stage;
+	const t = v.temperatureC ?? REFERENCE_TEMPERATURE_C;
+	const th = spec.thermal;
+	const classOf = (i: number) => (th?.tempClasses[i] ? temperatureClass(th.tempClasses[i]!) : null);
+	const thermalC = (i: number) => (t === REFERENCE_TEMPERATURE_C ? 1 : (classOf(i)?.factorAt(t) ?? 1));
 	const capacitors = s.capacitors.map((b, i) => ({
-		c: b.c * f('c') * (bf.c?.[i] ?? 1),
+		c: b.c * f('c') * (bf.c?.[i] ?? 1) * thermalC(i),
 		esr: b.esr * f('esr') * (bf.esr?.[i] ?? 1),
 		esl: b.esl * f('esl') * (bf.esl?.[i] ?? 1),
 		count: b.count
@@ -76,8 +83,8 @@ export function applyVariation(spec: LoopSpec, v: Variation): LoopSpec {
 			vin: v.vin ?? s.vin,
 			iout: v.iout ?? s.iout,
 			l: s.l * f('l'),
-			dcr: s.dcr * f('dcr'),
-			rdsOn: s.rdsOn * f('rdsOn'),
+			dcr: dcrAt(s.dcr, t) * f('dcr'),
+			rdsOn: rdsOnAt(s.rdsOn, th?.rdsOnTempco, t) * f('rdsOn'),
 			capacitors
 		},
 		modulator: { ...spec.modulator, vramp: spec.modulator.vramp * f('vramp') },

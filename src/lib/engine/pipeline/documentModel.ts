@@ -12,10 +12,32 @@ import { powerStage } from '../plants/powerStage';
 import type { PowerStageInput } from '../plants/types';
 import { multiply } from '../tf/algebra';
 import type { FactoredTf } from '../tf/types';
+import { effectiveCapacitance, REFERENCE_TEMPERATURE_C, type EffectiveCapacitance, type ThermalModel } from '../plants/derating';
 
-/** The power stage of a validated document, at its nominal point or at another Vin / Iout. */
+/**
+ * Each capacitor branch's effective value per part (DC bias at Vout, temperature class at
+ * temperatureC, ageing; plants/derating.ts) beside the typed one. Every analysis uses `effective`.
+ */
+export function capacitorDeratingOf(d: DesignDocument, temperatureC = REFERENCE_TEMPERATURE_C): EffectiveCapacitance[] {
+	// The output capacitors of both the buck and the boost sit across Vout.
+	return d.plant.capacitors.map((b) => effectiveCapacitance(b.c, b, d.plant.vout, temperatureC));
+}
+
+/** True when some branch carries derating data (the response then lists the effective values). */
+export const hasDerating = (d: DesignDocument) => d.plant.capacitors.some((b) => b.dcBias || b.tempClass || b.ageing);
+
+/**
+ * What corners need to move a stage to another temperature: each branch's class code and the
+ * switch resistance's coefficient (DCR follows copper). Data only, so a LoopSpec stays cloneable.
+ */
+export function thermalOf(d: DesignDocument): ThermalModel {
+	return { tempClasses: d.plant.capacitors.map((b) => b.tempClass ?? null), rdsOnTempco: d.plant.rdsOnTempco ?? 0 };
+}
+
+/** The power stage of a validated document, at its nominal point (25 °C) or at another Vin / Iout. */
 export function stageInputOf(d: DesignDocument, at?: { vin: number; iout: number }): PowerStageInput {
 	const p = d.plant;
+	const effective = capacitorDeratingOf(d);
 	return {
 		topology: p.topology,
 		vin: at?.vin ?? p.vin,
@@ -25,7 +47,7 @@ export function stageInputOf(d: DesignDocument, at?: { vin: number; iout: number
 		l: p.inductor.l,
 		dcr: p.inductor.dcr,
 		rdsOn: p.rdsOn,
-		capacitors: p.capacitors.map((c) => ({ c: c.c, esr: c.esr, esl: c.esl, count: c.count }))
+		capacitors: p.capacitors.map((c, i) => ({ c: effective[i].effective, esr: c.esr, esl: c.esl, count: c.count }))
 	};
 }
 

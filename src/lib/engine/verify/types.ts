@@ -24,6 +24,8 @@ export interface VerifiedCorner {
 	label: string;
 	vin: number;
 	iout: number;
+	/** Part temperature, °C (only when the document gives a temperature range). */
+	temperatureC?: number;
 	factors: Record<string, number>;
 	crossoverHz: number | null;
 	phaseMarginDeg: number | null;

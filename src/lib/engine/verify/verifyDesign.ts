@@ -67,7 +67,7 @@ function verifyAnalysed(doc: DesignDocument, detail: AnalysisDetail, options: Ve
 	for (const [name, t] of Object.entries(tolerances)) if (t && t.tol > 0) tol[name as PartName] = t.tol;
 	const report = runCorners(
 		spec,
-		{ vin: doc.corners?.vin, iout: doc.corners?.iout, tolerances: tol, maxCorners: doc.corners?.maxCorners, checks: cornerChecksFor(doc) },
+		{ vin: doc.corners?.vin, iout: doc.corners?.iout, temperature: doc.corners?.temperature, tolerances: tol, maxCorners: doc.corners?.maxCorners, checks: cornerChecksFor(doc) },
 		options.traceFreqHz
 	);
 
@@ -85,6 +85,7 @@ function verifyAnalysed(doc: DesignDocument, detail: AnalysisDetail, options: Ve
 		label: c.label,
 		vin: c.vin,
 		iout: c.iout,
+		...(c.temperatureC !== undefined ? { temperatureC: c.temperatureC } : {}),
 		factors: { ...(c.factors as Record<string, number>) },
 		crossoverHz: c.crossoverHz,
 		phaseMarginDeg: c.phaseMarginDeg,
