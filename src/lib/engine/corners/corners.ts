@@ -7,6 +7,7 @@
  * governing-margin rule, formulas §7); worst fc (lowest and highest), PM and GM with the corner
  * that sets each; the warnings raised at each corner; the loop traces of the worst corners.
  */
+import { OUTSIDE_MODEL_CODE } from '../plants/powerStage';
 import { loopMetrics, type LoopMetrics } from '../analysis/margins';
 import { isDesignInputError, type EngineWarning } from '../errors';
 import { frequencyResponse } from '../tf/evaluate';
@@ -168,7 +169,8 @@ export function runCorners(spec: LoopSpec, settings: CornerSettings, freqHz?: Ar
 		let best: WorstCase | null = null;
 		for (const c of corners) {
 			const v = c[key];
-			if (v === null) continue;
+			// A corner outside the model (DCM the document says it enters) has no valid margins.
+			if (v === null || c.warnings.includes(OUTSIDE_MODEL_CODE)) continue;
 			if (!best || sign * v < sign * best.value) best = { value: v, corner: c };
 		}
 		return best;
@@ -201,7 +203,7 @@ export function runCorners(spec: LoopSpec, settings: CornerSettings, freqHz?: Ar
 		mode: exhaustive ? 'exhaustive' : 'one-at-a-time',
 		corners,
 		worst,
-		unstableCorners: corners.filter((c) => c.closedLoopStable === false).length,
+		unstableCorners: corners.filter((c) => c.closedLoopStable === false && !c.warnings.includes(OUTSIDE_MODEL_CODE)).length,
 		failedCorners: corners.filter((c) => c.error !== null).length,
 		warningMessages,
 		traces

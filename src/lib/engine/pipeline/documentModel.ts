@@ -47,7 +47,8 @@ export function stageInputOf(d: DesignDocument, at?: { vin: number; iout: number
 		l: p.inductor.l,
 		dcr: p.inductor.dcr,
 		rdsOn: p.rdsOn,
-		capacitors: p.capacitors.map((c, i) => ({ c: effective[i].effective, esr: c.esr, esl: c.esl, count: c.count }))
+		capacitors: p.capacitors.map((c, i) => ({ c: effective[i].effective, esr: c.esr, esl: c.esl, count: c.count })),
+		...(p.lightLoad ? { lightLoad: p.lightLoad } : {})
 	};
 }
 

@@ -11,12 +11,20 @@ import { stageFeatures, stageTransferFunctions } from './stageModel';
 import type { PlantModel, PowerStageInput } from './types';
 import { formatEng } from '../../units/format';
 
+/** Warning code of an operating point in DCM that the document says it enters (diode emulation, diode). */
+export const OUTSIDE_MODEL_CODE = 'dcm-outside-model';
+
 /** A load within 20 % of the CCM boundary is flagged [common practice: margin for L tolerance and load steps]. */
 export const NEAR_BOUNDARY = 1.2;
 
 export function powerStage(input: PowerStageInput): PlantModel {
 	const net = outputNetwork(input.capacitors);
-	const op = operatingPoint(input, net.branches);
+	// Forced CCM: the inductor current reverses at light load instead of stopping, so the CCM
+	// averaged model holds at every load [published: E&M Ch. 5 — DCM needs a switch that blocks
+	// reverse current; synchronous switches conduct both ways].
+	const forced = input.lightLoad === 'forced-ccm';
+	const computed = operatingPoint(input, net.branches);
+	const op = forced ? { ...computed, mode: 'ccm' as const } : computed;
 	const params = {
 		topology: input.topology,
 		vin: input.vin,
@@ -30,7 +38,15 @@ export function powerStage(input: PowerStageInput): PlantModel {
 	const t = stageTransferFunctions(params, net);
 	const features = stageFeatures(params, t);
 	const warnings: EngineWarning[] = [];
-	if (op.mode === 'dcm') {
+	const entersDcm = input.lightLoad === 'diode-emulation' || input.lightLoad === 'diode';
+	if (forced) {
+		// Neither DCM nor its boundary applies.
+	} else if (op.mode === 'dcm' && entersDcm) {
+		warnings.push({
+			code: OUTSIDE_MODEL_CODE,
+			message: `Outside the model: with ${input.lightLoad === 'diode' ? 'a diode rectifier' : 'diode emulation'} the inductor current runs discontinuous below ${formatEng(op.criticalLoadCurrent, 'A')} (this load: ${formatEng(input.iout, 'A')}), where the CCM averaged model does not apply; this corner is left out of the margins.`
+		});
+	} else if (op.mode === 'dcm') {
 		warnings.push({
 			code: 'dcm-operating-point',
 			message: `The inductor current runs discontinuous (L = ${formatEng(input.l, 'H')} is below the critical ${formatEng(op.criticalInductance, 'H')}, or the load current is below ${formatEng(op.criticalLoadCurrent, 'A')}); the CCM averaged model does not apply.`

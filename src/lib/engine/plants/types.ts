@@ -24,6 +24,11 @@ export interface PowerStageInput {
 	/** Switch on-resistance, lumped with dcr (synchronous switches of equal resistance). */
 	rdsOn: number;
 	capacitors: CapacitorBranch[];
+	/**
+	 * Light-load behaviour: 'forced-ccm' keeps the CCM model at any load; 'diode-emulation' and
+	 * 'diode' enter DCM below the boundary (outside the model). Absent: DCM is only warned about.
+	 */
+	lightLoad?: 'forced-ccm' | 'diode-emulation' | 'diode';
 }
 
 export interface OperatingPoint {

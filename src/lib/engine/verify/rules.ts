@@ -20,7 +20,10 @@ export const PM_CAUTION_DEG = 5;
 export const GM_CAUTION_DB = 3;
 export const YIELD_FAIL_BELOW = 0.9;
 /** Warning codes that mean the averaged small-signal model does not hold at that corner. */
-export const MODEL_WARNING_CODES = ['dcm-operating-point', 'near-ccm-boundary', 'input-filter-middlebrook', 'opamp-gbw-too-low'] as const;
+export const MODEL_WARNING_CODES = ['dcm-outside-model', 'dcm-operating-point', 'near-ccm-boundary', 'input-filter-middlebrook', 'opamp-gbw-too-low'] as const;
+
+/** A corner the document says runs in DCM (diode emulation, diode): outside the model, its margins do not count. */
+const inModel = (c: VerifiedCorner) => !c.warnings.includes('dcm-outside-model');
 
 const RANK: Record<VerdictStatus, number> = { pass: 0, caution: 1, fail: 2 };
 export const worseOf = (a: VerdictStatus, b: VerdictStatus): VerdictStatus => (RANK[b] > RANK[a] ? b : a);
@@ -36,7 +39,7 @@ export interface RuleInput {
 
 export function pmRow(t: Targets, corners: VerifiedCorner[], worst: Worst | null): VerdictRow {
 	const target = `≥ ${formatDeg(t.phaseMarginDeg)}`;
-	const none = corners.find((c) => c.error === null && c.phaseMarginDeg === null);
+	const none = corners.find((c) => inModel(c) && c.error === null && c.phaseMarginDeg === null);
 	if (none) return { metric: 'pm', status: 'fail', value: null, target, corner: none.label, reason: `The loop gain never reaches 0 dB at ${none.label}: no crossover, no phase margin.` };
 	if (!worst) return { metric: 'pm', status: 'fail', value: null, target, corner: null, reason: 'No corner could be analysed.' };
 	const short = t.phaseMarginDeg - worst.value;
@@ -84,8 +87,9 @@ export function fcRow(t: Targets, fswHz: number, low: Worst | null, high: Worst 
 	return { metric: 'fc', status: 'pass', value: high.value, target, corner: high.corner, reason: `Crossover from ${f(low.value)} (${low.corner}) to ${f(high.value)} (${high.corner}), within the targets.` };
 }
 
-export function stabilityRow(corners: VerifiedCorner[]): VerdictRow {
+export function stabilityRow(all: VerifiedCorner[]): VerdictRow {
 	const target = 'stable at every corner';
+	const corners = all.filter(inModel);
 	const unstable = corners.filter((c) => c.closedLoopStable === false);
 	const failed = corners.filter((c) => c.error !== null);
 	const unknown = corners.filter((c) => c.error === null && c.closedLoopStable === null);
