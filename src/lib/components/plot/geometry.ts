@@ -2,26 +2,46 @@
  * Pure helpers of the Bode plot: scales' domains, log-axis ticks, SVG path strings that skip
  * non-finite samples, and log-frequency interpolation for the hover readout. No DOM here.
  */
-import { line } from 'd3-shape';
 import type { ScaleLinear, ScaleLogarithmic } from 'd3-scale';
 import type { BodeTrace, TraceVisibility } from './types';
 
-/** Path through (freqHz[i], values[i]); samples that are not finite (or off a log axis) are gaps. */
+/** The x pixel of every sample (one scale evaluation per frequency, shared by all traces of a grid). */
+export function pixelsX(x: ScaleLogarithmic<number, number>, freqHz: ArrayLike<number>): Float64Array {
+	const out = new Float64Array(freqHz.length);
+	for (let i = 0; i < freqHz.length; i++) out[i] = freqHz[i] > 0 && Number.isFinite(freqHz[i]) ? x(freqHz[i]) : NaN;
+	return out;
+}
+
+/**
+ * Path through (freqHz[i], values[i]); samples that are not finite (or off a log axis) are gaps.
+ * The same string d3-shape's `line().digits(1)` builds (coordinates rounded to a tenth of a
+ * pixel, a new `M` after each gap, a lone point closed with `Z`), written as one loop over
+ * precomputed x pixels: a drag frame redraws some twenty of these, and d3's generic per-point
+ * callbacks and log-scale calls were most of that frame's script time.
+ */
 export function tracePath(
 	x: ScaleLogarithmic<number, number>,
 	y: ScaleLinear<number, number>,
 	freqHz: ArrayLike<number>,
-	values: ArrayLike<number>
+	values: ArrayLike<number>,
+	xs: ArrayLike<number> = pixelsX(x, freqHz)
 ): string {
 	const n = Math.min(freqHz.length, values.length);
-	const idx = Array.from({ length: n }, (_, i) => i);
-	// A tenth of a pixel is finer than any screen; shorter strings build and parse faster.
-	const path = line<number>()
-		.digits(1)
-		.defined((i) => freqHz[i] > 0 && Number.isFinite(freqHz[i]) && Number.isFinite(values[i]))
-		.x((i) => x(freqHz[i]))
-		.y((i) => y(values[i]));
-	return path(idx) ?? '';
+	let d = '';
+	let run = 0;
+	for (let i = 0; i < n; i++) {
+		const v = values[i];
+		const px = xs[i];
+		if (!Number.isFinite(px) || !Number.isFinite(v)) {
+			if (run === 1) d += 'Z';
+			run = 0;
+			continue;
+		}
+		d += (run === 0 ? 'M' : 'L') + Math.round(px * 10) / 10 + ',' + Math.round(y(v) * 10) / 10;
+		run++;
+	}
+	if (run === 1) d += 'Z';
+	return d;
 }
 
 export interface LogTicks {
