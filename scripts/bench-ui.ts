@@ -4,7 +4,8 @@
 // `scripts/seed.ts --scale` exists). A benchmark, never a test: it prints p50/p95 per
 // interaction beside its budget and the ratio p95/budget, with the machine's load average, and
 // writes .tmp/bench-ui.json. Options: --no-build (reuse build/), --samples N (keystrokes and drag
-// steps per screen, default 40), --rounds N (tab cycles, board→rail clicks; default 10).
+// steps per screen, default 40), --rounds N (tab cycles, board→rail clicks; default 10),
+// --only a,b (sections: sandbox, rails, board, server, scale; default all).
 //
 // Method (in the page, installed before any page script runs):
 //  - The input is real: Playwright sends it through CDP (Input.dispatchKeyEvent / MouseEvent), so
@@ -43,6 +44,9 @@ const option = (name: string, fallback: number) => {
 };
 const SAMPLES = option('--samples', 40);
 const ROUNDS = option('--rounds', 10);
+const onlyAt = argv.indexOf('--only');
+const ONLY = onlyAt >= 0 ? new Set(argv[onlyAt + 1].split(',')) : null;
+const section = (name: 'sandbox' | 'rails' | 'board' | 'server' | 'scale') => !ONLY || ONLY.has(name);
 const DB = 'loopwright_bench';
 const BUILD_DIR = '.tmp/bench-ui-build';
 const SECRET = 'bench-ui-secret-for-local-runs-only-0123456789';
@@ -241,9 +245,9 @@ async function drag(page: Page, name: string) {
 	const fromEvent: number[] = [];
 	let missed = 0;
 	for (let i = 0; i < SAMPLES; i++) {
-		// 0, 4, 8, … 36 px right and back: the corner moves a fraction of a decade each step.
-		const k = i % 20;
-		const dx = 4 * (k < 10 ? k + 1 : 19 - k);
+		// A few pixels either side of the start, never twice the same place in a row and never far
+		// enough to pass a neighbouring corner (which would only show a note, not a new plot).
+		const dx = (i % 2 === 0 ? 1 : -1) * (2 + (i % 5));
 		await arm(page, { root: PLOT_ROOT, event: 'pointermove' });
 		await page.mouse.move(x0 + dx, y);
 		const s = await result(page, 5000);
@@ -419,11 +423,13 @@ async function main() {
 		await context.addInitScript({ content: `var __name = (f) => f; (${instrument.toString()})();` });
 		const page = await context.newPage();
 
-		log('sandbox');
-		await openDesign(page, '/try');
-		await keystrokes(page, 'sandbox');
-		await drag(page, 'sandbox');
-		await tabSwitches(page, 'sandbox');
+		if (section('sandbox')) {
+			log('sandbox');
+			await openDesign(page, '/try');
+			await keystrokes(page, 'sandbox');
+			await drag(page, 'sandbox');
+			await tabSwitches(page, 'sandbox');
+		}
 
 		log('signing in as the demo owner');
 		await page.goto('/sign-in');
@@ -437,10 +443,12 @@ async function main() {
 		const railUrl = (r: Ids['rails'][number]) => `/w/${demo.workspaceId}/projects/${r.projectId}/rails/${r.id}`;
 		const buck = demo.rails.find((r) => r.name === '5V0_MAIN') ?? demo.rails.find((r) => r.topology === 'buck')!;
 		const boost = demo.rails.find((r) => r.name === '5V0_SENSOR') ?? demo.rails.find((r) => r.topology === 'boost')!;
-		for (const [rail, label] of [
-			[buck, `buck rail ${buck.name}`],
-			[boost, `boost rail ${boost.name}`]
-		] as const) {
+		for (const [rail, label] of section('rails')
+			? ([
+					[buck, `buck rail ${buck.name}`],
+					[boost, `boost rail ${boost.name}`]
+				] as const)
+			: []) {
 			log(label);
 			await openDesign(page, railUrl(rail));
 			await keystrokes(page, label);
@@ -448,21 +456,25 @@ async function main() {
 			if (rail === buck) await tabSwitches(page, label);
 		}
 
-		log('board → rail');
-		await boardToRail(page, `/w/${demo.workspaceId}/projects/${demo.boards[0].id}`, 'demo board');
+		if (section('board')) {
+			log('board → rail');
+			await boardToRail(page, `/w/${demo.workspaceId}/projects/${demo.boards[0].id}`, 'demo board');
+		}
 
 		const cookie = await cookieHeader(context);
 		// The loop waiting for review in the demo (1V0_CORE), else the buck rail's latest.
 		const core = demo.rails.find((r) => r.name === '1V0_CORE');
 		const reviewLoop = (core && (await latestLoopId(page, core.id))) ?? (await latestLoopId(page, buck.id));
 		if (!reviewLoop) throw new Error('no loop revision to review');
-		log('review page and exports');
-		await serverRow('review page, server first byte (demo)', `${server.origin}/w/${demo.workspaceId}/reviews/${reviewLoop}`, cookie, false, BUDGET.reviewFirstByte);
-		await serverRow('PNG export (demo)', `${server.origin}/api/v1/loops/${reviewLoop}/exports/png`, cookie, true, BUDGET.exportFile, 10);
-		await serverRow('PDF export (demo)', `${server.origin}/api/v1/loops/${reviewLoop}/exports/pdf`, cookie, true, BUDGET.exportFile, 10);
+		if (section('server')) log('review page and exports');
+		if (section('server')) await serverRow('review page, server first byte (demo)', `${server.origin}/w/${demo.workspaceId}/reviews/${reviewLoop}`, cookie, false, BUDGET.reviewFirstByte);
+		if (section('server')) await serverRow('PNG export (demo)', `${server.origin}/api/v1/loops/${reviewLoop}/exports/png`, cookie, true, BUDGET.exportFile, 10);
+		if (section('server')) await serverRow('PDF export (demo)', `${server.origin}/api/v1/loops/${reviewLoop}/exports/pdf`, cookie, true, BUDGET.exportFile, 10);
 
-		const big = scale ? await workspaceIds(page, 'Scale test') : null;
-		if (!scale) {
+		const big = scale && section('scale') ? await workspaceIds(page, 'Scale test') : null;
+		if (!section('scale')) {
+			// not asked for
+		} else if (!scale) {
 			for (const name of ['board → rail (Scale test, 200 rails)', 'review page first byte (Scale test)']) skipped.push({ name, why: 'scripts/seed.ts has no --scale option yet (issue #15 part 2), so there is no 200-rail workspace to measure' });
 		} else if (!big) {
 			skipped.push({ name: 'Scale test rows', why: 'seed.ts --scale ran but no workspace named "Scale test" is visible to the demo owner' });

@@ -111,3 +111,36 @@ test('one drag frame: recompute of 9 corners × 400 points plus redraw (printed,
 			`p95 ${q(total, 0.95).toFixed(2)} ms, max ${total[total.length - 1].toFixed(2)} ms over ${frames.length} frames (budget 16.7 ms at 60 Hz)`
 	);
 });
+
+test('typed key by key, the deferred sections settle on the same figures as the value entered at once', async ({ page }) => {
+	// The plot follows each keystroke; the verdict, corners and closed loop wait until the input
+	// settles. After settling they must show the final value's figures, not an intermediate one's
+	// ("2" alone is 2 H, a very different loop).
+	const figures = async () => {
+		// The verdict worker runs every tolerance corner: allow a loaded machine its time.
+		await expect(page.getByTestId('verdict')).toHaveAttribute('data-state', 'final', { timeout: 30_000 });
+		const verdict = await page.getByTestId('verdict-pm-value').textContent();
+		await page.getByTestId('tab-closed').click();
+		const sensitivity = await page.getByTestId('sensitivity-peak').textContent();
+		const zout = await page.getByTestId('zout-peak').textContent();
+		await page.getByTestId('tab-corners').click();
+		const worst = await page.getByTestId('worst-pm').textContent();
+		await page.getByTestId('tab-loop').click();
+		const chip = await page.getByTestId('fc-chip').textContent();
+		return { verdict, sensitivity, zout, worst, chip };
+	};
+	await openSandbox(page);
+	await page.getByTestId('field-l').fill('');
+	await page.getByTestId('field-l').pressSequentially('2.2u', { delay: 30 });
+	const typed = await figures();
+
+	await openSandbox(page);
+	await page.getByTestId('field-l').fill('2.2u');
+	const entered = await figures();
+	expect(typed).toEqual(entered);
+	// And they are the new design's, not the demo's 1 µH.
+	await openSandbox(page);
+	const demo = await figures();
+	expect(entered.chip).not.toBe(demo.chip);
+	expect(entered.sensitivity).not.toBe(demo.sensitivity);
+});

@@ -5,7 +5,7 @@ import fc from 'fast-check';
 import { line } from 'd3-shape';
 import { scaleLinear, scaleLog } from 'd3-scale';
 import { describe, expect, it } from 'vitest';
-import { pixelsX, tracePath } from '$lib/components/plot/geometry';
+import { pixelsX, tenths, tracePath } from '$lib/components/plot/geometry';
 
 function d3Path(x: (f: number) => number, y: (v: number) => number, freqHz: number[], values: number[]) {
 	const idx = Array.from({ length: Math.min(freqHz.length, values.length) }, (_, i) => i);
@@ -47,5 +47,16 @@ describe('tracePath', () => {
 		const freqHz = [10, 31.6, 100, 316, 1000];
 		const values = [20, 10, 0, -10, -20];
 		expect(tracePath(x, y, freqHz, values, pixelsX(x, freqHz))).toBe(tracePath(x, y, freqHz, values));
+	});
+});
+
+describe('tenths', () => {
+	it('is String(Math.round(v * 10) / 10), the rounding d3-path applies with digits(1) [published: d3-path pathRound]', () => {
+		fc.assert(
+			fc.property(fc.double({ min: -1e7, max: 1e7, noNaN: true }), (v) => {
+				expect(tenths(v)).toBe(String(Math.round(v * 10) / 10));
+			})
+		);
+		for (const v of [0, -0, -0.04, -0.05, -0.25, 0.05, 0.95, 9.96, -123.45, 1e6 + 0.06]) expect(tenths(v)).toBe(String(Math.round(v * 10) / 10));
 	});
 });
