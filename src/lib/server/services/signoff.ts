@@ -8,6 +8,7 @@ import { and, asc, eq, inArray } from 'drizzle-orm';
 import type { Database } from '../db';
 import { auditLog, project, user } from '../db/schema';
 import { buildSignoffPdf, type ReviewEntry } from '../exports';
+import { cachedExport, exportKey } from '../exports/cache';
 import * as loops from './loops';
 import * as rails from './rails';
 import * as reviews from './reviews';
@@ -71,8 +72,8 @@ export async function trail(db: Database, loop: Loop): Promise<(ReviewEntry & { 
 	});
 }
 
-/** Everything the review page shows: the stored verdict and what the engineer saw (drawn in the analysis pool, for `owner`). */
-export async function reviewView(db: Database, loop: Loop, owner: string) {
+/** What the review page shows from the database alone: the stored verdict, spec, comments, trail and diffs (no analysis). */
+export async function reviewRecord(db: Database, loop: Loop) {
 	const { rail, board } = await context(db, loop);
 	const [comments, requests, history, previous, approved] = await Promise.all([
 		loops.comments(db, loop.id),
@@ -97,13 +98,17 @@ export async function reviewView(db: Database, loop: Loop, owner: string) {
 		trail: history,
 		diffs: { previous: diffAgainst(previous, loop), approved: diffAgainst(approved, loop) }
 	};
-	const detail = await analyses.stored(owner, { design: loop.design, verification: v, steps: true });
-	if ('error' in detail) return { ...common, analysisError: detail.error, plot: null, operatingPoint: null, network: null, closedLoop: null, steps: null };
+	return common;
+}
+
+/** What the engineer saw, drawn again from the stored design in the analysis pool (for `owner`): plot, operating point, closed loop, steps. */
+export async function reviewDrawing(loop: Loop, owner: string) {
+	const detail = await analyses.stored(owner, { design: loop.design, verification: loop.verification, steps: true });
+	if ('error' in detail) return { analysisError: detail.error, plot: null, operatingPoint: null, network: null, closedLoop: null, steps: null };
 	const r = detail.response;
 	const m = r.metrics;
 	const traces = detail.cornerTraces;
 	return {
-		...common,
 		analysisError: null,
 		plot: {
 			freqHz: r.response.freqHz,
@@ -120,18 +125,31 @@ export async function reviewView(db: Database, loop: Loop, owner: string) {
 	};
 }
 
+/** Everything the review page shows (the report API answers it whole). */
+export async function reviewView(db: Database, loop: Loop, owner: string) {
+	const [record, drawing] = await Promise.all([reviewRecord(db, loop), reviewDrawing(loop, owner)]);
+	return { ...record, ...drawing };
+}
+
 /** The sign-off report of a revision as a PDF, from its stored verdict (drawn in the analysis pool, for `owner`). */
 export async function reportPdf(db: Database, loop: Loop, owner: string): Promise<Buffer | { error: { code: string; message: string; fields?: Record<string, string> } }> {
-	const { rail, board } = await context(db, loop);
-	const detail = await analyses.stored(owner, { design: loop.design, verification: loop.verification });
-	if ('error' in detail) return detail;
-	return buildSignoffPdf({
-		rail: { name: rail?.name ?? 'rail', board: board?.name, notes: rail?.notes ?? undefined },
-		revision: { label: `r${loop.revision}`, author: loop.authorName ?? undefined, createdAt: loop.createdAt, status: loop.status },
-		document: detail.document,
-		response: detail.response,
-		verification: loop.verification,
-		cornerTraces: detail.cornerTraces,
-		review: (await trail(db, loop)).map(({ at, who, action, note, freqHz }) => ({ at, who, action, note, freqHz }))
+	const [{ rail, board }, history] = await Promise.all([context(db, loop), trail(db, loop)]);
+	const railText = { name: rail?.name ?? 'rail', board: board?.name, notes: rail?.notes ?? undefined };
+	const revision = { label: `r${loop.revision}`, author: loop.authorName ?? undefined, createdAt: loop.createdAt, status: loop.status };
+	const review = history.map(({ at, who, action, note, freqHz }) => ({ at, who, action, note, freqHz }));
+	// Everything the report prints besides the (immutable) design: a repeated download is the kept file.
+	const key = exportKey({ pdf: loop.id, railText, revision, verification: loop.verification, review });
+	return cachedExport<Buffer, { error: { code: string; message: string; fields?: Record<string, string> } }>(key, async () => {
+		const detail = await analyses.stored(owner, { design: loop.design, verification: loop.verification });
+		if ('error' in detail) return detail;
+		return buildSignoffPdf({
+			rail: railText,
+			revision,
+			document: detail.document,
+			response: detail.response,
+			verification: loop.verification,
+			cornerTraces: detail.cornerTraces,
+			review
+		});
 	});
 }

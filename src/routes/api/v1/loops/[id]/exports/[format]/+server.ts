@@ -14,6 +14,7 @@ import { exportSignedOffJson, networkRoots, plotFromResponse, renderBodePng, ren
 import * as loops from '$lib/server/services/loops';
 import * as signoff from '$lib/server/services/signoff';
 import * as analyses from '$lib/server/analysis-pool';
+import { cachedExport, exportKey } from '$lib/server/exports/cache';
 import { z } from 'zod';
 import type { RequestHandler } from './$types';
 
@@ -75,9 +76,16 @@ export const GET: RequestHandler = endpoint(async (event) => {
 		if (!out.ok) throw new ApiError(422, out.error.code, out.error.message, out.error.fields);
 		return file(out.json, 'json', base, false);
 	}
+	if (format === 'svg' || format === 'png') {
+		const v = row.verification;
+		// The plot shows the immutable design, the corners that set the stored verdict and the title: a repeat is the kept file.
+		const key = exportKey({ plot: row.id, format, q, base, verdict: v ? { engineVersion: v.engineVersion, worst: v.worst } : null });
+		const body = await cachedExport(key, () => drawPlot(owner, row, format, q, base));
+		return file(body, format, base, inline);
+	}
 	const detail = await analyses.stored(owner, {
 		design: row.design,
-		verification: inline ? row.verification : null,
+		verification: null,
 		netlist: format === 'spice' ? { batch: q.batch === '1', title: `Loopwright ${base}` } : undefined
 	});
 	if ('error' in detail) throw new ApiError(422, detail.error.code, `the stored design cannot be analysed: ${detail.error.message}`, detail.error.fields);
@@ -86,6 +94,16 @@ export const GET: RequestHandler = endpoint(async (event) => {
 	if (format === 'spice') {
 		return file(detail.netlist ?? '', 'spice', base, false);
 	}
+	throw new ApiError(404, 'not-found', `no export called ${format}`);
+});
+
+type Query = z.infer<typeof querySchema>;
+
+/** The Bode plot of a stored revision as SVG or PNG, drawn from an analysis in the pool (for `owner`). */
+async function drawPlot(owner: string, row: NonNullable<Awaited<ReturnType<typeof loops.get>>>, format: 'svg' | 'png', q: Query, base: string): Promise<string | Buffer> {
+	const detail = await analyses.stored(owner, { design: row.design, verification: row.verification });
+	if ('error' in detail) throw new ApiError(422, detail.error.code, `the stored design cannot be analysed: ${detail.error.message}`, detail.error.fields);
+	const nominal = detail.response;
 	const fsw = detail.document.plant.fsw;
 	const corners = detail.cornerTraces;
 	let plot;
@@ -97,6 +115,6 @@ export const GET: RequestHandler = endpoint(async (event) => {
 		plot = plotFromResponse(nominal, { fswHz: fsw, cornerLoops: q.corners === '1' ? corners : [], title: `${base} loop gain` });
 	}
 	const options = { width: q.width ?? 900, theme: q.theme ?? 'light', roots: networkRoots(nominal) } as const;
-	if (format === 'svg') return file(renderBodeSvg(plot, options), 'svg', base, inline);
-	return file(renderBodePng(plot, { ...options, pixelWidth: (q.width ?? 900) * 2 }), 'png', base, inline);
-});
+	if (format === 'svg') return renderBodeSvg(plot, options);
+	return renderBodePng(plot, { ...options, pixelWidth: (q.width ?? 900) * 2 });
+}
