@@ -7,7 +7,7 @@ import { expect, test, type Page } from '@playwright/test';
 async function openSandbox(page: Page) {
 	await page.setViewportSize({ width: 1280, height: 800 });
 	await page.goto('/try');
-	await expect(page.getByTestId('fc-chip')).toBeVisible();
+	await expect(page.getByTestId('fc-chip')).toBeVisible({ timeout: 20_000 });
 }
 
 test('a pole/zero marker is a slider: plain ArrowUp/ArrowDown move the value shown', async ({ page }) => {
