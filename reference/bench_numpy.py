@@ -2,7 +2,7 @@
 """The loop analysis an engineer would write in numpy, timed on the designs scripts/bench.ts makes.
 
 Per design: closed-form CCM averaged Gvd of the buck or boost with one capacitor branch
-(domain formulas §1.3 and §2.3; [published: Erickson & Maksimovic, Fundamentals of Power
+(docs/formulas.md §1.3 and §2.3; [published: Erickson & Maksimovic, Fundamentals of Power
 Electronics, 2nd ed., ch. 8, from memory]), Gc = Zf/Zi from the op-amp parts, a dense 500-point
 log sweep, numpy.unwrap for the phase, and a sign-change search with linear interpolation (in
 log f) for the gain crossover and its phase margin.

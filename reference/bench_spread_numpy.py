@@ -3,7 +3,7 @@
 
 Input: the part values of every sample, exported from the engine's own sampler, so both sides analyse
 the same designs. Per sample the loop gain T = Gc * Fm * Gvd * exp(-s*Td) is written out from the
-averaged CCM models with one output-capacitor branch (domain formulas: buck §1.1-1.3, boost §2.1-2.3,
+averaged CCM models with one output-capacitor branch (docs/formulas.md: buck §1.1-1.3, boost §2.1-2.3,
 switch resistance lumped into r §1.4/§2.4 with equal switches; [published: Erickson & Maksimovic,
 Fundamentals of Power Electronics, 2nd ed., ch. 7-8, from memory]), the PWM gain Fm = 1/VM with
 optional feed-forward (§3), and Gc = Zf/Zi of the op-amp Type I/II/III networks (§5.1-5.3). It is

@@ -1,6 +1,6 @@
 #!/usr/bin/env python3
 """
-Independent reference for the governing-margin rule (issue 14).
+Independent reference for the governing-margin rule (DEVELOPERS.md, "Verdict rules").
 
 Builds random loop gains with several gain crossings, conditional phase boosts, lightly damped
 resonances, RHP zeros and delays, evaluates T(jw) on a dense log grid with plain numpy complex

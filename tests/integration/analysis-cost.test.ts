@@ -1,4 +1,4 @@
-// Bounded cost of every analysis (issue 13, items 1 and 2), against the real app: the attacks
+// Bounded cost of every analysis (README.md, "Limits"), against the real app: the attacks
 // of the issue answer at once with field errors, the costliest accepted documents run in the
 // analysis pool's worker threads while the server keeps answering everyone else, and one user
 // gets at most two analyses in flight. These assert what the server does, never how fast.

@@ -2,7 +2,7 @@
  * Loop margins read from measured points: gain crossovers where the dB curve changes sign, phase crossovers where the
  * unwrapped phase passes −180° + k·360°, each located by linear interpolation on log-frequency between the two
  * bracketing points (magnitude in dB and phase in degrees are both interpolated linearly in log f).
- * Definitions as the engine's (formulas §7.1): PM = 180° + ∠T reduced to (−180°, 180°], GM = −|T|dB at ∠T = −180°;
+ * Definitions as the engine's (docs/formulas.md §7.1): PM = 180° + ∠T reduced to (−180°, 180°], GM = −|T|dB at ∠T = −180°;
  * the governing PM and GM are chosen by the engine's one rule (smallest |PM|, smallest |GM dB|: analysis/margins.ts).
  */
 import { governingCrossover, governingPhaseCrossover } from '../engine/analysis/margins';

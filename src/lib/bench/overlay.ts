@@ -1,7 +1,7 @@
 /**
  * Everything the overlay of bench data on the model shows: the measured margins (for a loop-gain file) and the
  * model-versus-measurement deviation over the band both cover, clipped to fsw/2 where the averaged model stops
- * (formulas §0). The model is any evaluator; `sampledEvaluator` turns an analysis response's arrays into one.
+ * (docs/formulas.md §0). The model is any evaluator; `sampledEvaluator` turns an analysis response's arrays into one.
  */
 import { benchDeviation, type DeviationResult } from './deviation';
 import { benchMetrics } from './metrics';

@@ -2,7 +2,7 @@
  * Margins read off a sampled loop response (the drag preview's quick answer; on release the
  * engine's full analysis replaces it). Crossings are bracketed between samples and placed by
  * linear interpolation in log f; PM = 180° + ∠T at |T| = 1, reduced to (−180°, 180°]; GM =
- * −|T| dB where the unwrapped phase crosses −180° + k·360° (domain sheet §7.1). Which crossing
+ * −|T| dB where the unwrapped phase crosses −180° + k·360° (docs/formulas.md §7.1). Which crossing
  * is the headline is the engine's one rule (analysis/margins.ts: smallest |PM|, smallest |GM|,
  * a negative GM included): this preview once kept only positive GMs and showed "no −180°
  * crossing" beside an unstable verdict whose loop crossed −180° at +19 dB.

@@ -1,4 +1,4 @@
-// The account-takeover paths of issue 13, tried as an attacker would on the served app:
+// The account-takeover paths (README.md, "Deployment notes"), tried as an attacker would on the served app:
 // reading another user's reset or invitation link on the captured-mail page, listing pending
 // invitations as a non-owner, signing up with an invited address and accepting it without
 // owning the mailbox, being sent off-site by a crafted redirectTo, flooding invitation e-mail,

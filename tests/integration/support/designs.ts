@@ -25,7 +25,7 @@ export function buckDesign(overrides: { feedForward?: boolean; crossoverHz?: num
 }
 
 /**
- * The costliest document the contract accepts (issue 13's abuse runs): buckDesign() with every
+ * The costliest document the contract accepts (README.md, "Limits"): buckDesign() with every
  * field that scales the work at its ceiling (contract/designSchema.ts, corners/schema.ts,
  * closedloop/sections.ts): the longest delay (4 switching periods), the widest and densest sweep
  * (5000 points to 10 × fsw), 2¹² = 4096 exhaustive tolerance corners (12 toleranced parts, one

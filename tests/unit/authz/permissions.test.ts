@@ -1,10 +1,10 @@
-// The permission matrix written out by hand from issue 5's role descriptions, checked
+// The permission matrix written out by hand from the role descriptions (README.md, "The demo"), checked
 // against the table the server uses, plus the rejection of better-auth's built-in role names.
 import { describe, expect, it } from 'vitest';
 import { ACTIONS, can, isRole, matrixRows, PERMISSIONS, ROLES, type Action } from '../../../src/lib/authz';
 import { roles as betterAuthRoles } from '../../../src/lib/server/authz/better-auth-roles';
 
-// [project rule, issue 5] owner: everything; engineer: create/edit projects, rails, loops,
+// [project rule, README.md "The demo"] owner: everything; engineer: create/edit projects, rails, loops,
 // templates, bench data, request review; reviewer: read, comment, approve or request changes;
 // viewer: read only. Our choices inside that: deleting a whole board is for owners; the
 // audit trail is readable by every member.

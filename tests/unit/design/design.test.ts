@@ -39,7 +39,7 @@ describe('analyzeForm', () => {
 		for (const c of a.corners) expect(c.detail!.response.response.loop.magDb).toHaveLength(400);
 	});
 	it('meets the K-factor target at the nominal corner before rounding', () => {
-		// K-factor placement makes PM at fc equal the target for the ideal network (domain sheet §6.2).
+		// K-factor placement makes PM at fc equal the target for the ideal network (docs/formulas.md §6.2).
 		const ideal = a.nominal.compensator.achieved.ideal;
 		expect(ideal.crossoverHz! / 60e3).toBeCloseTo(1, 3);
 		expect(ideal.phaseMarginDeg!).toBeCloseTo(55, 1);

@@ -1,6 +1,6 @@
 /**
  * The exported SPICE netlist, run in ngspice, against the engine's loop gain: within 0.05 dB and 0.5° up to fsw/2
- * [issue 8 item 4; ngspice is the outside tool]. Designs: the eight reference cases (buck and boost, banks with ESR
+ * [ngspice is the outside tool]. Designs: the eight reference cases (buck and boost, banks with ESR
  * and ESL, rdsOn, feed-forward with delay, finite-GBW op-amp) plus Type I, Type II, OTA (with and without Ro), a
  * Vout = Vref divider and a synthesised (K-factor, rounded) Type III.
  */

@@ -1,7 +1,7 @@
 // Property tests of the whole analysis on random valid designs: no exception, no NaN or
 // Infinity anywhere in the response, and the refined margins agree with a brute-force dense
 // sweep of T(jω) done here in plain complex arithmetic (not the engine's log-sum evaluation).
-// The dense-sweep method is the textbook one [common practice: formulas §7.5 — bracket the
+// The dense-sweep method is the textbook one [common practice: docs/formulas.md §7.5 — bracket the
 // sign changes on a dense log grid]; phase crossings are found where T crosses the negative
 // real axis, which needs no phase unwrapping at all.
 import fc from 'fast-check';

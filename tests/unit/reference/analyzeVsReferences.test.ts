@@ -3,7 +3,7 @@
  * reference/cases: operating point, response.plant (Gvd), response.compensator, response.loop
  * and the metrics. scipy (averaged state-space, scipy.signal; versions in the JSON) within
  * 0.01 dB / 0.1° over the sweep; ngspice (averaged-switch netlist AC analysis) within
- * 0.05 dB / 0.5° up to fsw/2 (issue 3, items 6(a) and 6(b)).
+ * 0.05 dB / 0.5° up to fsw/2 (reference/README.md, "Tolerances used by the tests").
  */
 import { describe, expect, it } from 'vitest';
 import { analyzeDesign } from '$lib/engine';

@@ -41,7 +41,7 @@ describe('governing margins against the numpy reference (reference/margins)', ()
 		expect(new Set(ref.cases.map((c) => c.family)).size).toBe(5);
 		expect(ref.cases.filter((c) => c.crossovers.length >= 3).length).toBeGreaterThan(10);
 		expect(ref.cases.filter((c) => c.loop.delayS > 0).length).toBeGreaterThan(10);
-		// the smallest signed PM (the rule before issue 14) differs from the smallest |PM| in these
+		// the smallest signed PM (the rule before the governing-margin rule) differs from the smallest |PM| in these
 		const oldRuleDiffers = ref.cases.filter((c) => Math.min(...c.crossovers.map((x) => x.phaseMarginDeg)) !== c.phaseMarginDeg);
 		expect(oldRuleDiffers.length).toBeGreaterThanOrEqual(5);
 	});

@@ -3,7 +3,7 @@
  * scipy (compensator Zf/Zi from complex impedances or node equations, averaged state-space
  * plant, crossings refined with brentq, closed-loop poles from the state matrix) within
  * 0.01 dB / 0.1°, and ngspice (op-amp network around a VCVS or single-pole op-amp, delay as a
- * matched transmission line) within 0.05 dB / 0.5° up to fsw/2 (issue 3, items 6(a) and 6(b)).
+ * matched transmission line) within 0.05 dB / 0.5° up to fsw/2 (reference/README.md, "Tolerances used by the tests").
  * The loop is assembled from the engine's public pieces: powerStage, modulatorTf, compensatorTf,
  * loopMetrics.
  */

@@ -3,7 +3,7 @@
  * (reference/ngspice: B-source averaged switch, R/L/C branches, duty found by .op bisection;
  * [published: Erickson & Maksimović, Fundamentals of Power Electronics, 2nd ed., ch. 7 averaged
  * switch modelling, from memory]; ngspice version in each JSON). Tolerance 0.05 dB / 0.5° up to
- * fsw/2, where the averaged model is trusted (issue 3, 6(b); formulas §0).
+ * fsw/2, where the averaged model is trusted (reference/README.md, "Tolerances used by the tests"; docs/formulas.md §0).
  */
 import { describe, expect, it } from 'vitest';
 import { frequencyResponse, powerStage } from '$lib/engine';

@@ -2,7 +2,7 @@
  * Engine power stages (Gvd, Gvg, Zo, operating point) against the scipy averaged state-space
  * reference in reference/scipy/out: a numerically linearised averaged circuit built without the
  * engine's closed forms [published: Middlebrook & Ćuk, PESC 1976, state-space averaging;
- * computed with scipy.signal, versions in each JSON]. Tolerance 0.01 dB / 0.1° (issue 3, 6(a)).
+ * computed with scipy.signal, versions in each JSON]. Tolerance 0.01 dB / 0.1° (reference/README.md, "Tolerances used by the tests").
  */
 import { describe, expect, it } from 'vitest';
 import { frequencyResponse, powerStage } from '$lib/engine';

@@ -1,4 +1,4 @@
-// scripts/supervise.mjs (issue 13: "if the server dies, the start command brings it back"): a
+// scripts/supervise.mjs (README.md: "npm start runs the server under a supervisor"): a
 // server that exits on its own is started again and the restart is logged; SIGTERM ends both.
 import { spawn } from 'node:child_process';
 import { mkdtemp, readFile, rm, writeFile } from 'node:fs/promises';

@@ -1,4 +1,4 @@
-// The analysis pool (issue 13): analyses run in worker threads with a time and a memory budget
+// The analysis pool (README.md, "Limits"): analyses run in worker threads with a time and a memory budget
 // (422 analysis-too-costly naming the fields to reduce, and the pool recovers), at most
 // `perUser` in flight per user (429), a bounded queue (503), and the request thread stays free
 // while the workers compute. Each pool here gets small, explicit limits.

@@ -1,5 +1,5 @@
 /**
- * The bracketing grid for the loop metrics (formulas §7.5, done with proofs instead of density):
+ * The bracketing grid for the loop metrics (docs/formulas.md §7.5, done with proofs instead of density):
  * start from the range ends and the loop's second-order corners, then bisect (in log ω) any
  * interval that the exact slope bounds of slopeBounds.ts cannot settle. An interval is settled
  * when, on it, ln|T| is monotone or provably keeps its sign, the unwrapped phase is monotone or

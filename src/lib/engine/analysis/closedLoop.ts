@@ -1,5 +1,5 @@
 /**
- * Closed-loop stability from the closed-loop poles, the roots of den_T + num_T (formulas §7.3),
+ * Closed-loop stability from the closed-loop poles, the roots of den_T + num_T (docs/formulas.md §7.3),
  * never from the margins. Polynomials are built in x = s/k (k = geometric mean of the loop's
  * corner frequencies) for conditioning. A loop delay is replaced by Padé(n,n) with the lowest
  * n in 2…8 whose phase error stays below 0.5° up to `accurateToHz` (default: the highest

@@ -1,5 +1,5 @@
 /**
- * Loop metrics (formulas §7): every gain crossover (|T| = 1) and phase crossover
+ * Loop metrics (docs/formulas.md §7): every gain crossover (|T| = 1) and phase crossover
  * (∠T = −180° + k·360°) in the analysed range, each bracketed by the proven grid of
  * analysisGrid.ts and refined by bracketed Newton on the analytic ln|T| or unwrapped phase in
  * log f (exact slopes); PM per crossing and GM per phase crossing, the governing (headline) PM and

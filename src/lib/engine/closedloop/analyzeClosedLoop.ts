@@ -2,7 +2,7 @@
  * The closed-loop section of the analysis response: closed-loop frequency responses (exact
  * delay), closed-loop poles and stability, load-step and reference-step responses from the
  * linear closed-loop model (delay as Padé), and the load-step rule of thumb beside them.
- * Formulas §8.1–8.3; conventions §0 (T = Gc·Fm·Gvd, the inverting sign left out of Gc).
+ * Formulas: docs/formulas.md §8.1–8.3; conventions §0 (T = Gc·Fm·Gvd, the inverting sign left out of Gc).
  */
 import type { EngineWarning } from '../errors';
 import { bankImpedance, equivalentBranches } from '../plants/capacitorBank';

@@ -1,5 +1,5 @@
 /**
- * Closed-loop transfer functions X/(1 + T) in factored form (formulas §8.1, §8.2): with
+ * Closed-loop transfer functions X/(1 + T) in factored form (docs/formulas.md §8.1, §8.2): with
  * T = nT/dT, X/(1 + T) = X·dT/(dT + nT). X's poles cancel against the matching poles of dT
  * exactly (the plant's Δ is shared by Gvd, Gvg and Zo), so Zo,cl = Zo·dc/(dc·Δ + Fm·nc·ng).
  * The characteristic polynomial dT + nT is built in x = s/k for conditioning and factored

@@ -1,6 +1,6 @@
 /**
  * Closed-loop frequency responses evaluated directly as X(jω)/(1 + T(jω)) with the exact delay
- * (formulas §8.1, §3): Zo,cl = Zo/(1 + T), Gvg,cl = Gvg/(1 + T), reference to output
+ * (docs/formulas.md §8.1, §3): Zo,cl = Zo/(1 + T), Gvg,cl = Gvg/(1 + T), reference to output
  * (1/H)·T/(1 + T) (block-diagram form), sensitivity 1/(1 + T), complementary T/(1 + T).
  * Phase unwrapped without numerical unwrapping: arg(1 + T) = ∠T + arg(1 + 1/T) where |T| ≥ 1
  * (Re(1 + 1/T) ≥ 0 there), and the principal arg(1 + T) plus 360°·k where |T| < 1, with k fixed

@@ -1,4 +1,4 @@
-// Plain-words checks on a compensated loop [common practice, domain sheet §6.4, §7.2, §5.6]: crossover against
+// Plain-words checks on a compensated loop [common practice, docs/formulas.md §6.4, §7.2, §5.6]: crossover against
 // fsw/5, the RHP-zero rule (crossoverLimit.ts) and the LC resonance; network poles above fsw/2 (outside the averaged model);
 // conditional stability; target missed; op-amp loop gain below 10× the noise gain between fc and the top pole.
 import { fmtHz } from '../synthesis/networks';

@@ -2,7 +2,7 @@
  * The highest crossover a placement aims for on its own (a new rail's starter, a template without
  * a crossover): the verdict's own fsw limit (targets.maxCrossoverFraction · fsw) and, for a boost,
  * a fifth of its lowest RHP zero, where the RHP zero's phase lag is still small [common practice,
- * domain sheet §6.4]. One rule for the starter, the crossover warning and the verdict.
+ * docs/formulas.md §6.4]. One rule for the starter, the crossover warning and the verdict.
  */
 import { DEFAULT_MARGIN_TARGETS } from '../contract/targetsSchema';
 import type { EngineWarning } from '../errors';

@@ -1,7 +1,7 @@
 // Public entry of compensator design: resolveCompensator(doc, ctx) turns the design document's `compensator`
 // section into ideal and rounded parts, their corners, the Gc to build (tf/ factored form) and plain-words warnings,
 // with the achieved crossover and phase margin computed from the loop response, never assumed.
-// Formulas: domain sheet §5 (networks), §6 (placement), §7 (margins), §10 (E-series).
+// Formulas: docs/formulas.md §5 (networks), §6 (placement), §7 (margins), §10 (E-series).
 import type { ZodError } from 'zod';
 import { multiply, rootFreqHz, type FactoredTf } from '../tf';
 import { isInSeries } from '../synthesis/eSeries';

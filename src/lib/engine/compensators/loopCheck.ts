@@ -1,6 +1,6 @@
 // The compensator's view of a loop: every gain crossover with its phase margin, the governing one, conditional
 // stability (a −180° crossing while |T| > 1) and the closed-loop verdict, all from the engine's margins module
-// (analysis/margins.ts, domain sheet §7.1–§7.5), so placement and the analysis response agree exactly.
+// (analysis/margins.ts, docs/formulas.md §7.1–§7.5), so placement and the analysis response agree exactly.
 import { loopMetrics, type LoopMetrics, type MarginOptions } from '../analysis/margins';
 import type { FactoredTf } from '../tf';
 

@@ -1,4 +1,4 @@
-// Placement of the compensator's corners for a target: K-factor (Venable 1983, domain sheet §6.1–§6.2), plant
+// Placement of the compensator's corners for a target: K-factor (Venable 1983, docs/formulas.md §6.1–§6.2), plant
 // features (§6.4 common practice: zeros relative to f0, poles at the ESR zero and fsw/2, gain for |T(fc)| = 1) and
 // manual (user corners, gain from the crossover or a mid-band gain). Output is a NetworkShape (synthesis/networks)
 // plus plain-words notes; the ideal K-factor shape hits fc and PM exactly (§6.2 exactness).

@@ -1,4 +1,4 @@
-// Placement that survives its own verdict (issue 14). The K-factor formulas place an ideal
+// Placement that survives its own verdict (DEVELOPERS.md, "Placement" under "Verdict rules"). The K-factor formulas place an ideal
 // network on the nominal plant; two things then move the built loop off the request:
 // - a finite op-amp (A0, GBW) adds lag and lowers the gain near fc, so the built loop crosses
 //   elsewhere with less margin;

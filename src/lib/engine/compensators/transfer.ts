@@ -1,5 +1,5 @@
 // Compensator transfer functions from parts, in the factored form of tf/. Gc is from the output voltage to the
-// amplifier output without the inverting sign (§0). Ideal op-amp: Gc = Zf/Zi (§5.1–§5.3); OTA: Gc = H·gm·Zc (§5.5,
+// amplifier output without the inverting sign (docs/formulas.md §0). Ideal op-amp: Gc = Zf/Zi (§5.1–§5.3); OTA: Gc = H·gm·Zc (§5.5,
 // optionally ∥ Ro); finite single-pole op-amp: Gc = Gc_ideal/(1 + NG/A), NG = 1 + Zf/(Zi ∥ Rb) (§5.6), expanded to
 // ascending polynomials and factored again with the engine's root finder.
 import { polyAdd, polyEvalComplex, polyMul, polyScale, type Poly } from '../math/polynomial';

@@ -4,7 +4,7 @@
  * combinations of the tolerances are run when their count fits `maxCorners`; otherwise each part
  * alone at ±tol, plus, per metric, the combination whose one-at-a-time effects all worsen that
  * metric (a linearised worst case, labelled as such). Margins from analysis/margins (the
- * governing-margin rule, formulas §7); worst fc (lowest and highest), PM and GM with the corner
+ * governing-margin rule, docs/formulas.md §7); worst fc (lowest and highest), PM and GM with the corner
  * that sets each; the warnings raised at each corner; the loop traces of the worst corners.
  */
 import { OUTSIDE_MODEL_CODE } from '../plants/powerStage';

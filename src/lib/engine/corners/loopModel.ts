@@ -2,7 +2,7 @@
  * A loop reduced to the values that corners and Monte Carlo vary: the power stage input, the
  * modulator, the compensator parts as built, the op-amp model and the analysis range. Built
  * from analyze.ts's detailed result, so placement and rounding stay analyze's; rebuilt per
- * variant with powerStage + compensatorTf + modulatorTf (T = Gc·Fm·Gvd·e^(−sTd), formulas §0).
+ * variant with powerStage + compensatorTf + modulatorTf (T = Gc·Fm·Gvd·e^(−sTd), docs/formulas.md §0).
  */
 import type { AnalysisDetail } from '../analyze';
 import { compensatorTf, type OpampModel } from '../compensators/transfer';

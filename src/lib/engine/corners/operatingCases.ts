@@ -1,5 +1,5 @@
 /**
- * The one corner set (issue 14): the operating cases Vin {min, nom, max} × Iout {min, nom, max}
+ * The one corner set (DEVELOPERS.md, "Verdict rules"): the operating cases Vin {min, nom, max} × Iout {min, nom, max}
  * × temperature {min, 25 °C, max} (only when the document gives a temperature range) with duplicates removed and the nominal first, each later combined with the tolerance signs
  * (corners.ts). Every screen, export and count uses this list, and labels a corner with
  * `cornerLabel`. With feed-forward the ramp follows Vin; that scaling lives in one place,

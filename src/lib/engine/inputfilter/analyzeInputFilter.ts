@@ -1,5 +1,5 @@
 /**
- * Input-filter check (formulas §9): filter output impedance Zs against the converter's ZN and
+ * Input-filter check (docs/formulas.md §9): filter output impedance Zs against the converter's ZN and
  * ZD across frequency (Middlebrook's criterion |Zs| ≪ |ZN|, |ZD|, judged with a required margin
  * in dB [common practice: 6 dB]), the loop gain and margins with the filter in place, the
  * optimum damping for the chosen (or usual) ratios n = Cd/Cf, and a plain-words verdict.

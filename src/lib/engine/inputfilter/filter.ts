@@ -1,7 +1,7 @@
 /**
  * Input LC filter with parallel R–C damping (Rd in series with Cd across Cf), its output
  * impedance Zs (source shorted, seen from the converter), Erickson's optimum damping, and the
- * loop gain with the filter in place, T' = T·(1 + Zs/ZN)/(1 + Zs/ZD) (formulas §9)
+ * loop gain with the filter in place, T' = T·(1 + Zs/ZN)/(1 + Zs/ZD) (docs/formulas.md §9)
  * [published: Middlebrook, IEEE IAS 1976; Erickson, "Optimal Single Resistor Damping of Input
  * Filters", IEEE APEC 1999; E&M 2nd ed. §10.4]. Zs = (rf + sLf) ∥ 1/(sCf) ∥ (Rd + 1/(sCd)).
  */
@@ -46,7 +46,7 @@ export function filterOutputImpedance(f: InputFilter): FactoredTf {
 }
 
 /**
- * Optimum damping for Cd = n·Cf with lossless Lf (formulas §9, Erickson 1999):
+ * Optimum damping for Cd = n·Cf with lossless Lf (docs/formulas.md §9, Erickson 1999):
  * Qopt = Rd/R0f = sqrt((2 + n)(4 + 3n)/(2n²(4 + n))), peak |Zs| = R0f·sqrt(2(2 + n))/n.
  */
 export function optimalDamping(lf: number, cf: number, n: number): { rd: number; cd: number; qOpt: number; peakZs: number } {

@@ -1,7 +1,7 @@
 /**
  * zod schema of the design document's optional `inputFilter` section: Lf (with its series
  * resistance), Cf, and the damping branch Rd + Cd across Cf — given as parts, as the optimum
- * for a ratio n = Cd/Cf (formulas §9), or null for none. `marginDb` is the Middlebrook margin
+ * for a ratio n = Cd/Cf (docs/formulas.md §9), or null for none. `marginDb` is the Middlebrook margin
  * required between |Zs| and both |ZN| and |ZD| [common practice: 6 dB].
  */
 import { z } from 'zod';

@@ -1,6 +1,6 @@
 /**
  * Factors an ascending real polynomial with p(0) ≠ 0 into normalised roots (tf/types.ts).
- * Degree ≤ 2 uses the closed form (ω0 = sqrt(a0/a2), Q = sqrt(a0·a2)/a1, formulas §1.2);
+ * Degree ≤ 2 uses the closed form (ω0 = sqrt(a0/a2), Q = sqrt(a0·a2)/a1, docs/formulas.md §1.2);
  * higher degrees use polyRoots (Aberth) and group conjugate pairs.
  */
 import { degree, type Poly } from '../math/polynomial';

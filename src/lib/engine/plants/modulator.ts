@@ -1,6 +1,6 @@
 /**
  * PWM modulator gain Fm = 1/VM, VM = peak-to-peak ramp [published: E&M §7.6; from memory].
- * With input feed-forward the ramp scales with vin: VM = vramp·vin/vinNominal (formulas §3).
+ * With input feed-forward the ramp scales with vin: VM = vramp·vin/vinNominal (docs/formulas.md §3).
  * A loop delay Td multiplies the loop by e^(−s·Td), evaluated exactly.
  */
 import type { FactoredTf } from '../tf/types';

@@ -1,5 +1,5 @@
 /**
- * DC operating point of the VM buck and boost in CCM (formulas §1.1, §2.1, §4):
+ * DC operating point of the VM buck and boost in CCM (docs/formulas.md §1.1, §2.1, §4):
  * buck D = V(R + r)/(Vg·R), η = R/(R + r); boost DC-transformer with series resistance,
  * D' = [Vg·R + sqrt(Vg²R² − 4V²Rr)]/(2VR), η = 1/(1 + r/(D'²R)) [published: E&M ch. 3];
  * ripple [published: E&M ch. 2]; CCM/DCM boundary K > Kcrit [published: E&M ch. 5; from memory].

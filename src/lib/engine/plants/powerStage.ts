@@ -1,8 +1,8 @@
 /**
  * Builds the averaged small-signal model (VM, CCM) of a buck or boost at its operating point:
  * operating point, the five transfer functions and the salient features, plus warnings
- * (DCM: the CCM model does not apply [formulas §4]; a load within 20 % of the CCM boundary).
- * Formulas: §1–§4.
+ * (DCM: the CCM model does not apply [docs/formulas.md §4]; a load within 20 % of the CCM boundary).
+ * Formulas: docs/formulas.md §1–§4.
  */
 import type { EngineWarning } from '../errors';
 import { outputNetwork } from './capacitorBank';

@@ -1,6 +1,6 @@
 /**
  * The exact averaged small-signal transfer functions of the VM CCM buck and boost with a
- * general output-capacitor bank (formulas §1.3, §2.3; bank generalisation derived here):
+ * general output-capacitor bank (docs/formulas.md §1.3, §2.3; bank generalisation derived here):
  *   common denominator Δ = (r + sL)(Q + R·S) + k·R·Q, k = 1 (buck) or D'² (boost);
  *   buck:  Gvd = Vg·R·Q/Δ, Gvg = D·R·Q/Δ, Zo = R(r + sL)Q/Δ, ZD = Δ/(D²(Q + R·S)), ZN = −(R + r)/D²
  *   boost: Gvd = R·IL·(D'²R − r − sL)·Q/Δ, Gvg = D'·R·Q/Δ, Zo = R(r + sL)Q/Δ,

@@ -1,6 +1,6 @@
 /**
  * Types shared by the averaged power-stage models (voltage mode, CCM). SI units throughout;
- * names follow formulas §0: R = vout/iout load, r = dcr + rdsOn series resistance.
+ * names follow docs/formulas.md §0: R = vout/iout load, r = dcr + rdsOn series resistance.
  */
 import type { EngineWarning } from '../errors';
 import type { FactoredTf } from '../tf/types';

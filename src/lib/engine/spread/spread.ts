@@ -4,7 +4,7 @@
  * [common practice: tolerance as a hard limit, 3σ by default]; capacitor c/esr/esl drawn per
  * branch. A seeded generator (prng.ts) makes a run reproduce for any chunking. Pure and
  * chunked (step / cancel / progress) so a Web Worker can drive it; margins from
- * analysis/margins (formulas §7), closed-loop stability by Routh–Hurwitz or the poles (§7.3).
+ * analysis/margins (docs/formulas.md §7), closed-loop stability by Routh–Hurwitz or the poles (§7.3).
  */
 import { buildLoop, type LoopSpec } from '../corners/loopModel';
 import { applyVariation, PART_NAMES, partsPresent, type PartName, type Variation } from '../corners/variation';

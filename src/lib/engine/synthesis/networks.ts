@@ -1,7 +1,7 @@
 // Compensator networks ↔ their corner frequencies (ideal amplifier), both directions, exact.
-// Names as the formula sheet §0: R1 input/divider top, Rb divider bottom, R2+C1 in series in the feedback path,
+// Names as docs/formulas.md §0: R1 input/divider top, Rb divider bottom, R2+C1 in series in the feedback path,
 // C2 across it, R3+C3 in series across R1 (Type III); the OTA drives R2+C1 ∥ C2 to ground with the divider in the loop.
-// Formulas: domain sheet §5.1–§5.3 and §5.5 (standard inverting-amplifier algebra; Venable 1983 layout). Hz throughout.
+// Formulas: docs/formulas.md §5.1–§5.3 and §5.5 (standard inverting-amplifier algebra; Venable 1983 layout). Hz throughout.
 import { formatEng } from '../../units/format';
 
 export const COMPENSATOR_KINDS = ['type1', 'type2', 'type3', 'type2-ota'] as const;

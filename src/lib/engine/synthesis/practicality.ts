@@ -1,6 +1,6 @@
 // Flags network parts that are awkward to build: resistors outside about 1 kΩ–1 MΩ (noise, leakage, op-amp
 // loading) and capacitors below about 10 pF (comparable to pin and layout capacitance) or above about 10 µF
-// (size, leakage) [common practice; domain sheet §5.3 "practical limits"]. Pure checks; messages in plain words.
+// (size, leakage) [common practice; docs/formulas.md §5.3 "practical limits"]. Pure checks; messages in plain words.
 import type { NetworkParts } from './networks';
 import { formatEng } from '../../units/format';
 

@@ -1,6 +1,6 @@
 // Rounds a compensator network to IEC 60063 series: resistors (R2, R3, Rb) and capacitors (C1, C2, C3) each to the
 // nearest member in log ratio (§5.4). R1 is kept as entered (it is the user's choice and sets the divider current);
-// gm and ro are properties of the amplifier, not parts to buy. Source: domain sheet §5.4, §10 [common practice].
+// gm and ro are properties of the amplifier, not parts to buy. Source: docs/formulas.md §5.4, §10 [common practice].
 import { roundToSeries, type ESeriesName } from './eSeries';
 import type { NetworkParts } from './networks';
 
@@ -11,7 +11,7 @@ export interface SeriesChoice {
 	capacitors: ESeriesName | null;
 }
 
-/** Defaults when a design gives no `series`: E96 resistors, E12 capacitors (issue 4; common practice). */
+/** Defaults when a design gives no `series`: E96 resistors, E12 capacitors (docs/formulas.md §5.4; common practice). */
 export const DEFAULT_SERIES: SeriesChoice = { resistors: 'E96', capacitors: 'E12' };
 
 const RESISTORS = ['r2', 'r3', 'rb'] as const;

@@ -1,7 +1,7 @@
 /**
  * Conversions between factored transfer functions and polynomials / zero-pole-gain form.
  * Polynomials are ASCENDING (p[i] multiplies s^i, see math/polynomial.ts). A polynomial is
- * written c0·s^k·Π(1 − s/r_i) with c0 its lowest non-zero coefficient (formulas §7.6).
+ * written c0·s^k·Π(1 − s/r_i) with c0 its lowest non-zero coefficient (docs/formulas.md §7.6).
  * ZPK follows the scipy convention k·Π(s − z)/Π(s − p).
  */
 import type { Complex } from '../math/complex';

@@ -1,6 +1,6 @@
 /**
  * Evaluates factored transfer functions at s = jω. Magnitude is a sum of log-magnitudes and
- * the phase a sum of factor phases, so the phase is unwrapped by construction (formulas §7.6):
+ * the phase a sum of factor phases, so the phase is unwrapped by construction (docs/formulas.md §7.6):
  * real factor (1 + jω/ω1) → atan(ω/ω1) (negative for RHP); pair → atan2(ω/(qω0), 1 − ω²/ω0²),
  * which runs 0 → ±180° continuously; s^n → n·90°; negative gain → +180°; delay → −ω·Td exactly.
  */
@@ -254,7 +254,7 @@ export function evaluate(tf: FactoredTf | CompiledTf, omega: number): Complex {
 export interface FrequencyResponse {
 	freqHz: Float64Array;
 	magDb: Float64Array;
-	/** Unwrapped, continuous from the first frequency (formulas §7.6). */
+	/** Unwrapped, continuous from the first frequency (docs/formulas.md §7.6). */
 	phaseDeg: Float64Array;
 }
 

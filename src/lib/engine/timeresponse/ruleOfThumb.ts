@@ -1,5 +1,5 @@
 /**
- * Load-step estimates shown beside the simulation (formulas §8.2) [common practice]:
+ * Load-step estimates shown beside the simulation (docs/formulas.md §8.2) [common practice]:
  * ΔV ≈ ΔI/(2π·fc·C), valid when Rc ≪ 1/(2π·fc·C) and PM ≈ 45–60°; the broader form
  * ΔV ≈ ΔI·max(Rc, 1/(2π·fc·C)) covers ESR-dominated banks, where the ESR step ΔI·Rc appears at
  * once and the capacitive rule underestimates. Rc of a bank = Re Z_bank(j2πfc).

@@ -1,6 +1,6 @@
 /**
  * Time responses of the linear closed-loop model: a load-current step with a linear rise
- * (v̂ = −Zo,cl·î_load, formulas §8.1–8.2) and a reference step (v̂ = (1/H)·T/(1 + T)·v̂ref).
+ * (v̂ = −Zo,cl·î_load, docs/formulas.md §8.1–8.2) and a reference step (v̂ = (1/H)·T/(1 + T)·v̂ref).
  * Solved exactly for the piecewise-linear input by the modal (partial-fraction) form (modal.ts);
  * when two poles nearly coincide (relative distance < 1e-6), they are split by 1e-5 relative
  * first, which changes the response by about that much. Residues are products of scaled

@@ -1,7 +1,7 @@
 /**
  * The checks run at every corner beyond the plant's own warnings (DCM, near the CCM boundary):
- * the crossover against the RHP zero (compensators/crossoverLimit.ts), the op-amp's bandwidth against the noise gain (compensators/checks.ts, §5.6 rule) and, when the
- * document has an input filter, Middlebrook's criterion (inputfilter/, §9). One definition, used
+ * the crossover against the RHP zero (compensators/crossoverLimit.ts), the op-amp's bandwidth against the noise gain (compensators/checks.ts, docs/formulas.md §5.6 rule) and, when the
+ * document has an input filter, Middlebrook's criterion (inputfilter/, docs/formulas.md §9). One definition, used
  * by the verdict and by the analysis response's corners section.
  */
 import type { CornerCheck } from '../corners/corners';

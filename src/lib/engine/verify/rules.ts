@@ -1,5 +1,5 @@
 /**
- * The verdict rules (issue 14), one place for every screen, export and stored verdict.
+ * The verdict rules (DEVELOPERS.md, "Verdict rules"), one place for every screen, export and stored verdict.
  * Thresholds [common practice]:
  * - PM below the target by up to 5°, GM by up to 3 dB, a crossover above maxCrossoverFraction·fsw,
  *   above a fifth of the RHP zero at any operating case (compensators/crossoverLimit.ts) or outside the

@@ -1,5 +1,5 @@
 /**
- * The verdict of a design document (issue 14): one function (verifyDesign.ts) computes it for the
+ * The verdict of a design document (DEVELOPERS.md, "Verdict rules"): one function (verifyDesign.ts) computes it for the
  * browser's live view and for the server, which stores it with the revision. The shape is the
  * contract between the two (see DEVELOPERS.md, "Verdict").
  */

@@ -1,5 +1,5 @@
 /**
- * One function from a design document to its verdict (issue 14): the nominal analysis, the
+ * One function from a design document to its verdict (DEVELOPERS.md, "Verdict rules"): the nominal analysis, the
  * operating × tolerance corners (corners/), the spread when the document asks for one (spread/),
  * every warning raised at any corner with the corners it appeared at, then pass / caution / fail
  * against the document's targets (rules.ts). The browser's live view and the server (which stores

@@ -229,7 +229,7 @@ describe('slopes of the factored loop', () => {
 });
 
 describe('bracketing finds what a dense 5000-per-decade scan finds', () => {
-	// [common practice: formulas §7.5, the dense-grid sign-change search, here as the reference]
+	// [common practice: docs/formulas.md §7.5, the dense-grid sign-change search, here as the reference]
 	it('random loops with RHP zeros, resonant and overdamped pairs and delay', () => {
 		fc.assert(
 			fc.property(loopArb, (loop) => {

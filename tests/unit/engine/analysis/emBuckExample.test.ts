@@ -36,7 +36,7 @@ describe('E&M ch. 9 buck design example (from memory)', () => {
 
 	it('PD + PI compensator: crossover ≈ 5 kHz, PM ≈ 52° minus the PI cost, no GM, stable', () => {
 		// [published: E&M §9.5.4 values from memory; expected PM derived here:
-		//  52° lead − atan(fL/fc) = 5.71° (formulas §6.4) + 1.3° (plant phase −178.7° at 5 f0, Q 9.5)]
+		//  52° lead − atan(fL/fc) = 5.71° (docs/formulas.md §6.4) + 1.3° (plant phase −178.7° at 5 f0, Q 9.5)]
 		const wL = TWO_PI * 500;
 		const gc: FactoredTf = { gain: 3.7 * wL, originPower: -1, zeros: [realRoot(wL), realRoot(TWO_PI * 1.7e3)], poles: [realRoot(TWO_PI * 14.5e3)] };
 		const loop = multiply(gc, plant.gvd, { gain: 1 / 3 / 4, originPower: 0, zeros: [], poles: [] });

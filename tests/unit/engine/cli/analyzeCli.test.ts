@@ -4,7 +4,7 @@ import { mkdtempSync, writeFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 
-// The CLI contract (issue 3): response JSON on stdout and exit 0; error JSON and exit 2 on bad input.
+// The CLI contract (README.md, "The design document and the command-line analyser"): response JSON on stdout and exit 0; error JSON and exit 2 on bad input.
 const run = (args: string[]) =>
 	spawnSync(process.execPath, ['--import', 'tsx', 'scripts/analyze.ts', ...args], { encoding: 'utf8', timeout: 60_000 });
 

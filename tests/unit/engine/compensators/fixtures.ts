@@ -1,4 +1,4 @@
-// Test plants built straight from the domain sheet's exact averaged models (§1.3 buck, §2.3 boost), so the
+// Test plants built straight from the exact averaged models of docs/formulas.md (§1.3 buck, §2.3 boost), so the
 // compensator tests do not depend on the plants module. Returned as Fm·Gvd (factored) with its features.
 import { fromPolynomials, multiply, constantTf, type FactoredTf } from '../../../../src/lib/engine/tf';
 

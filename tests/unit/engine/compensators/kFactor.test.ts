@@ -1,6 +1,6 @@
 // K-factor placement against Venable's closed forms and the exactness property of the ideal design.
 // [published: H. D. Venable, "The K Factor: A New Mathematical Tool for Stability Analysis and Synthesis",
-// Proc. Powercon 10, 1983 — equations from memory, domain sheet §6.1–§6.3]
+// Proc. Powercon 10, 1983 — equations from memory, docs/formulas.md §6.1–§6.3]
 import { describe, expect, it } from 'vitest';
 import { boostForK, kFactorFor, requiredBoostDeg, resolveCompensator } from '../../../../src/lib/engine/compensators';
 import { evaluatePolar } from '../../../../src/lib/engine/tf';
@@ -41,7 +41,7 @@ describe.each([
 	const boost = pm - phaseDeg - 90;
 
 	it('Type III parts equal Venable’s closed forms', () => {
-		// [published: Venable 1983, Type 3 component equations, from memory (domain sheet §6.3)]
+		// [published: Venable 1983, Type 3 component equations, from memory (docs/formulas.md §6.3)]
 		const r = resolveCompensator({ kind: 'type3', target: { method: 'k-factor', crossoverHz: fcHz, phaseMarginDeg: pm }, series: null }, ctx);
 		const k = Math.tan(((boost / 4 + 45) * Math.PI) / 180) ** 2;
 		const r1 = 10e3;
@@ -81,7 +81,7 @@ describe.each([
 	});
 
 	it('Type II parts equal Venable’s closed forms', () => {
-		// [published: Venable 1983, Type 2 component equations, from memory (domain sheet §6.3)]
+		// [published: Venable 1983, Type 2 component equations, from memory (docs/formulas.md §6.3)]
 		const r = resolveCompensator({ kind: 'type2', target: { method: 'k-factor', crossoverHz: fcHz, phaseMarginDeg: pm }, series: null }, ctx);
 		const k = Math.tan(((boost / 2 + 45) * Math.PI) / 180);
 		const c2 = 1 / (TWO_PI * fcHz * g * k * 10e3);
@@ -91,7 +91,7 @@ describe.each([
 	});
 
 	it('the OTA version follows §5.5: Csum = H·gm·K/(2π·fc·G)', () => {
-		// [published: transconductance amplifier K-factor inverse, domain sheet §5.5 — from memory]
+		// [published: transconductance amplifier K-factor inverse, docs/formulas.md §5.5 — from memory]
 		const gm = 300e-6;
 		const r = resolveCompensator({ kind: 'type2-ota', parts: { gm }, target: { method: 'k-factor', crossoverHz: fcHz, phaseMarginDeg: pm }, series: null }, ctx);
 		const k = Math.tan(((boost / 2 + 45) * Math.PI) / 180);

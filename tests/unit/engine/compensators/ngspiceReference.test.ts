@@ -1,5 +1,5 @@
 // Each network's transfer function vs ngspice AC analysis of the op-amp/OTA circuit netlist
-// (reference/compensators/generate.py → ngspice-ac.json). Tolerance 0.05 dB / 0.5° [issue 4 acceptance].
+// (reference/compensators/generate.py → ngspice-ac.json). Tolerance 0.05 dB / 0.5° [project acceptance tolerance, reference/README.md].
 // [published: ngspice AC small-signal analysis of the circuit, ideal op-amp as a 1e9 VCVS, finite op-amp as a
 // single-pole macromodel]. When ngspice is on PATH the generator is re-run into a temp dir and diffed.
 import { execFileSync, spawnSync } from 'node:child_process';

@@ -1,5 +1,5 @@
 /**
- * Placement that survives its own verdict (issue 14): with a finite op-amp the K-factor's ideal
+ * Placement that survives its own verdict (DEVELOPERS.md, "Verdict rules"): with a finite op-amp the K-factor's ideal
  * parts miss the request (the issue saw 106.5 kHz / 46.3° for 100 kHz / 55° with 80 dB / 5 MHz);
  * the refined placement meets it on the built loop, op-amp model included. With placeFor
  * 'worst-corner' the built parts meet the PM target at every operating case.
@@ -24,7 +24,7 @@ const analyse = (doc: unknown) => {
 };
 
 describe('placement with the op-amp model', () => {
-	it('the ideal parts built with an 80 dB / 5 MHz op-amp miss 100 kHz / 55° [issue 14: the shift the issue reports]', () => {
+	it('the ideal parts built with an 80 dB / 5 MHz op-amp miss 100 kHz / 55° [the shift a finite op-amp causes]', () => {
 		const ideal = analyse(base).compensator.ideal.parts;
 		const { r1: _r1, rb: _rb, ...parts } = ideal;
 		const built = analyse({ ...base, compensator: { kind: 'type3', series: null, parts, opamp } });

@@ -163,7 +163,7 @@ describe('parts, series and the op-amp', () => {
 		const fast = resolveCompensator({ kind: 'type3', target, series: null, opamp: { a0Db: 120, gbw: 200e6 } }, ctx);
 		expect(codes(slow)).toContain('opamp-gbw-too-low');
 		expect(codes(fast)).not.toContain('opamp-gbw-too-low');
-		// placement re-places on the built loop with the op-amp model, so both meet the request (issue 14)
+		// placement re-places on the built loop with the op-amp model, so both meet the request (DEVELOPERS.md, "Verdict rules")
 		expect(Math.abs(slow.achieved.ideal.phaseMarginDeg! - 55)).toBeLessThan(0.2);
 		expect(Math.abs(fast.achieved.ideal.phaseMarginDeg! - 55)).toBeLessThan(0.2);
 	});

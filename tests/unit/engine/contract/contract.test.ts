@@ -50,10 +50,10 @@ describe('design document schema', () => {
 	});
 
 	it('rejects a duty of 0.95 or more and a boost beyond its maximum gain, on plant.vout', () => {
-		// buck 5 V → 4.9 V needs D ≥ 0.98 [formulas §1.1]
+		// buck 5 V → 4.9 V needs D ≥ 0.98 [docs/formulas.md §1.1]
 		const f = fieldsOf(withChange((d) => (d.plant.vout = 4.9)));
 		expect(f['plant.vout']).toMatch(/duty/);
-		// boost 5 → 60 V with r = 0.1 Ω, R = 60 Ω: max V = ½·5·√600 ≈ 61 V, but D > 0.95 [formulas §2.1]
+		// boost 5 → 60 V with r = 0.1 Ω, R = 60 Ω: max V = ½·5·√600 ≈ 61 V, but D > 0.95 [docs/formulas.md §2.1]
 		const g = fieldsOf(
 			withChange((d) => {
 				(d.plant.topology as string) = 'boost';

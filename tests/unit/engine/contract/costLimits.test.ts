@@ -1,4 +1,4 @@
-// The document limits that bound the cost of one analysis (issue 13): each scaling field has a
+// The document limits that bound the cost of one analysis (README.md, "Limits"): each scaling field has a
 // ceiling with a field error that names the rule, and the worst accepted delay and sweep give a
 // bounded number of phase crossovers. Before these limits `modulator.delay: 1` was accepted and
 // listed six million phase crossovers (500 MB of answer, the server out of memory).

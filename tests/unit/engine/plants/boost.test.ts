@@ -28,7 +28,7 @@ describe('boost operating point (DC transformer with inductor resistance)', () =
 		expect(m.operatingPoint.efficiency).toBeCloseTo(1 / (1 + r / (Dc * Dc * R)), 12);
 		// Energy balance: Pin = Vg·IL, Pout = V²/R [hand-derivable]
 		expect(m.operatingPoint.efficiency).toBeCloseTo((12 * 12) / R / (5 * m.operatingPoint.inductorCurrent), 12);
-		// DC gain of the line-to-output response equals V/Vg [formulas §2.3]
+		// DC gain of the line-to-output response equals V/Vg [docs/formulas.md §2.3]
 		expect(evaluatePolar(m.gvg, 1e-3).magDb).toBeCloseTo(20 * Math.log10(12 / 5), 9);
 		// [published: E&M ch. 2: boost ΔiL = Vg·D·Ts/L; capacitor ripple V·D/(R·C·fs)]
 		const D = m.operatingPoint.duty;
@@ -39,7 +39,7 @@ describe('boost operating point (DC transformer with inductor resistance)', () =
 	});
 
 	it('lossless: Gd0 = Vg/D′², ωrhp = D′²R/L, ω0 = D′/√(LC), Q = D′R√(C/L)', () => {
-		// [published: E&M Table 8.2 (2nd ed.), from memory, as quoted in formulas §2.3]
+		// [published: E&M Table 8.2 (2nd ed.), from memory, as quoted in docs/formulas.md §2.3]
 		const m = powerStage({ ...base, dcr: 0, rdsOn: 0, capacitors: [{ c: 94e-6, esr: 0, esl: 0, count: 1 }] });
 		const Dc = 5 / 12;
 		expect(1 - m.operatingPoint.duty).toBeCloseTo(Dc, 12);
@@ -54,7 +54,7 @@ describe('boost operating point (DC transformer with inductor resistance)', () =
 		const m = powerStage({ ...base, capacitors: [{ c: 94e-6, esr: 0, esl: 0, count: 1 }] });
 		const wz = TWO_PI * m.features.rhpZeroHz!;
 		expect(evaluatePolar(m.gvd, 1e4 * wz).phaseDeg).toBeCloseTo(-270, 1);
-		// [derived: formulas §2.3 exact lossy forms; RHP zero at (D′²R − r)/L]
+		// [derived: docs/formulas.md §2.3 exact lossy forms; RHP zero at (D′²R − r)/L]
 		const Dc = 1 - m.operatingPoint.duty;
 		expect(m.features.rhpZeroHz).toBeCloseTo((Dc * Dc * 12 - 0.05) / (TWO_PI * 10e-6), 6);
 	});
@@ -94,7 +94,7 @@ describe('boost operating point (DC transformer with inductor resistance)', () =
 			const got = evaluate(m.gvd, w);
 			expect(Math.hypot(got.re - gvd.re, got.im - gvd.im) / Math.hypot(gvd.re, gvd.im)).toBeLessThan(1e-9);
 		}
-		// ZN = −(D′²R − r − sL), independent of the bank [formulas §2.3]
+		// ZN = −(D′²R − r − sL), independent of the bank [docs/formulas.md §2.3]
 		const w = TWO_PI * 1e4;
 		const zn = evaluate(m.zn, w);
 		expect(zn.re).toBeCloseTo(-(Dc * Dc * 12 - 0.05), 9);
@@ -102,7 +102,7 @@ describe('boost operating point (DC transformer with inductor resistance)', () =
 	});
 
 	it('rejects a vout beyond the maximum gain ½·√(R/r), naming plant.vout', () => {
-		// [derived: formulas §2.1, max V/Vg = ½√(R/r) at D′ = √(r/R)]
+		// [derived: docs/formulas.md §2.1, max V/Vg = ½√(R/r) at D′ = √(r/R)]
 		const p = { ...base, dcr: 0.5, rdsOn: 0, vout: 30, iout: 1 }; // R = 30, max V = 2.5·√60 ≈ 19.4 V
 		expect(() => powerStage(p)).toThrow(DesignInputError);
 		try {

@@ -39,7 +39,7 @@ const rel = (a: { re: number; im: number }, b: C) => Math.hypot(a.re - b[0], a.i
 
 describe('buck operating point', () => {
 	it('duty with conduction losses, efficiency, ripple, CCM', () => {
-		// [published: formulas §1.1 (E&M ch. 3 loss model): D = V(R + r)/(Vg·R), η = R/(R + r)]
+		// [published: docs/formulas.md §1.1 (E&M ch. 3 loss model): D = V(R + r)/(Vg·R), η = R/(R + r)]
 		const m = powerStage(base);
 		const R = 3.3 / 5;
 		const r = 0.018;
@@ -77,7 +77,7 @@ describe('buck operating point', () => {
 
 describe('buck small-signal model', () => {
 	it('lossless limits: ω0 = 1/√(LC), Q = R√(C/L), Gd0 = Vg, |Gvd(jω0)| = Vg·Q', () => {
-		// [published: E&M Table 8.2 (2nd ed.), from memory, as quoted in formulas §1.3]
+		// [published: E&M Table 8.2 (2nd ed.), from memory, as quoted in docs/formulas.md §1.3]
 		const p = { ...base, dcr: 0, rdsOn: 0, capacitors: [{ c: 100e-6, esr: 0, esl: 0, count: 1 }] };
 		const m = powerStage(p);
 		const R = 3.3 / 5;
@@ -90,8 +90,8 @@ describe('buck small-signal model', () => {
 		expect(m.features.esrZeroHz).toEqual([]);
 	});
 
-	it('lossy closed forms of formulas §1.2–1.3: ω0, Q, Gd0 = V/D, ESR zero', () => {
-		// [derived: formulas §1.2 exact a2, a1, a0; Gd0 = Vg·R/(R + r) = V/D]
+	it('lossy closed forms of docs/formulas.md §1.2–1.3: ω0, Q, Gd0 = V/D, ESR zero', () => {
+		// [derived: docs/formulas.md §1.2 exact a2, a1, a0; Gd0 = Vg·R/(R + r) = V/D]
 		const m = powerStage(base);
 		const R = 3.3 / 5;
 		const r = 0.018;
@@ -110,7 +110,7 @@ describe('buck small-signal model', () => {
 		const a = evaluate(m.gvd, w);
 		const b = evaluate(m.gvg, w);
 		expect(b.re).toBeCloseTo((a.re * m.operatingPoint.duty) / 12, 12);
-		// ZN = −(R + r)/D², ZD(0) = (R + r)/D², Zo(0) = r∥R [formulas §1.3; hand-derivable at DC]
+		// ZN = −(R + r)/D², ZD(0) = (R + r)/D², Zo(0) = r∥R [docs/formulas.md §1.3; hand-derivable at DC]
 		const D2 = m.operatingPoint.duty ** 2;
 		expect(evaluate(m.zn, w).re).toBeCloseTo(-(R + r) / D2, 10);
 		expect(evaluate(m.zd, 1e-3).re).toBeCloseTo((R + r) / D2, 9);

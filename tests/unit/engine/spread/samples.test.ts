@@ -40,7 +40,7 @@ describe('sampleParameters', () => {
 
 	it('stability verdicts equal those from the closed-loop poles when some samples are unstable', () => {
 		// A ramp down to 10 % of nominal raises the boost loop gain by up to 20 dB, more than its
-		// ≈ 15 dB gain margin, so part of the samples are unstable (gain margin, formulas §7.1).
+		// ≈ 15 dB gain margin, so part of the samples are unstable (gain margin, docs/formulas.md §7.1).
 		const spec = loopSpecFromDetail(detail('boost-ceramic-5v-12v'));
 		const config = { samples: 120, seed: 11, tolerances: { vramp: { tol: 0.9, dist: 'uniform' as const } } };
 		const samples = sampleParameters(spec, config);

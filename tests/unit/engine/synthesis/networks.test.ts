@@ -1,4 +1,4 @@
-// Network parts ↔ corner frequencies. Exact forward forms and inverses of the domain sheet §5.2/§5.3/§5.5
+// Network parts ↔ corner frequencies. Exact forward forms and inverses of the docs/formulas.md §5.2/§5.3/§5.5
 // [published: standard inverting-amplifier algebra, Zf/Zi; Venable 1983 network layout — from memory], the
 // divider of §3, and round trips parts → corners → parts to 1e-9 relative.
 import fc from 'fast-check';

@@ -51,7 +51,7 @@ describe('factor evaluation at the corner', () => {
 		expect(evaluatePolar(tf, 10 * wI).magDb).toBeCloseTo(-20, 10);
 	});
 
-	it('a negative gain adds +180° (formulas §7.6)', () => {
+	it('a negative gain adds +180° (docs/formulas.md §7.6)', () => {
 		expect(evaluatePolar(constantTf(-2), 1).phaseDeg).toBeCloseTo(180, 12);
 	});
 });
@@ -98,7 +98,7 @@ describe('unwrapped phase', () => {
 
 describe('delay', () => {
 	it('is evaluated exactly: −36° at 100 kHz for 1 µs, magnitude 1', () => {
-		// [formulas §3 check values, computed there]
+		// [docs/formulas.md §3 check values, computed there]
 		const tf: FactoredTf = { gain: 1, originPower: 0, zeros: [], poles: [], delayS: 1e-6 };
 		const r = evaluatePolar(tf, TWO_PI * 100e3);
 		expect(r.phaseDeg).toBeCloseTo(-36, 10);
@@ -107,7 +107,7 @@ describe('delay', () => {
 	});
 
 	it('Padé(1,1) and (2,2) match the formula-sheet phases at 100 and 200 kHz', () => {
-		// [formulas §3: P11 −34.881° / −64.284°, P22 −35.992° / −71.774° for Td = 1 µs]
+		// [docs/formulas.md §3: P11 −34.881° / −64.284°, P22 −35.992° / −71.774° for Td = 1 µs]
 		const p1 = padeDelay(1e-6, 1);
 		const p2 = padeDelay(1e-6, 2);
 		const t1 = fromPolynomials(p1.num, p1.den);

@@ -1,5 +1,5 @@
 /**
- * Issue 14's boost: crossings at 485 Hz (PM 142°), 1.2 kHz (loop phase +2.6°, PM −177.4°) and
+ * The boost of the governing-margin rule (DEVELOPERS.md, "Verdict rules"): crossings at 485 Hz (PM 142°), 1.2 kHz (loop phase +2.6°, PM −177.4°) and
  * 6.09 kHz (PM 59.1°), closed-loop stable with modulus margin 0.70. The headline PM is the
  * crossing nearest −1 (smallest |PM|, python-control's `stability_margins` convention [from
  * memory]); corners and spread read the same rule.
@@ -16,7 +16,7 @@ const boost = (pm: number) => ({
 });
 
 describe('governing margins on the issue-14 boost', () => {
-	it('reports 6.09 kHz / 59.1° (not 1.2 kHz / −177.4°) with every crossing still listed [issue 14 reproduction]', () => {
+	it('reports 6.09 kHz / 59.1° (not 1.2 kHz / −177.4°) with every crossing still listed [reproduction of the governing-margin rule]', () => {
 		const r = analyzeDesign(boost(60), { includeResponse: false }) as AnalysisResponse;
 		expect(isContractError(r)).toBe(false);
 		expect(r.metrics.crossovers).toHaveLength(3);
