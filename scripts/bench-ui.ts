@@ -30,6 +30,7 @@
 //  - Server rows (review page first byte, PNG and PDF exports) are timed from Node with the
 //    browser's session cookie: first byte = the first chunk of the body; exports = whole body.
 import { chromium, type Browser, type BrowserContext, type Page } from '@playwright/test';
+import { randomBytes } from 'node:crypto';
 import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { cpus, loadavg } from 'node:os';
 import { ensureMailFake } from '../tests/integration/support/mail-fake';
@@ -49,7 +50,8 @@ const ONLY = onlyAt >= 0 ? new Set(argv[onlyAt + 1].split(',')) : null;
 const section = (name: 'sandbox' | 'rails' | 'board' | 'server' | 'scale') => !ONLY || ONLY.has(name);
 const DB = 'loopwright_bench';
 const BUILD_DIR = '.tmp/bench-ui-build';
-const SECRET = 'bench-ui-secret-for-local-runs-only-0123456789';
+/** The auth secret of this run's private server, new each run (no secret literal in the source). */
+const SECRET = process.env.BETTER_AUTH_SECRET || randomBytes(32).toString('base64url');
 const VIEWPORT = { width: 1440, height: 900 };
 const log = (...m: unknown[]) => console.log('[bench:ui]', ...m);
 
