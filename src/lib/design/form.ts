@@ -7,6 +7,7 @@ import { DEFAULT_MARGIN_TARGETS, type DesignDocumentInput } from '$lib/engine';
 import { DEFAULT_SAMPLES, MAX_SAMPLES } from '$lib/engine/spread/spread';
 import { crossoverCeilingHz, worstRhpZeroHz } from '$lib/engine/compensators/crossoverLimit';
 import { parseQuantity, formatForInput, type QuantityRule, type UnitSymbol } from '$lib/units';
+import { temperatureClass } from '$lib/engine/plants/derating';
 import { defaultToleranceRows, readTolerances, toleranceRowsFromDocument, type ToleranceRow } from './tolerances';
 
 export type CompensatorKind = 'type1' | 'type2' | 'type3' | 'type2-ota';
@@ -23,6 +24,11 @@ export interface CapacitorRow {
 	esr: string;
 	esl: string;
 	count: string;
+	/** Derating (optional, blank = none): class code, a measured DC-bias point (C per part at V), ageing in %. */
+	tempClass?: string;
+	biasV?: string;
+	biasC?: string;
+	ageing?: string;
 }
 
 export interface DesignForm {
@@ -116,6 +122,13 @@ export const CAPACITOR_FIELDS: Record<'c' | 'esr' | 'esl' | 'count', FieldSpec> 
 	count: { label: 'Count', unit: '', suffix: '×', integer: true, min: 1, max: 1000 }
 };
 
+/** The optional derating fields of a capacitor row (blank = none). */
+export const DERATING_FIELDS: Record<'biasV' | 'biasC' | 'ageing', FieldSpec> = {
+	biasV: pos('DC-bias point V', 'V', { optional: true }),
+	biasC: pos('C at that V (per part)', 'F', { optional: true }),
+	ageing: { label: 'Ageing', unit: '', suffix: '%', optional: true, min: 0, max: 50 }
+};
+
 export const PART_FIELDS: Record<PartName, FieldSpec> = {
 	r2: pos('R2', 'Ω'),
 	r3: pos('R3', 'Ω'),
@@ -155,6 +168,8 @@ export function specFor(key: string): FieldSpec {
 	if (FIELDS[key]) return FIELDS[key];
 	const cap = /^capacitors\.\d+\.(c|esr|esl|count)$/.exec(key);
 	if (cap) return CAPACITOR_FIELDS[cap[1] as keyof typeof CAPACITOR_FIELDS];
+	const der = /^capacitors\.\d+\.(biasV|biasC|ageing)$/.exec(key);
+	if (der) return DERATING_FIELDS[der[1] as keyof typeof DERATING_FIELDS];
 	const corner = /^(zeros|poles)\.(\d+)$/.exec(key);
 	if (corner) return pos(`${corner[1] === 'zeros' ? 'fz' : 'fp'}${Number(corner[2]) + 1}`, 'Hz');
 	const part = /^parts\.(\w+)$/.exec(key);
@@ -204,7 +219,8 @@ export function readForm(form: DesignForm): FormResult {
 		c: num(`capacitors.${i}.c`, row.c),
 		esr: num(`capacitors.${i}.esr`, row.esr),
 		esl: num(`capacitors.${i}.esl`, row.esl),
-		count: num(`capacitors.${i}.count`, row.count)
+		count: num(`capacitors.${i}.count`, row.count),
+		...readDerating(row, i, num, errors)
 	}));
 	if (form.capacitors.length === 0) errors.capacitors = 'add at least one capacitor branch';
 
@@ -288,6 +304,24 @@ export function readForm(form: DesignForm): FormResult {
 	};
 }
 
+/** A row's optional derating fields as the document's branch fields; a half-entered bias point is a field error. */
+function readDerating(row: CapacitorRow, i: number, num: (key: string, text: string) => number, errors: Record<string, string>) {
+	const out: { tempClass?: string; dcBias?: { points: { v: number; c: number }[] }; ageing?: number } = {};
+	const blank = (s: string | undefined) => !s || s.trim() === '';
+	if (!blank(row.tempClass)) {
+		const code = row.tempClass!.trim();
+		if (temperatureClass(code)) out.tempClass = code.toUpperCase();
+		else errors[`capacitors.${i}.tempClass`] = 'must be a class code such as X7R, X5R, X6S or C0G';
+	}
+	if (!blank(row.biasV) || !blank(row.biasC)) {
+		if (blank(row.biasV)) errors[`capacitors.${i}.biasV`] = 'needs the voltage of the measured point';
+		else if (blank(row.biasC)) errors[`capacitors.${i}.biasC`] = 'needs the capacitance at that voltage';
+		else out.dcBias = { points: [{ v: num(`capacitors.${i}.biasV`, row.biasV!), c: num(`capacitors.${i}.biasC`, row.biasC!) }] };
+	}
+	if (!blank(row.ageing)) out.ageing = num(`capacitors.${i}.ageing`, row.ageing!) / 100;
+	return out;
+}
+
 /** Contract error paths (plant.inductor.l …) → the form field that shows them. */
 export function fieldForPath(path: string): string | null {
 	const direct: Record<string, string> = {
@@ -310,8 +344,10 @@ export function fieldForPath(path: string): string | null {
 		'compensator.opamp.gbw': 'gbw'
 	};
 	if (direct[path]) return direct[path];
-	let m = /^plant\.capacitors\.(\d+)\.(c|esr|esl|count)$/.exec(path);
+	let m = /^plant\.capacitors\.(\d+)\.(c|esr|esl|count|tempClass|ageing)$/.exec(path);
 	if (m) return `capacitors.${m[1]}.${m[2]}`;
+	m = /^plant\.capacitors\.(\d+)\.dcBias\.points\.0\.(v|c)$/.exec(path);
+	if (m) return `capacitors.${m[1]}.${m[2] === 'v' ? 'biasV' : 'biasC'}`;
 	m = /^compensator\.target\.(zeros|poles)Hz(?:\.(\d+))?$/.exec(path);
 	if (m) return `${m[1]}.${m[2] ?? 0}`;
 	m = /^compensator\.parts\.(\w+)$/.exec(path);
@@ -320,6 +356,19 @@ export function fieldForPath(path: string): string | null {
 }
 
 let nextKey = 1;
+/** A branch's derating back into row fields (a curve C0/(1 + (V/V0)^k) shows as its point at V0: half of C). */
+function deratingRow(b: DocLike['plant']['capacitors'][number]): Partial<CapacitorRow> {
+	const out: Partial<CapacitorRow> = {};
+	if (b.tempClass) out.tempClass = b.tempClass;
+	if (b.ageing) out.ageing = String(Number((b.ageing * 100).toPrecision(6)));
+	if (b.dcBias) {
+		const p = 'points' in b.dcBias ? b.dcBias.points[0] : { v: b.dcBias.v0, c: b.c / 2 };
+		out.biasV = f(p.v, 'V');
+		out.biasC = f(p.c, 'F');
+	}
+	return out;
+}
+
 export const capacitorRow = (c = '22u', esr = '3m', esl = '0', count = '1'): CapacitorRow => ({ key: nextKey++, c, esr, esl, count });
 
 /** The sandbox's demo rail: a 12 V → 1.2 V, 8 A synchronous buck at 600 kHz with ceramics. */
@@ -463,7 +512,7 @@ type DocLike = {
 		iout: number;
 		fsw: number;
 		inductor: { l: number; dcr?: number };
-		capacitors: { c: number; esr?: number; esl?: number; count?: number }[];
+		capacitors: { c: number; esr?: number; esl?: number; count?: number; tempClass?: string; ageing?: number; dcBias?: { points: { v: number; c: number }[] } | { v0: number; k: number } }[];
 		rdsOn?: number;
 	};
 	modulator: { vramp: number; feedForward?: boolean; delay?: number };
@@ -505,7 +554,7 @@ export function formFromDocument(doc: DocLike, rail: RailSummary | null, gmTarge
 		l: f(p.inductor.l, 'H'),
 		dcr: f(p.inductor.dcr ?? 0, 'Ω'),
 		rdsOn: f(p.rdsOn ?? 0, 'Ω'),
-		capacitors: p.capacitors.map((b) => capacitorRow(f(b.c, 'F'), f(b.esr ?? 0, 'Ω'), f(b.esl ?? 0, 'H'), String(b.count ?? 1))),
+		capacitors: p.capacitors.map((b) => ({ ...capacitorRow(f(b.c, 'F'), f(b.esr ?? 0, 'Ω'), f(b.esl ?? 0, 'H'), String(b.count ?? 1)), ...deratingRow(b) })),
 		vramp: f(doc.modulator.vramp, 'V'),
 		feedForward: doc.modulator.feedForward ?? false,
 		delay: f(doc.modulator.delay ?? 0, 's'),

@@ -136,3 +136,20 @@ describe('gridMargins', () => {
 		expect(Number.isFinite(m.crossoverHz!)).toBe(true);
 	});
 });
+
+describe('capacitor derating fields', () => {
+	it('read into the branch (class code, a DC-bias point, ageing in %) and back; a half-entered point names its field', async () => {
+		const { formFromDocument } = await import('$lib/design/form');
+		const form = demoForm();
+		Object.assign(form.capacitors[0], { tempClass: 'x7r', biasV: '1.2', biasC: '30u', ageing: '3' });
+		const r = readForm(form);
+		expect(r.errors).toEqual({});
+		expect(r.document!.plant.capacitors[0]).toMatchObject({ tempClass: 'X7R', dcBias: { points: [{ v: 1.2, c: 30e-6 }] }, ageing: 0.03 });
+		const back = formFromDocument(r.document as never, null);
+		expect(back.capacitors[0]).toMatchObject({ tempClass: 'X7R', biasV: '1.2V', biasC: '30µF', ageing: '3' });
+		Object.assign(form.capacitors[0], { tempClass: 'X9Q', biasC: '' });
+		const bad = readForm(form);
+		expect(bad.errors['capacitors.0.tempClass']).toMatch(/class code/);
+		expect(bad.errors['capacitors.0.biasC']).toMatch(/capacitance at that voltage/);
+	});
+});
