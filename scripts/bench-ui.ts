@@ -497,6 +497,8 @@ async function main() {
 	const summary = rows.map((r) => ({ name: r.name, n: r.samples.length, p50Ms: percentile(r.samples, 50), p95Ms: percentile(r.samples, 95), budgetMs: r.budgetMs, ratio: percentile(r.samples, 95) / r.budgetMs, note: r.note ?? null }));
 	writeFileSync('.tmp/bench-ui.json', JSON.stringify({ date: new Date().toISOString(), loadavg: load, cpus: cpus().length, rows: summary, skipped }, null, 2));
 	log('figures written to .tmp/bench-ui.json');
+	// The mail fake is a child process: while it runs, this process would never end.
+	mailer?.child.kill('SIGTERM');
 }
 
 main().catch((error) => {
