@@ -21,6 +21,7 @@ import { capacitorDeratingOf, cornerPlantLoops, hasDerating, modulatorInputOf, s
 import type { FactoredTf } from './tf/types';
 import { formatDb, formatEng } from '../units/format';
 import { plausibilityWarnings } from './contract/plausibility';
+import { lossBreakdown } from './plants/losses';
 
 export interface AnalyzeOptions {
 	/** Compute the Bode arrays [true]; false leaves them empty (faster, for batch runs). */
@@ -210,6 +211,18 @@ function run(d: DesignDocument, options: AnalyzeOptions): AnalysisDetail {
 		warnings: mergeWarnings(plausibilityWarnings(d), plant.warnings, compensator.warnings, loopWarnings(metrics, p.fsw))
 	};
 	if (hasDerating(d)) response.capacitorDerating = capacitorDeratingOf(d);
+	response.losses = lossBreakdown({
+		topology: p.topology,
+		vin: p.vin,
+		vout: p.vout,
+		iout: p.iout,
+		fswHz: p.fsw,
+		dcr: p.inductor.dcr,
+		rdsOn: p.rdsOn,
+		inductorCurrent: plant.operatingPoint.inductorCurrent,
+		rippleCurrent: plant.operatingPoint.rippleCurrent,
+		parts: p.losses
+	}) as AnalysisResponse['losses'];
 	const detail: AnalysisDetail = { response, document: d, plant, plantLoop, compensator, loop, metrics };
 	// Robustness sections: only when asked for, so batch runs (includeResponse: false) stay cheap.
 	const extra = robustnessSections(detail, { closedLoop: options.closedLoop ?? (include || d.loadStep !== undefined), sections: options.sections });

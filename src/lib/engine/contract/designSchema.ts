@@ -97,6 +97,21 @@ export const plantSchema = z
 			.min(1, { error: 'needs at least one capacitor branch' })
 			.max(8, { error: 'at most 8 capacitor branches' }),
 		rdsOn: nonNegative('Ω').max(1e3, { error: 'must be ≤ 1000 Ω' }).default(0),
+		/** Optional part data for the loss estimate (plants/losses.ts); absent = conduction only. */
+		losses: z
+			.object({
+				riseTime: nonNegative('s').max(1e-5, { error: 'must be ≤ 10 µs' }).optional(),
+				fallTime: nonNegative('s').max(1e-5, { error: 'must be ≤ 10 µs' }).optional(),
+				coss: nonNegative('F').max(1e-6, { error: 'must be ≤ 1 µF' }).optional(),
+				qrr: nonNegative('C').max(1e-5, { error: 'must be ≤ 10 µC' }).optional(),
+				deadTime: nonNegative('s').max(1e-5, { error: 'must be ≤ 10 µs' }).optional(),
+				bodyDiodeVf: nonNegative('V').max(5, { error: 'must be ≤ 5 V' }).optional(),
+				qg: nonNegative('C').max(1e-5, { error: 'must be ≤ 10 µC' }).optional(),
+				gateDrive: nonNegative('V').max(30, { error: 'must be ≤ 30 V' }).optional(),
+				coreLoss: nonNegative('W').max(1e4, { error: 'must be ≤ 10 kW' }).optional()
+			})
+			.strict()
+			.optional(),
 		/** Relative rise of rdsOn per °C above 25 °C (e.g. 0.004), for temperature corners [none]. */
 		rdsOnTempco: nonNegative('1/°C').max(0.05, { error: 'must be ≤ 0.05 per °C' }).optional(),
 		/**

@@ -80,6 +80,15 @@ export const analysisResponseSchema = z.object({
 	 * Per capacitor branch, only when some branch has derating data: the typed value per part, the
 	 * effective one every analysis uses, and its factors (DC bias at Vout, temperature at 25 °C, ageing).
 	 */
+	/** Loss estimate at the nominal point: 'conduction only' without part data (plants/losses.ts). */
+	losses: z
+		.object({
+			basis: z.enum(['conduction only', 'conduction and part data']),
+			items: z.record(z.string(), finite),
+			total: finite,
+			efficiency: finite
+		})
+		.optional(),
 	capacitorDerating: z
 		.array(z.object({ typed: finite, effective: finite, dcBias: finite, temperature: finite, ageing: finite }))
 		.optional(),
