@@ -1,4 +1,4 @@
-// Page-load figures of issue 15 part 2 against a running server (production build), as the
+// Page-load figures against a running server (production build), as the
 // demo owner on the seeded data (npx tsx scripts/seed.ts --scale first):
 //   review page first byte, board table complete (all rows with their verdict), board → rail
 //   click to plot visible (Debian's Chromium), PNG and PDF export of a revision with a stored verdict.

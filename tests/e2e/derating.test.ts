@@ -1,5 +1,5 @@
 // The design screen shows each capacitor branch's effective value beside the typed one once a
-// derating is entered (issue #17 part 1), and names a bad class code at its field.
+// derating is entered, and names a bad class code at its field.
 import { expect, test } from '@playwright/test';
 
 test('a DC-bias point shows the effective capacitance beside the typed one, and moves the verdict', async ({ page }) => {

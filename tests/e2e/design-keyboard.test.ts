@@ -1,4 +1,4 @@
-// The design screen without a mouse (issue 16 part 4, WAI-ARIA authoring practices: slider and
+// The design screen without a mouse (WAI-ARIA authoring practices: slider and
 // tabs) and its critical-frequency marks, on the public sandbox's demo buck (E96/E12 parts).
 // Before this change plain arrows on a marker were rounded away by the E12 capacitors and the tab
 // bar ignored arrow keys: both tests below failed on the old screen.

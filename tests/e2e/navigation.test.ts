@@ -49,7 +49,7 @@ test('a new user goes from an empty home to a board health table and a rail desi
 	// First rail, typed in engineering notation.
 	const board = new BoardPage(page);
 	await board.openNewRail();
-	// Nothing is marked before the user types or submits (issue 16: every field was red at once).
+	// Nothing is marked before the user types or submits (every field was red at once).
 	await expect(board.form.locator('[aria-invalid="true"]')).toHaveCount(0);
 	await expect(board.form.locator('[data-testid^="error-"]')).toHaveCount(0);
 	await board.form.getByTestId('field-vout').focus();
@@ -57,7 +57,7 @@ test('a new user goes from an empty home to a board health table and a rail desi
 	await expect(board.fieldError('vout')).toHaveText('enter a value'); // judged once left
 	await board.fillRail(RAIL_5V0);
 	await board.saveRail();
-	// A new rail opens on its design screen (issue 16); back on the board it is listed.
+	// A new rail opens on its design screen; back on the board it is listed.
 	await expect(page).toHaveURL(/\/rails\/[^/]+$/);
 	await expect(page.getByTestId('rail-name')).toHaveText('5V0_MAIN');
 	await page.goBack();

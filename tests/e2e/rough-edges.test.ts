@@ -1,4 +1,4 @@
-// Issue 16 part 3 on the signed-in screens: each test failed on the old main.
+// Rough edges of the signed-in screens: each test failed before its fix.
 import { expect, originHeaders, test, type SignedIn } from './support/fixtures';
 
 const BUCK = { name: 'VDD_1V8', topology: 'buck', vout: 1.8, vinNom: 12, vinMin: 10, vinMax: 14, ioutNom: 3, ioutMin: 1, ioutMax: 4, fsw: 500e3 };

@@ -59,7 +59,7 @@ test('an engineer requests a review, the reviewer approves it from the queue and
 	await page.getByLabel('Note for the reviewers (optional)').fill('Please check Vin max');
 	await page.getByTestId('request-review').click();
 	await expect(page.getByTestId('review-note')).toContainText('Review requested; 1 e-mail sent');
-	await expect(page.getByTestId('rail-revision')).toContainText('r1 · in review'); // words, not the status code (issue 16)
+	await expect(page.getByTestId('rail-revision')).toContainText('r1 · in review'); // words, not the status code
 	await page.screenshot({ path: 'test-results/signoff-rail.png', fullPage: true });
 
 	// The reviewer reads their own captured mail on the development mail page; the owner sees none of it.
@@ -140,7 +140,7 @@ test('a bench file uploads and overlays the plot, and every export downloads', a
 	await expect(page.getByTestId('bench-metrics')).toContainText('Measured: fc');
 	await expect(page.getByTestId('bench-deviation')).toContainText('|Δ| ≤ 0.00 dB');
 	expect(await page.getByTestId('measured-mag').locator('circle').count()).toBeGreaterThan(300);
-	// The plot's legend names the bench series (issue 16: the dots had no key; fails on the old legend).
+	// The plot's legend names the bench series (the dots had no key; fails on the old legend).
 	await expect(page.getByTestId('legend-measured').first()).toContainText('(measured)');
 
 	// A broken file names its line and column.
@@ -155,7 +155,7 @@ test('a bench file uploads and overlays the plot, and every export downloads', a
 	await expect(page.getByText('Saved as template “Ceramic buck, K-factor”.')).toBeVisible();
 	await page.goto(`/w/${owner.workspaceId}/templates?q=ceramic`);
 	const card = page.locator('[data-testid="template-card"][data-template="Ceramic buck, K-factor"]');
-	// The starter's fc: fsw/10 held within 5·f0 of its LC resonance (issue 16 starter rule).
+	// The starter's fc: fsw/10 held within 5·f0 of its LC resonance.
 	await expect(card).toContainText('Type III · k-factor · fc = fsw × 0.092');
 	await card.getByTestId('apply-rail').selectOption({ label: 'Board VCORE_0V9 / VCORE_0V9' });
 	await card.getByTestId('apply-preview').click();

@@ -1,4 +1,4 @@
-// A ceramic-only rail's stored verdict follows its capacitors' derating (issue #17 part 1): the
+// A ceramic-only rail's stored verdict follows its capacitors' derating: the
 // same network saved twice, the second time with the bank's DC-bias point, temperature class and
 // a temperature range, stores a different verdict (lower margins, T corners named).
 import './support/env';

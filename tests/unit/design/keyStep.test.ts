@@ -1,4 +1,4 @@
-// Arrow keys on a pole/zero marker move the value the screen shows (issue 16: a 1/50-decade step
+// Arrow keys on a pole/zero marker move the value the screen shows (a 1/50-decade step
 // was rounded away by the E-series parts, so plain arrows did nothing).
 import { describe, expect, it } from 'vitest';
 import { keyStepFreq, FINE_STEP_DECADES } from '$lib/design/keyStep';

@@ -1,4 +1,4 @@
-// A new rail's starter design passes its own verdict (issue 16 part 3): the placement picks fc
+// A new rail's starter design passes its own verdict: the placement picks fc
 // below the verdict's fsw limit and a boost's worst RHP zero by itself. On the old starter the
 // boost 5 → 12 V, 1 A, 500 kHz failed (fc 50 kHz above its RHP zero, PM negative at corners) and
 // the bucks missed the PM target at their tolerance corners.

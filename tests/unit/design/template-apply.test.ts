@@ -1,4 +1,4 @@
-// Every demo template applies to a matching rail's starter design (issue 16: "Boost Type III below
+// Every demo template applies to a matching rail's starter design ("Boost Type III below
 // the RHP zero" stored no crossover and failed with "crossoverHz is required for k-factor").
 import { describe, expect, it } from 'vitest';
 import { readForm, starterForm, type RailSummary } from '$lib/design/form';

@@ -1,4 +1,4 @@
-// Issue 16: on a boost rail with a Type II network the screen's verdict said "Gain margin: no −180°
+// On a boost rail with a Type II network the screen's verdict said "Gain margin: no −180°
 // crossing" beside "Closed loop unstable" while the server's analysis found a phase crossover at
 // 3.5 kHz with |T| = +19 dB. On today's main the two read one definition (analysis/margins.ts, the
 // governing phase crossing); this pins it for that very design: the boost 5 → 12 V, 1 A, 500 kHz

@@ -80,7 +80,7 @@ describe('renderBodeSvg', () => {
 		expect(svg).toContain('url(#hatch)'); // the band above fsw/2
 	});
 
-	it('the frequency axis names its unit and a bench series is named in the legend (issue 16; failed before)', () => {
+	it('the frequency axis names its unit and a bench series is named in the legend (failed before)', () => {
 		const bench = { label: 'FRA bench 2', freqHz: [1e3, 1e4], magDb: [30, 10], phaseDeg: [-100, -120] };
 		const svg = renderBodeSvg({ ...plot, measured: [bench] });
 		expect(svg).toContain('>frequency (Hz)</text>');
@@ -174,7 +174,7 @@ describe('buildSignoffPdf', { timeout: 60_000 }, () => {
 		expect(text.split('Page ').length - 1).toBe(t.pages);
 	});
 
-	it('issue 16: an en dash and Ω survive in the PDF, and every verdict row is one line (failed before: "1 k ohm?1 M ohm", rows wrapped)', async () => {
+	it('an en dash and Ω survive in the PDF, and every verdict row is one line (failed before: "1 k ohm?1 M ohm", rows wrapped)', async () => {
 		const doc = { ...specDoc, compensator: { kind: 'type2', parts: { r2: 220, c1: 220e-9, c2: 2.2e-9 }, series: null } };
 		const v = verifyDesign(doc);
 		if ('error' in v) throw new Error(v.error.message);

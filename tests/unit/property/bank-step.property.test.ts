@@ -1,4 +1,4 @@
-// Property (issue #17 part 4): for any valid bank of one to eight branches, every branch with ESR
+// Property: for any valid bank of one to eight branches, every branch with ESR
 // and ESL, a stable loop has a finite load step and reference step, and the partial fractions
 // the steps are built from reproduce the closed-loop output impedance Zo/(1 + T) at jω computed
 // directly from the plant and loop factors (no closed-loop poles involved) [standard Laplace

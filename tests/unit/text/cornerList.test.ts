@@ -1,4 +1,4 @@
-// The corner list of a warning (issue 16: "Vin nom, Iout nom; Vin nom, Iout nom…" repeated).
+// The corner list of a warning ("Vin nom, Iout nom; Vin nom, Iout nom…" repeated).
 import { describe, expect, it } from 'vitest';
 import { cornerListText } from '$lib/verdict/cornerList';
 

@@ -1,4 +1,4 @@
-// The words for status codes and the one date format (issue 16: raw `in-review` and three date forms).
+// The words for status codes and the one date format (raw `in-review` and three date forms).
 import { describe, expect, it } from 'vitest';
 import { formatDateTime } from '$lib/text/dates';
 import { loopStatusText, requestStatusText } from '$lib/text/status';
@@ -26,7 +26,7 @@ describe('formatDateTime', () => {
 	});
 });
 
-describe('an import error reads once (issue 16: "(document.(document): is not valid JSON…" doubled)', () => {
+describe('an import error reads once ("(document.(document): is not valid JSON…" doubled)', () => {
 	it('the API answer and the sentence shown name the JSON problem once', () => {
 		const r = importDesignJson('{ not json');
 		if (r.ok) throw new Error('parsed');

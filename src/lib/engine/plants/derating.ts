@@ -1,5 +1,5 @@
 /**
- * Capacitor derating (issue #17 part 1): the capacitance a ceramic part really has at the
+ * Capacitor derating: the capacitance a ceramic part really has at the
  * operating point, from the typed (nominal, 0 V, 25 °C) value:
  *   C_eff = C · dcBias(V) · temperature(T) · (1 − ageing)
  * - DC bias: measured points (V, C) interpolated linearly from (0 V, C) through them and held

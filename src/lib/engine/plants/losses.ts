@@ -1,5 +1,5 @@
 /**
- * Loss estimate of the power stage (issue #17 part 3), CCM, both switches with rdsOn (the
+ * Loss estimate of the power stage, CCM, both switches with rdsOn (the
  * contract's synchronous stage). Without part data only conduction is counted, and the result
  * says so ("conduction only"); each optional part figure adds its term:
  * - conduction: I_rms²·(rdsOn + DCR) with I_rms² = IL² + ΔiL²/12 (triangular ripple on IL)

@@ -1,5 +1,5 @@
 /**
- * Issue #17 part 5: values far outside practical ranges warn (never refuse) naming the usual
+ * Values far outside practical ranges warn (never refuse) naming the usual
  * range; one RHP-zero crossover rule for the advice and the verdict; no advice to simplify an
  * unstable loop; numbers in warnings in engineering notation with their unit.
  */

@@ -1,4 +1,4 @@
-// Capacitor derating and temperature corners (issue #17 part 1).
+// Capacitor derating and temperature corners.
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';

@@ -1,4 +1,4 @@
-// Light-load behaviour as an input (issue #17 part 2). CCM/DCM boundary Iout,crit = V(1 − D)/(2L·fsw)
+// Light-load behaviour as an input. CCM/DCM boundary Iout,crit = V(1 − D)/(2L·fsw)
 // for the buck [published: E&M Ch. 5, §5.1].
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';

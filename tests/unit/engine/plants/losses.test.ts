@@ -1,4 +1,4 @@
-// Loss breakdown (issue #17 part 3) against a hand calculation.
+// Loss breakdown against a hand calculation.
 import { describe, expect, it } from 'vitest';
 import { lossBreakdown } from '$lib/engine/plants/losses';
 

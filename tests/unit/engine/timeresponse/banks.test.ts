@@ -1,4 +1,4 @@
-// Load and reference steps of banks with six to eight ESL branches (issue #17 part 4): these gave
+// Load and reference steps of banks with six to eight ESL branches: these gave
 // "non-finite output" before the residues were formed without overflow (modal.ts). Each case is
 // checked against scipy.signal.lsim / scipy.signal.step on the closed loop built in state space
 // from the averaged circuit equations (reference/closedloop/generate.py run on reference/banks/cases;
