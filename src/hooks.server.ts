@@ -16,6 +16,7 @@ import { startAnalysisPool } from '$lib/server/analysis-pool';
 import { withSecurityHeaders } from '$lib/server/http/securityHeaders';
 import * as tokens from '$lib/server/services/tokens';
 import { CLIENT_IP_HEADER } from '$lib/server/sign-in-throttle';
+import { closedAuthPathResponse } from '$lib/server/closed-auth-paths';
 import { signInPath } from '$lib/safeRedirect';
 
 /**
@@ -37,6 +38,8 @@ const clientAddress: Handle = async ({ event, resolve }) => {
 };
 
 const identify: Handle = async ({ event, resolve }) => {
+	const closed = closedAuthPathResponse(event.url.pathname);
+	if (closed) return closed;
 	event.locals.user = null;
 	event.locals.session = null;
 	event.locals.authenticatedBy = null;

@@ -4,6 +4,7 @@
 // the display name and password change, and GET /api/v1/home with its bounded lists.
 import './support/env';
 import { eq } from 'drizzle-orm';
+import { SIGN_IN_LIMITS } from '../../src/lib/server/sign-in-throttle';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { can, ROLES } from '../../src/lib/authz';
 import { loopRevision } from '../../src/lib/server/db/schema';
@@ -152,6 +153,26 @@ describe('personal settings', () => {
 		// Never with a token.
 		const fresh = (await user.post('/api/v1/tokens', { name: 'new' })).body.token;
 		expect((await bearer(fresh).post('/api/v1/me/password', { currentPassword: 'a-new-password-1', newPassword: 'b-new-password-2', confirm: 'b-new-password-2' })).status).toBe(403);
+	});
+
+	it("closes better-auth's own /api/auth/change-password, whose wrong passwords our per-account limit would not count", async () => {
+		const user = await signUp(app.origin, 'closedchange');
+		for (const path of ['/api/auth/change-password', '/api/auth/change-password/']) {
+			const tried = await user.post(path, { currentPassword: PASSWORD, newPassword: 'c-new-password-3', revokeOtherSessions: false });
+			expect(tried.status, path).toBe(404);
+			expect(tried.body.error.message).toContain('/api/v1/me/password');
+		}
+		// The password did not change: the old one still signs in.
+		expect((await new Client(app.origin).post('/api/auth/sign-in/email', { email: user.email, password: PASSWORD })).status).toBe(200);
+	});
+
+	it('pauses password changes after SIGN_IN_LIMITS.perAccount wrong current passwords, even a right one', async () => {
+		const user = await signUp(app.origin, 'guesser');
+		const attempt = (currentPassword: string) => user.post('/api/v1/me/password', { currentPassword, newPassword: 'd-new-password-4', confirm: 'd-new-password-4' });
+		for (let i = 0; i < SIGN_IN_LIMITS.perAccount.max; i++) expect((await attempt(`wrong-guess-${i}`)).status).toBe(400);
+		const paused = await attempt(PASSWORD);
+		expect(paused.status).toBe(429);
+		expect(paused.body.error.code).toBe('too-many-attempts');
 	});
 });
 
