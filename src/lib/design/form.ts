@@ -24,12 +24,31 @@ export interface CapacitorRow {
 	esr: string;
 	esl: string;
 	count: string;
-	/** Derating (optional, blank = none): class code, a measured DC-bias point (C per part at V), ageing in %. */
+	/** Derating (optional, blank = none): class code, a DC-bias characteristic, ageing in %. */
 	tempClass?: string;
+	/** 'point': one measured point (biasV, biasC); 'curve': C0/(1 + (V/V0)^k) with C0 = c (biasV0, biasK). Absent = point. */
+	biasKind?: 'point' | 'curve';
 	biasV?: string;
 	biasC?: string;
+	biasV0?: string;
+	biasK?: string;
+	/** Measured points after the first, kept from a document (not typed here) so a save does not drop them. */
+	biasMorePoints?: { v: number; c: number }[];
 	ageing?: string;
 }
+
+/** The document's plant.lightLoad; '' = not said (the older behaviour: DCM only warned about). */
+export type LightLoadChoice = '' | 'forced-ccm' | 'diode-emulation' | 'diode';
+export const LIGHT_LOAD_LABEL: Record<LightLoadChoice, string> = {
+	'': 'Not stated (DCM warned about)',
+	'forced-ccm': 'Forced CCM (synchronous)',
+	'diode-emulation': 'Diode emulation (synchronous, DCM at light load)',
+	diode: 'Diode rectifier (DCM at light load)'
+};
+
+/** The optional part data of the loss estimate (plant.losses), as typed. */
+export const LOSS_KEYS = ['riseTime', 'fallTime', 'coss', 'qrr', 'deadTime', 'bodyDiodeVf', 'diodeVf', 'qg', 'gateDrive', 'coreLoss'] as const;
+export type LossKey = (typeof LOSS_KEYS)[number];
 
 export interface DesignForm {
 	name: string;
@@ -45,6 +64,15 @@ export interface DesignForm {
 	l: string;
 	dcr: string;
 	rdsOn: string;
+	/** RDS(on) rise per °C in % (blank = none), for temperature corners. */
+	rdsOnTempco?: string;
+	/** Light-load behaviour (plant.lightLoad). */
+	lightLoad?: LightLoadChoice;
+	/** Loss part data (blank fields = not known). */
+	losses?: Partial<Record<LossKey, string>>;
+	/** Temperature corners in °C (both blank = none). */
+	tempMin?: string;
+	tempMax?: string;
 	capacitors: CapacitorRow[];
 	vramp: string;
 	feedForward: boolean;
@@ -112,7 +140,25 @@ export const FIELDS: Record<string, FieldSpec> = {
 	a0Db: { label: 'Open-loop gain A0', unit: '', suffix: 'dB', min: 1, max: 200 },
 	gbw: pos('Gain-bandwidth', 'Hz'),
 	spreadSamples: { label: 'Samples N', unit: '', integer: true, min: 1, max: MAX_SAMPLES },
-	spreadSeed: { label: 'Seed', unit: '', integer: true, min: 0, max: 2 ** 32 - 1 }
+	spreadSeed: { label: 'Seed', unit: '', integer: true, min: 0, max: 2 ** 32 - 1 },
+	rdsOnTempco: { label: 'RDS(on) tempco', unit: '', suffix: '%/°C', optional: true, min: 0, max: 5, hint: 'e.g. 0.4 (blank: none)' },
+	tempMin: { label: 'T min', unit: '', suffix: '°C', optional: true, min: -60, max: 200 },
+	tempMax: { label: 'T max', unit: '', suffix: '°C', optional: true, min: -60, max: 200 }
+};
+
+/** Loss part data: the limits of the document's plant.losses (contract/designSchema.ts). */
+const lossField = (label: string, unit: UnitSymbol, max: number): FieldSpec => ({ label, unit, positive: true, allowZero: true, optional: true, max });
+export const LOSS_FIELDS: Record<LossKey, FieldSpec> = {
+	riseTime: lossField('Rise time', 's', 1e-5),
+	fallTime: lossField('Fall time', 's', 1e-5),
+	coss: lossField('Coss / switch', 'F', 1e-6),
+	qrr: lossField('Recovery Qrr', 'C', 1e-5),
+	deadTime: lossField('Dead time', 's', 1e-5),
+	bodyDiodeVf: lossField('Body diode Vf', 'V', 5),
+	diodeVf: lossField('Diode Vf', 'V', 5),
+	qg: lossField('Gate charge', 'C', 1e-5),
+	gateDrive: lossField('Gate drive', 'V', 30),
+	coreLoss: lossField('Core loss', 'W', 1e4)
 };
 
 export const CAPACITOR_FIELDS: Record<'c' | 'esr' | 'esl' | 'count', FieldSpec> = {
@@ -123,9 +169,11 @@ export const CAPACITOR_FIELDS: Record<'c' | 'esr' | 'esl' | 'count', FieldSpec> 
 };
 
 /** The optional derating fields of a capacitor row (blank = none). */
-export const DERATING_FIELDS: Record<'biasV' | 'biasC' | 'ageing', FieldSpec> = {
+export const DERATING_FIELDS: Record<'biasV' | 'biasC' | 'biasV0' | 'biasK' | 'ageing', FieldSpec> = {
 	biasV: pos('DC-bias point V', 'V', { optional: true }),
 	biasC: pos('C at that V (per part)', 'F', { optional: true }),
+	biasV0: pos('Curve V0 (C halves)', 'V', { optional: true, max: 1e4 }),
+	biasK: { label: 'Curve exponent k', unit: '', positive: true, optional: true, max: 10 },
 	ageing: { label: 'Ageing', unit: '', suffix: '%', optional: true, min: 0, max: 50 }
 };
 
@@ -168,12 +216,14 @@ export function specFor(key: string): FieldSpec {
 	if (FIELDS[key]) return FIELDS[key];
 	const cap = /^capacitors\.\d+\.(c|esr|esl|count)$/.exec(key);
 	if (cap) return CAPACITOR_FIELDS[cap[1] as keyof typeof CAPACITOR_FIELDS];
-	const der = /^capacitors\.\d+\.(biasV|biasC|ageing)$/.exec(key);
+	const der = /^capacitors\.\d+\.(biasV|biasC|biasV0|biasK|ageing)$/.exec(key);
 	if (der) return DERATING_FIELDS[der[1] as keyof typeof DERATING_FIELDS];
 	const corner = /^(zeros|poles)\.(\d+)$/.exec(key);
 	if (corner) return pos(`${corner[1] === 'zeros' ? 'fz' : 'fp'}${Number(corner[2]) + 1}`, 'Hz');
 	const part = /^parts\.(\w+)$/.exec(key);
 	if (part && part[1] in PART_FIELDS) return PART_FIELDS[part[1] as PartName];
+	const loss = /^losses\.(\w+)$/.exec(key);
+	if (loss && loss[1] in LOSS_FIELDS) return LOSS_FIELDS[loss[1] as LossKey];
 	return { label: key, unit: '' };
 }
 
@@ -234,6 +284,10 @@ export function readForm(form: DesignForm): FormResult {
 	if (form.topology === 'buck' && vinMin <= vout) set('vinMin', 'a buck needs Vin min > Vout');
 	if (form.topology === 'boost' && vinMax >= vout) set('vinMax', 'a boost needs Vin max < Vout');
 
+	const temperature = readTemperature(form, num, errors);
+	const losses = readLosses(form, num);
+	const rdsOnTempco = blank(form.rdsOnTempco) ? undefined : num('rdsOnTempco', form.rdsOnTempco!) / 100;
+
 	const targets = { crossoverHz: v('fcTarget'), phaseMarginDeg: v('pmTarget'), gainMarginDb: v('gmTarget') };
 	const compensator: Record<string, unknown> = { kind: form.kind };
 	const series =
@@ -284,14 +338,17 @@ export function readForm(form: DesignForm): FormResult {
 			fsw,
 			inductor: { l: v('l'), dcr: v('dcr') },
 			capacitors,
-			rdsOn: v('rdsOn')
+			rdsOn: v('rdsOn'),
+			...(rdsOnTempco !== undefined ? { rdsOnTempco } : {}),
+			...(form.lightLoad ? { lightLoad: form.lightLoad } : {}),
+			...(losses ? { losses } : {})
 		},
 		modulator: { vramp: v('vramp'), feedForward: form.feedForward, delay: v('delay') },
 		feedback: { vref: v('vref'), r1: v('r1') },
 		compensator: compensator as DesignDocumentInput['compensator'],
 		// The verification spec: the verdict of this document never depends on settings elsewhere.
 		targets: { phaseMarginDeg: targets.phaseMarginDeg, gainMarginDb: targets.gainMarginDb, maxCrossoverFraction: form.maxCrossoverFraction },
-		corners: { vin: { min: vinMin, max: vinMax }, iout: { min: ioutMin, max: ioutMax } },
+		corners: { vin: { min: vinMin, max: vinMax }, iout: { min: ioutMin, max: ioutMax }, ...(temperature ? { temperature } : {}) },
 		tolerances,
 		spread: { samples: v('spreadSamples'), seed: v('spreadSeed') }
 	};
@@ -304,19 +361,50 @@ export function readForm(form: DesignForm): FormResult {
 	};
 }
 
-/** A row's optional derating fields as the document's branch fields; a half-entered bias point is a field error. */
+const blank = (s: string | undefined) => !s || s.trim() === '';
+
+/** The temperature corners: both ends or neither; min ≤ max. */
+function readTemperature(form: DesignForm, num: (key: string, text: string) => number, errors: Record<string, string>) {
+	if (blank(form.tempMin) && blank(form.tempMax)) return undefined;
+	if (blank(form.tempMin)) errors.tempMin = 'needs a value when T max is given';
+	if (blank(form.tempMax)) errors.tempMax = 'needs a value when T min is given';
+	if (blank(form.tempMin) || blank(form.tempMax)) return undefined;
+	const min = num('tempMin', form.tempMin!);
+	const max = num('tempMax', form.tempMax!);
+	if (min > max && !errors.tempMin) errors.tempMin = 'must be ≤ T max';
+	return { min, max };
+}
+
+/** The loss part data typed (blank fields left out); undefined when none is typed. */
+function readLosses(form: DesignForm, num: (key: string, text: string) => number) {
+	const out: Partial<Record<LossKey, number>> = {};
+	for (const k of LOSS_KEYS) {
+		const text = form.losses?.[k];
+		if (!blank(text)) out[k] = num(`losses.${k}`, text!);
+	}
+	return Object.keys(out).length ? out : undefined;
+}
+
+type DcBias = { points: { v: number; c: number }[] } | { v0: number; k: number };
+
+/** A row's optional derating fields as the document's branch fields; a half-entered bias point or curve is a field error. */
 function readDerating(row: CapacitorRow, i: number, num: (key: string, text: string) => number, errors: Record<string, string>) {
-	const out: { tempClass?: string; dcBias?: { points: { v: number; c: number }[] }; ageing?: number } = {};
-	const blank = (s: string | undefined) => !s || s.trim() === '';
+	const out: { tempClass?: string; dcBias?: DcBias; ageing?: number } = {};
 	if (!blank(row.tempClass)) {
 		const code = row.tempClass!.trim();
 		if (temperatureClass(code)) out.tempClass = code.toUpperCase();
 		else errors[`capacitors.${i}.tempClass`] = 'must be a class code such as X7R, X5R, X6S or C0G';
 	}
-	if (!blank(row.biasV) || !blank(row.biasC)) {
+	if (row.biasKind === 'curve') {
+		if (!blank(row.biasV0) || !blank(row.biasK)) {
+			if (blank(row.biasV0)) errors[`capacitors.${i}.biasV0`] = 'needs the voltage where C has halved';
+			else if (blank(row.biasK)) errors[`capacitors.${i}.biasK`] = 'needs the curve exponent';
+			else out.dcBias = { v0: num(`capacitors.${i}.biasV0`, row.biasV0!), k: num(`capacitors.${i}.biasK`, row.biasK!) };
+		}
+	} else if (!blank(row.biasV) || !blank(row.biasC)) {
 		if (blank(row.biasV)) errors[`capacitors.${i}.biasV`] = 'needs the voltage of the measured point';
 		else if (blank(row.biasC)) errors[`capacitors.${i}.biasC`] = 'needs the capacitance at that voltage';
-		else out.dcBias = { points: [{ v: num(`capacitors.${i}.biasV`, row.biasV!), c: num(`capacitors.${i}.biasC`, row.biasC!) }] };
+		else out.dcBias = { points: [{ v: num(`capacitors.${i}.biasV`, row.biasV!), c: num(`capacitors.${i}.biasC`, row.biasC!) }, ...(row.biasMorePoints ?? [])] };
 	}
 	if (!blank(row.ageing)) out.ageing = num(`capacitors.${i}.ageing`, row.ageing!) / 100;
 	return out;
@@ -332,6 +420,10 @@ export function fieldForPath(path: string): string | null {
 		'plant.inductor.l': 'l',
 		'plant.inductor.dcr': 'dcr',
 		'plant.rdsOn': 'rdsOn',
+		'plant.rdsOnTempco': 'rdsOnTempco',
+		'plant.lightLoad': 'lightLoad',
+		'corners.temperature.min': 'tempMin',
+		'corners.temperature.max': 'tempMax',
 		'plant.capacitors': 'capacitors',
 		'modulator.vramp': 'vramp',
 		'modulator.delay': 'delay',
@@ -348,6 +440,10 @@ export function fieldForPath(path: string): string | null {
 	if (m) return `capacitors.${m[1]}.${m[2]}`;
 	m = /^plant\.capacitors\.(\d+)\.dcBias\.points\.0\.(v|c)$/.exec(path);
 	if (m) return `capacitors.${m[1]}.${m[2] === 'v' ? 'biasV' : 'biasC'}`;
+	m = /^plant\.capacitors\.(\d+)\.dcBias\.(v0|k)$/.exec(path);
+	if (m) return `capacitors.${m[1]}.${m[2] === 'v0' ? 'biasV0' : 'biasK'}`;
+	m = /^plant\.losses\.(\w+)$/.exec(path);
+	if (m && m[1] in LOSS_FIELDS) return `losses.${m[1]}`;
 	m = /^compensator\.target\.(zeros|poles)Hz(?:\.(\d+))?$/.exec(path);
 	if (m) return `${m[1]}.${m[2] ?? 0}`;
 	m = /^compensator\.parts\.(\w+)$/.exec(path);
@@ -356,18 +452,27 @@ export function fieldForPath(path: string): string | null {
 }
 
 let nextKey = 1;
-/** A branch's derating back into row fields (a curve C0/(1 + (V/V0)^k) shows as its point at V0: half of C). */
+/** A branch's derating back into row fields: a curve as its V0 and k, points as the first point (the rest kept). */
 function deratingRow(b: DocLike['plant']['capacitors'][number]): Partial<CapacitorRow> {
 	const out: Partial<CapacitorRow> = {};
 	if (b.tempClass) out.tempClass = b.tempClass;
-	if (b.ageing) out.ageing = String(Number((b.ageing * 100).toPrecision(6)));
-	if (b.dcBias) {
-		const p = 'points' in b.dcBias ? b.dcBias.points[0] : { v: b.dcBias.v0, c: b.c / 2 };
-		out.biasV = f(p.v, 'V');
-		out.biasC = f(p.c, 'F');
+	if (b.ageing) out.ageing = percentText(b.ageing);
+	if (b.dcBias && 'points' in b.dcBias) {
+		const [first, ...more] = b.dcBias.points;
+		out.biasKind = 'point';
+		out.biasV = f(first.v, 'V');
+		out.biasC = f(first.c, 'F');
+		if (more.length) out.biasMorePoints = more.map((p) => ({ v: p.v, c: p.c }));
+	} else if (b.dcBias) {
+		out.biasKind = 'curve';
+		out.biasV0 = f(b.dcBias.v0, 'V');
+		out.biasK = toField(b.dcBias.k, '', 6);
 	}
 	return out;
 }
+
+/** A fraction as the percent typed in a field (0.03 → "3"). */
+const percentText = (x: number) => String(Number((x * 100).toPrecision(6)));
 
 export const capacitorRow = (c = '22u', esr = '3m', esl = '0', count = '1'): CapacitorRow => ({ key: nextKey++, c, esr, esl, count });
 
@@ -512,8 +617,11 @@ type DocLike = {
 		iout: number;
 		fsw: number;
 		inductor: { l: number; dcr?: number };
-		capacitors: { c: number; esr?: number; esl?: number; count?: number; tempClass?: string; ageing?: number; dcBias?: { points: { v: number; c: number }[] } | { v0: number; k: number } }[];
+		capacitors: { c: number; esr?: number; esl?: number; count?: number; tempClass?: string; ageing?: number; dcBias?: DcBias }[];
 		rdsOn?: number;
+		rdsOnTempco?: number;
+		lightLoad?: Exclude<LightLoadChoice, ''>;
+		losses?: Partial<Record<LossKey, number>>;
 	};
 	modulator: { vramp: number; feedForward?: boolean; delay?: number };
 	feedback: { vref: number; r1: number };
@@ -525,7 +633,7 @@ type DocLike = {
 		opamp?: { a0Db: number; gbw: number };
 	};
 	targets?: { phaseMarginDeg?: number; gainMarginDb?: number; maxCrossoverFraction?: number };
-	corners?: { vin?: { min: number; max: number }; iout?: { min: number; max: number } };
+	corners?: { vin?: { min: number; max: number }; iout?: { min: number; max: number }; temperature?: { min: number; max: number } };
 	tolerances?: DesignDocumentInput['tolerances'];
 	spread?: { samples?: number; seed?: number };
 };
@@ -554,6 +662,11 @@ export function formFromDocument(doc: DocLike, rail: RailSummary | null, gmTarge
 		l: f(p.inductor.l, 'H'),
 		dcr: f(p.inductor.dcr ?? 0, 'Ω'),
 		rdsOn: f(p.rdsOn ?? 0, 'Ω'),
+		rdsOnTempco: p.rdsOnTempco !== undefined ? percentText(p.rdsOnTempco) : '',
+		lightLoad: p.lightLoad ?? '',
+		losses: Object.fromEntries(LOSS_KEYS.map((k) => [k, f(p.losses?.[k], LOSS_FIELDS[k].unit)])),
+		tempMin: doc.corners?.temperature ? String(doc.corners.temperature.min) : '',
+		tempMax: doc.corners?.temperature ? String(doc.corners.temperature.max) : '',
 		capacitors: p.capacitors.map((b) => ({ ...capacitorRow(f(b.c, 'F'), f(b.esr ?? 0, 'Ω'), f(b.esl ?? 0, 'H'), String(b.count ?? 1)), ...deratingRow(b) })),
 		vramp: f(doc.modulator.vramp, 'V'),
 		feedForward: doc.modulator.feedForward ?? false,

@@ -221,6 +221,8 @@ function run(d: DesignDocument, options: AnalyzeOptions): AnalysisDetail {
 		rdsOn: p.rdsOn,
 		inductorCurrent: plant.operatingPoint.inductorCurrent,
 		rippleCurrent: plant.operatingPoint.rippleCurrent,
+		duty: plant.operatingPoint.duty,
+		rectifier: p.lightLoad === 'diode' ? 'diode' : 'synchronous',
 		parts: p.losses
 	}) as AnalysisResponse['losses'];
 	const detail: AnalysisDetail = { response, document: d, plant, plantLoop, compensator, loop, metrics };

@@ -3,7 +3,7 @@
  * A trailing unit is optional in every field; a different known unit is reported, not ignored.
  */
 
-export type UnitSymbol = 'V' | 'A' | 'Ω' | 'H' | 'F' | 'Hz' | 's' | 'S' | 'W' | '';
+export type UnitSymbol = 'V' | 'A' | 'Ω' | 'H' | 'F' | 'Hz' | 's' | 'S' | 'W' | 'C' | '';
 
 /** Accepted spellings of each unit, matched case-insensitively at the end of the text. */
 export const UNIT_ALIASES: Readonly<Record<Exclude<UnitSymbol, ''>, readonly string[]>> = {
@@ -15,7 +15,9 @@ export const UNIT_ALIASES: Readonly<Record<Exclude<UnitSymbol, ''>, readonly str
 	Hz: ['Hz'],
 	s: ['s', 'sec'],
 	S: ['S'],
-	W: ['W']
+	W: ['W'],
+	// Charge (gate charge, reverse-recovery charge): coulomb.
+	C: ['C']
 };
 
 /** Longest alias first, so that `ohms` wins over `s`. */

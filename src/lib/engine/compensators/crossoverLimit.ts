@@ -7,6 +7,7 @@
 import { DEFAULT_MARGIN_TARGETS } from '../contract/targetsSchema';
 import type { EngineWarning } from '../errors';
 import { formatEng } from '../../units/format';
+import { boostRhpZeroOmega } from '../plants/stageModel';
 
 /**
  * fc at or below this fraction of the RHP zero (a fifth) [common practice: design notes put fc at
@@ -32,10 +33,12 @@ export function rhpZeroWarning(fcHz: number | null, rhpZeroHz: number | null): E
 	};
 }
 
-/** Boost RHP zero (D'²R − r)/(2πL) with D' = Vin/Vout and R = Vout/Iout: lowest at Vin min, Iout max. */
+/**
+ * Boost RHP zero in Hz from the stage's ratings, before any model is built: the plant's formula
+ * (plants/stageModel.ts) with the lossless D′ = Vin/Vout and R = Vout/Iout; lowest at Vin min, Iout max.
+ */
 export function boostRhpZeroHz(p: { vin: number; vout: number; iout: number; l: number; rSeries?: number }): number {
-	const dc = p.vin / p.vout;
-	return (dc * dc * (p.vout / p.iout) - (p.rSeries ?? 0)) / (2 * Math.PI * p.l);
+	return boostRhpZeroOmega({ dPrime: p.vin / p.vout, rLoad: p.vout / p.iout, rSeries: p.rSeries ?? 0, l: p.l }) / (2 * Math.PI);
 }
 
 export function crossoverCeilingHz(p: { fswHz: number; maxCrossoverFraction: number; rhpZeroHz: number | null }): number {

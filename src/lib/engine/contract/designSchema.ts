@@ -108,7 +108,9 @@ export const plantSchema = z
 				bodyDiodeVf: nonNegative('V').max(5, { error: 'must be ≤ 5 V' }).optional(),
 				qg: nonNegative('C').max(1e-5, { error: 'must be ≤ 10 µC' }).optional(),
 				gateDrive: nonNegative('V').max(30, { error: 'must be ≤ 30 V' }).optional(),
-				coreLoss: nonNegative('W').max(1e4, { error: 'must be ≤ 10 kW' }).optional()
+				coreLoss: nonNegative('W').max(1e4, { error: 'must be ≤ 10 kW' }).optional(),
+				/** Forward drop of the rectifier diode (plant.lightLoad 'diode'). */
+				diodeVf: nonNegative('V').max(5, { error: 'must be ≤ 5 V' }).optional()
 			})
 			.strict()
 			.optional(),

@@ -35,6 +35,15 @@ export interface StageTransferFunctions {
 	poles: Root[];
 }
 
+/**
+ * The boost's right-half-plane zero, rad/s: ωrhp = (D′²·R − r)/L (docs/formulas.md §2.3; lossless
+ * D′²R/L [published: E&M Table 8.2, recalled]). The one definition: the plant's Gvd, its features
+ * and the crossover rule (compensators/crossoverLimit.ts) all use it.
+ */
+export function boostRhpZeroOmega(p: { dPrime: number; rLoad: number; rSeries: number; l: number }): number {
+	return (p.dPrime * p.dPrime * p.rLoad - p.rSeries) / p.l;
+}
+
 const tf = (gain: number, zeros: Root[], poles: Root[], originPower = 0): FactoredTf => ({
 	gain,
 	originPower,
@@ -72,7 +81,7 @@ export function stageTransferFunctions(p: StageParameters, net: OutputNetwork): 
 		};
 	}
 	const gap = dc * dc * R - r; // D'²R − r > 0, checked by the operating point
-	const rhp = realRoot(-gap / L);
+	const rhp = realRoot(-boostRhpZeroOmega({ dPrime: dc, rLoad: R, rSeries: r, l: L }));
 	return {
 		gvd: tf((R * p.inductorCurrent * gap) / delta0, [...qz, rhp], poles),
 		gvg: tf((dc * R) / delta0, [...qz], poles),
@@ -123,7 +132,7 @@ export function stageFeatures(p: StageParameters, t: StageTransferFunctions): Pl
 	if (esrZeroHz.length > 1) esrZeroHz.sort(ascending);
 	if (selfResonanceHz.length > 1) selfResonanceHz.sort(ascending);
 	const dc = 1 - p.duty;
-	const rhpZeroHz = p.topology === 'boost' ? (dc * dc * p.rLoad - p.rSeries) / (2 * Math.PI * p.l) : null;
+	const rhpZeroHz = p.topology === 'boost' ? boostRhpZeroOmega({ dPrime: dc, rLoad: p.rLoad, rSeries: p.rSeries, l: p.l }) / (2 * Math.PI) : null;
 	return { f0Hz: omega0 / (2 * Math.PI), q, esrZeroHz, selfResonanceHz, rhpZeroHz };
 }
 

@@ -13,7 +13,7 @@ describe('loss breakdown', () => {
 	 *   dead time 20 ns, Vf 0.8 V: 0.8·3·2·20n·400k = 0.0384 W;  gate 8 nC at 5 V: 2·8n·5·400k = 0.032 W;  core 0.15 W
 	 *   total 1.20410 W; η = 15/(15 + 1.20410) = 92.57 %  — against 99.4 % from conduction alone (the issue's complaint)
 	 */
-	const base = { topology: 'buck' as const, vin: 24, vout: 5, iout: 3, fswHz: 400e3, dcr: 0.015, rdsOn: 0.02, inductorCurrent: 3, rippleCurrent: (5 * (1 - 5 / 24)) / (10e-6 * 400e3) };
+	const base = { topology: 'buck' as const, vin: 24, vout: 5, iout: 3, fswHz: 400e3, dcr: 0.015, rdsOn: 0.02, inductorCurrent: 3, rippleCurrent: (5 * (1 - 5 / 24)) / (10e-6 * 400e3), duty: 5 / 24 };
 	it('without part data: conduction only, and says so', () => {
 		const r = lossBreakdown(base);
 		expect(r.basis).toBe('conduction only');
@@ -31,6 +31,22 @@ describe('loss breakdown', () => {
 		expect(r.items.core).toBe(0.15);
 		expect(r.total).toBeCloseTo(1.2041, 3);
 		expect(r.efficiency).toBeCloseTo(0.9257, 3);
+	});
+	/*
+	 * The same stage with a diode rectifier (one switch) [hand-derived from the terms in plants/losses.ts]:
+	 *   conduction: 9.08161·(D·0.020 + 0.015) with D = 5/24: 9.08161·0.0191667 = 0.174064 W (the switch conducts for D only)
+	 *   diode Vf 0.5 V: 0.5·3·(1 − 5/24) = 1.1875 W (its average current IL·D′)
+	 *   Coss of one switch: ½·400p·24²·400k = 0.04608 W; gate drive of one switch: 8n·5·400k = 0.016 W; no dead-time term
+	 */
+	it('with a diode rectifier: the diode drop, one switch, no dead time', () => {
+		const r = lossBreakdown({ ...base, rectifier: 'diode', parts: { diodeVf: 0.5, coss: 400e-12, deadTime: 20e-9, bodyDiodeVf: 0.8, qg: 8e-9, gateDrive: 5 } });
+		expect(r.items.conduction).toBeCloseTo(0.174064, 6);
+		expect(r.items.diode).toBeCloseTo(1.1875, 9);
+		expect(r.items.coss).toBeCloseTo(0.04608, 9);
+		expect(r.items.gateDrive).toBeCloseTo(0.016, 9);
+		expect(r.items.deadTime).toBeUndefined();
+		// A synchronous stage ignores a rectifier-diode Vf it does not have.
+		expect(lossBreakdown({ ...base, parts: { diodeVf: 0.5 } }).items.diode).toBeUndefined();
 	});
 });
 
