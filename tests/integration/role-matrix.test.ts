@@ -143,6 +143,7 @@ const cases: RouteCase[] = [
 	{ method: 'POST', route: '/api/v1/projects/[id]/rails', action: 'rail.create', prepare: async () => ({ path: `/api/v1/projects/${projectId}/rails`, body: railBody(railName()) }) },
 	{ method: 'GET', route: '/api/v1/projects/[id]/board', action: 'rail.read', prepare: async () => ({ path: `/api/v1/projects/${projectId}/board` }) },
 	{ method: 'GET', route: '/api/v1/rails/[id]', action: 'rail.read', prepare: async () => ({ path: `/api/v1/rails/${railId}` }) },
+	{ method: 'GET', route: '/api/v1/rails/[id]/screen', action: 'rail.read', prepare: async () => ({ path: `/api/v1/rails/${railId}/screen` }) },
 	{ method: 'PATCH', route: '/api/v1/rails/[id]', action: 'rail.update', prepare: async () => ({ path: `/api/v1/rails/${railId}`, body: { notes: unique('n') } }) },
 	{ method: 'DELETE', route: '/api/v1/rails/[id]', action: 'rail.delete', prepare: async () => ({ path: `/api/v1/rails/${await freshRail()}` }) },
 	{ method: 'DELETE', route: '/api/v1/rails/[id]/verdict-flag', action: 'rail.update', prepare: async () => ({ path: `/api/v1/rails/${railId}/verdict-flag` }) },

@@ -16,6 +16,8 @@ export interface ApiFailure {
 	message: string;
 	/** Field path → message, as the API's zod validation reported it. */
 	fields: Record<string, string>;
+	/** Whatever else the error carried (a 409's `currentRevision`, a bench file's `issues`). */
+	[detail: string]: unknown;
 }
 
 export type ApiResult<T> = { ok: true; status: number; data: T } | { ok: false; status: number; error: ApiFailure };
@@ -49,6 +51,7 @@ async function call<T>(method: string, url: string, body?: ApiBody, fetchFn: Fet
 		ok: false,
 		status: response.status,
 		error: {
+			...failure,
 			status: response.status,
 			code: failure.code ?? 'http-error',
 			message: failure.message ?? `the server answered HTTP ${response.status}`,

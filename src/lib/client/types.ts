@@ -84,6 +84,52 @@ export interface Board {
 	truncated: boolean;
 }
 
+/** A revision as the rail screen's history lists it (no verdict, no design). */
+export type RevisionSummary = Omit<LoopSummary, 'verification'> & { authorId: string | null };
+
+export interface ReviewRequestRow {
+	id: string;
+	reviewerId: string;
+	reviewerName: string;
+	status: string;
+	note: string | null;
+	createdAt: string;
+	decidedAt: string | null;
+}
+
+/** Who may be asked to sign off a revision (owners and reviewers, not its author). */
+export interface ReviewCandidate {
+	userId: string;
+	name: string;
+	email: string;
+	role: string;
+}
+
+/** A bench file as lists show it (metadata, no measured series). */
+export interface BenchFileRow {
+	id: string;
+	fileName: string;
+	kind: string;
+	points: number;
+	metadata: Record<string, unknown>;
+	createdAt: string;
+	uploaderName: string | null;
+}
+
+/** GET /api/v1/rails/{id}/screen: the rail design screen in one answer. */
+export interface RailScreen {
+	rail: Rail;
+	/** The caller's role in the rail's workspace (null: a name that is not one of ours). */
+	role: string | null;
+	/** The latest revision with its design document (the stored verdict stays out), or null before the first save. */
+	latest: (RevisionSummary & { design: unknown }) | null;
+	/** Newest first, up to 200; `total` counts them all. */
+	history: { items: RevisionSummary[]; total: number };
+	/** The latest revision's review requests and who could be asked; null before the first save. */
+	review: { requests: ReviewRequestRow[]; candidates: ReviewCandidate[] } | null;
+	bench: { items: BenchFileRow[] };
+}
+
 export interface MemberRow {
 	id: string;
 	userId: string;

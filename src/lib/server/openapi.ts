@@ -56,6 +56,7 @@ const OPERATIONS: Operation[] = [
 	{ method: 'post', path: '/projects/{id}/rails', summary: 'Add a rail', action: 'rail.create', body: railCreateSchema, success: 201 },
 	{ method: 'get', path: '/projects/{id}/board', summary: 'The board-health table in one answer: the board, your role, the workspace targets and every rail (up to 1000) with its latest revision and stored verdict headline', action: 'rail.read', success: 200 },
 	{ method: 'get', path: '/rails/{id}', summary: 'One rail', action: 'rail.read', success: 200 },
+	{ method: 'get', path: '/rails/{id}/screen', summary: "The rail design screen in one answer: the rail, your role, the latest revision's design (no stored verdict), its revisions (up to 200), the latest revision's review requests and candidates, and the bench files", action: ['rail.read', 'loop.read'], success: 200 },
 	{ method: 'patch', path: '/rails/{id}', summary: 'Edit a rail (merged with the stored rail, validated whole)', action: 'rail.update', body: railUpdateSchema, success: 200 },
 	{ method: 'delete', path: '/rails/{id}', summary: 'Delete a rail with its loops', action: 'rail.delete', success: 204 },
 	{ method: 'delete', path: '/rails/{id}/verdict-flag', summary: "Acknowledge that re-verification changed the verdict of the rail's latest revision (clears `verdictFlag`)", action: 'rail.update', success: 200 },
