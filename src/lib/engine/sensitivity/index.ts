@@ -1,0 +1,18 @@
+/** Sensitivity of the margins to every part (docs/formulas.md §12). */
+import { analyzeValidatedDesign } from '../analyze';
+import type { ContractError } from '../contract/errors';
+import type { DesignDocument } from '../contract/designSchema';
+import { loopSpecFromDetail } from '../corners/loopModel';
+import type { PartName } from '../corners/variation';
+import { sensitivity, type SensitivityReport } from './sensitivity';
+
+export * from './sensitivity';
+
+/** The ranked sensitivities of a validated document at its nominal point, tolerances from its `tolerances`. */
+export function designSensitivity(doc: DesignDocument): SensitivityReport | ContractError {
+	const detail = analyzeValidatedDesign(doc, { includeResponse: false, closedLoop: false, sections: false });
+	if ('error' in detail) return detail;
+	const tol: Partial<Record<PartName, number>> = {};
+	for (const [name, t] of Object.entries(doc.tolerances ?? {})) if (t && t.tol > 0) tol[name as PartName] = t.tol;
+	return sensitivity(loopSpecFromDetail(detail), tol);
+}
