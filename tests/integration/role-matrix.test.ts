@@ -67,8 +67,10 @@ async function loopInStatus(status: LoopStatus) {
 }
 /** A small analyzer file (frequency, gain, phase) uploaded by the owner; set-up for the bench rows. */
 const BENCH_CSV = 'Frequency (Hz),Gain (dB),Phase (deg)\n1000,40,-95\n10000,20,-120\n40000,0,-125\n100000,-15,-150\n';
-async function freshBench() {
-	return (await owner().post(`/api/v1/rails/${railId}/bench`, { fileName: 'matrix.csv', text: BENCH_CSV, metadata: { vin: 12, iout: 2 } })).body.id as string;
+/** Enough points for a fit (at least ten in the band): an integrator-like slope, invented numbers. */
+const FIT_CSV = ['Frequency (Hz),Gain (dB),Phase (deg)', ...Array.from({ length: 12 }, (_, i) => `${1000 * 10 ** (i / 6)},${40 - (20 * i) / 6},${-95 - 3 * i}`)].join('\n');
+async function freshBench(text = BENCH_CSV) {
+	return (await owner().post(`/api/v1/rails/${railId}/bench`, { fileName: 'matrix.csv', text, metadata: { vin: 12, iout: 2 } })).body.id as string;
 }
 async function freshMember() {
 	const userId = randomUUID();
@@ -190,6 +192,12 @@ const cases: RouteCase[] = [
 		route: '/api/v1/rails/[id]/bench',
 		action: 'bench.upload',
 		prepare: async () => ({ path: `/api/v1/rails/${railId}/bench`, body: { fileName: 'try.csv', text: BENCH_CSV, metadata: {} } })
+	},
+	{
+		method: 'POST',
+		route: '/api/v1/rails/[id]/bench/[benchId]/fit',
+		action: 'rail.read',
+		prepare: async () => ({ path: `/api/v1/rails/${railId}/bench/${await freshBench(FIT_CSV)}/fit`, body: { parameters: [{ name: 'vramp' }], maxIterations: 3 } })
 	},
 	{ method: 'GET', route: '/api/v1/bench/[id]', action: 'rail.read', prepare: async () => ({ path: `/api/v1/bench/${await freshBench()}` }) },
 	{ method: 'DELETE', route: '/api/v1/bench/[id]', action: 'bench.upload', prepare: async () => ({ path: `/api/v1/bench/${await freshBench()}` }) },

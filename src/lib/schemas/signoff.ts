@@ -1,6 +1,7 @@
 // zod schemas of the sign-off, template, bench and import requests, shared by the API routes,
 // the OpenAPI document and the pages. Numbers SI as in the design document.
 import { z } from 'zod';
+import { fitRequestFields, withFitRules } from '../engine/fit/schema';
 
 export const templateFromLoopSchema = z.object({
 	name: z.string().trim().min(1, 'name is required').max(120),
@@ -32,3 +33,16 @@ export const designImportSchema = z
 		baseRevision: z.number().int().min(0).nullable()
 	})
 	.refine((v) => v.text !== undefined || v.document !== undefined, { message: 'send the file as text or the document as document', path: ['text'] });
+
+/**
+ * POST /api/v1/rails/{id}/bench/{benchId}/fit: the fit request (engine/fit/schema.ts) plus which
+ * revision to fit (default the rail's latest) and whether to save the fitted values as the next one.
+ */
+export const benchFitSchema = withFitRules(
+	fitRequestFields.extend({
+		loopId: z.string().min(1).max(36, { error: 'not a revision id' }).optional(),
+		save: z.boolean({ error: 'must be true or false' }).default(false),
+		message: z.string().trim().min(1, { error: 'say what changed' }).max(500, { error: 'at most 500 characters' }).optional()
+	})
+);
+export type BenchFitInput = z.infer<typeof benchFitSchema>;

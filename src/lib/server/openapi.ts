@@ -18,7 +18,7 @@ import {
 	workspaceCreateSchema,
 	workspaceUpdateSchema
 } from '../schemas/workspace';
-import { benchUploadJsonSchema, designImportSchema, templateApplySchema, templateFromLoopSchema } from '../schemas/signoff';
+import { benchFitSchema, benchUploadJsonSchema, designImportSchema, templateApplySchema, templateFromLoopSchema } from '../schemas/signoff';
 import { passwordChangeSchema, profileSchema, tokenSignInSchema } from '../schemas/auth';
 import { ROLES, can, type Action } from '../authz';
 
@@ -94,6 +94,14 @@ const OPERATIONS: Operation[] = [
 		action: 'bench.upload',
 		body: benchUploadJsonSchema,
 		success: 201
+	},
+	{
+		method: 'post',
+		path: '/rails/{id}/bench/{benchId}/fit',
+		summary: 'Fit the uncertain parameters of a revision (loopId, default the latest) to the bench file: fitted values with 95 % intervals, the residual before and after, and the fitted document; `save: true` (owner, engineer) stores it as the next revision. 400 invalid-fit names the field',
+		action: 'rail.read',
+		body: benchFitSchema,
+		success: 200
 	},
 	{ method: 'get', path: '/bench/{id}', summary: 'One bench file with its data and overlay on a revision (?loop=, default the latest): measured fc/PM/GM and the model deviation up to fsw/2', action: 'rail.read', success: 200 },
 	{ method: 'delete', path: '/bench/{id}', summary: 'Delete a bench file', action: 'bench.upload', success: 204 },

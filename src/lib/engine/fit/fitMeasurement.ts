@@ -49,6 +49,9 @@ export interface FittedParameter {
 	/** fitted/typed − 1 (delay: null when typed is 0). */
 	change: number | null;
 	bounds: { low: number; high: number; from: ResolvedParameter['boundsFrom'] };
+	/** The document's tolerance (fraction) and whether the fitted value lies outside typed·(1 ± tol). */
+	tolerance: number | null;
+	outsideTolerance: boolean;
 	/** The estimate sits on a bound: the part may lie outside it, or another parameter explains the data. */
 	atBound: 'low' | 'high' | null;
 	note: string | null;
@@ -235,7 +238,7 @@ export function fitMeasurement(input: FitInput): FitResult | FitError {
 			// ±1.96σ spanning more than a factor of 10 either way: the value is effectively unknown.
 			if (q.kind === 'log' && Z95 * sigma > Math.LN10) note = 'poorly determined by this measurement: fix a parameter with the same effect (L with C, for instance) or widen the band';
 		}
-		if (atBound) note = `at the ${atBound === 'low' ? 'lower' : 'upper'} end of its search range (${q.boundsFrom === 'tolerance' ? 'the tolerance' : q.boundsFrom === 'request' ? 'as asked' : '¼…4 × typed'}): the part may lie outside it, or another parameter explains the difference`;
+		if (atBound) note = `at the ${atBound === 'low' ? 'lower' : 'upper'} end of its search range (${q.boundsFrom === 'request' ? 'as asked' : '¼…4 × typed'}): the part may lie outside it, or another parameter explains the difference`;
 		return {
 			name: q.name,
 			branch: q.branch,
@@ -247,6 +250,8 @@ export function fitMeasurement(input: FitInput): FitResult | FitError {
 			interval,
 			change: q.typed > 0 ? fitted / q.typed - 1 : null,
 			bounds: { low: valueAt(q, q.lower, fsw), high: valueAt(q, q.upper, fsw), from: q.boundsFrom },
+			tolerance: q.tolerance,
+			outsideTolerance: q.tolerance !== null && Math.abs(fitted / q.typed - 1) > q.tolerance,
 			atBound,
 			note
 		};

@@ -10,7 +10,11 @@ import type { LoopSpec } from '../corners/loopModel';
 import { applyVariation, PART_LABELS, type Variation } from '../corners/variation';
 import { BRANCH_PARAMETERS, type FitParameterName, type FitParameterSpec } from './schema';
 
-/** Default search range when the document states no tolerance for the part (× typed). */
+/**
+ * Default search range (× typed). Deliberately wider than a part's tolerance: a fit held inside
+ * the tolerance would pin the part that is really off at the limit and let the others take up
+ * the rest; the result says instead whether the fitted value lies outside the tolerance.
+ */
 export const DEFAULT_FACTOR_RANGE = { min: 0.25, max: 4 } as const;
 
 export interface ResolvedParameter {
@@ -29,7 +33,9 @@ export interface ResolvedParameter {
 	upper: number;
 	start: number;
 	/** Where the bounds came from. */
-	boundsFrom: 'tolerance' | 'request' | 'default';
+	boundsFrom: 'request' | 'default';
+	/** The document's tolerance for the part (fraction), null when it states none or for the delay. */
+	tolerance: number | null;
 }
 
 const UNITS: Record<FitParameterName, string> = { l: 'H', dcr: 'Ω', c: 'F', esr: 'Ω', esl: 'H', vramp: 'V', delay: 's' };
@@ -67,7 +73,8 @@ export function resolveParameters(specs: readonly FitParameterSpec[], spec: Loop
 				name: 'delay', branch: null, label: parameterLabel('delay', null, branches), unit: 's', path: 'modulator.delay',
 				typed: spec.modulator.delayS, kind: 'delay',
 				lower: lowS * fsw, upper: highS * fsw, start: Math.min(Math.max(spec.modulator.delayS * fsw, lowS * fsw), highS * fsw),
-				boundsFrom: p.min !== undefined || p.max !== undefined ? 'request' : 'default'
+				boundsFrom: p.min !== undefined || p.max !== undefined ? 'request' : 'default',
+				tolerance: null
 			});
 			return;
 		}
@@ -76,15 +83,11 @@ export function resolveParameters(specs: readonly FitParameterSpec[], spec: Loop
 			fields[`${at}.name`] = `${parameterLabel(p.name, branch, branches)} is 0 in the design: type a first estimate before fitting it`;
 			return;
 		}
-		const tol = doc.tolerances?.[p.name]?.tol;
 		let range: { min: number; max: number } = DEFAULT_FACTOR_RANGE;
 		let boundsFrom: ResolvedParameter['boundsFrom'] = 'default';
 		if (p.min !== undefined || p.max !== undefined) {
 			range = { min: p.min ?? DEFAULT_FACTOR_RANGE.min, max: p.max ?? DEFAULT_FACTOR_RANGE.max };
 			boundsFrom = 'request';
-		} else if (tol !== undefined && tol >= 0.01) {
-			range = { min: 1 - tol, max: 1 + tol };
-			boundsFrom = 'tolerance';
 		}
 		if (!(range.min < 1 && range.max > 1)) {
 			fields[`${at}.min`] = 'the range must contain the typed value (min < 1 < max)';
@@ -92,7 +95,8 @@ export function resolveParameters(specs: readonly FitParameterSpec[], spec: Loop
 		}
 		out.push({
 			name: p.name, branch, label: parameterLabel(p.name, branch, branches), unit: UNITS[p.name], path: documentPath(p.name, branch),
-			typed, kind: 'log', lower: Math.log(range.min), upper: Math.log(range.max), start: 0, boundsFrom
+			typed, kind: 'log', lower: Math.log(range.min), upper: Math.log(range.max), start: 0, boundsFrom,
+			tolerance: doc.tolerances?.[p.name]?.tol ?? null
 		});
 	});
 	return Object.keys(fields).length ? { ok: false, fields } : { ok: true, parameters: out };

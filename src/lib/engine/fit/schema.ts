@@ -27,8 +27,8 @@ export const fitParameterSchema = z
 		/** Capacitor branch for c, esr, esl (0-based; default 0). */
 		branch: num('index').int({ error: 'must be a whole number' }).min(0, { error: 'must be ≥ 0' }).max(7, { error: 'must be ≤ 7' }).optional(),
 		/**
-		 * Search range as multiples of the typed value (delay: seconds). Absent: the document's
-		 * tolerance for the part (1 ± tol), else 0.25…4 × typed (delay: 0…4 switching periods).
+		 * Search range as multiples of the typed value (delay: seconds). Absent: 0.25…4 × typed
+		 * (delay: 0…4 switching periods); the answer says whether the fit left the tolerance.
 		 */
 		min: num('factor').positive({ error: 'must be > 0' }).optional(),
 		max: num('factor').positive({ error: 'must be > 0' }).optional()
@@ -36,7 +36,8 @@ export const fitParameterSchema = z
 	.strict()
 	.refine((p) => p.min === undefined || p.max === undefined || p.min < p.max, { error: 'min must be < max', path: ['min'] });
 
-export const fitRequestSchema = z
+/** The fit request's fields, without the cross-field rules (so a route can add its own fields). */
+export const fitRequestFields = z
 	.object({
 		parameters: z
 			.array(fitParameterSchema, { error: 'must be a list of parameters' })
@@ -52,15 +53,24 @@ export const fitRequestSchema = z
 		fScale: num('log units').min(1e-4, { error: 'must be ≥ 0.0001' }).max(10, { error: 'must be ≤ 10' }).default(0.05),
 		maxIterations: num('iterations').int({ error: 'must be a whole number' }).min(1, { error: 'must be ≥ 1' }).max(FIT_MAX_ITERATIONS, { error: `must be ≤ ${FIT_MAX_ITERATIONS}` }).default(60)
 	})
-	.strict()
-	.refine((r) => r.startHz === undefined || r.stopHz === undefined || r.startHz < r.stopHz, { error: 'startHz must be < stopHz', path: ['startHz'] })
-	.refine(
-		(r) => {
-			const keys = r.parameters.map((p) => `${p.name}.${BRANCH_PARAMETERS.includes(p.name) ? (p.branch ?? 0) : ''}`);
-			return new Set(keys).size === keys.length;
-		},
-		{ error: 'each parameter at most once', path: ['parameters'] }
-	);
+	.strict();
+
+type FitFieldsShape = { startHz?: number; stopHz?: number; parameters: { name: FitParameterName; branch?: number }[] };
+
+/** The cross-field rules of a fit request: an ordered band, each parameter once. */
+export function withFitRules<T extends z.ZodType<FitFieldsShape>>(schema: T) {
+	return schema
+		.refine((r) => r.startHz === undefined || r.stopHz === undefined || r.startHz < r.stopHz, { error: 'startHz must be < stopHz', path: ['startHz'] })
+		.refine(
+			(r) => {
+				const keys = r.parameters.map((p) => `${p.name}.${BRANCH_PARAMETERS.includes(p.name) ? (p.branch ?? 0) : ''}`);
+				return new Set(keys).size === keys.length;
+			},
+			{ error: 'each parameter at most once', path: ['parameters'] }
+		);
+}
+
+export const fitRequestSchema = withFitRules(fitRequestFields);
 
 export type FitRequest = z.infer<typeof fitRequestSchema>;
 export type FitRequestInput = z.input<typeof fitRequestSchema>;

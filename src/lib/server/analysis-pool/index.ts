@@ -5,6 +5,7 @@ import type { AnalyzeOptions } from '../../engine/analyze';
 import { analysisLimits } from './limits';
 import { AnalysisPool, workerFilename, type PoolStats } from './pool';
 import type { StoredRequest } from './tasks';
+import type { FitDesignInput } from '../../engine/fit';
 
 export { AnalysisPool, workerFilename, type PoolStats } from './pool';
 export { analysisLimits, type AnalysisLimits } from './limits';
@@ -54,4 +55,9 @@ export async function stored(owner: string, request: StoredRequest) {
 /** The verdict of a design document (services/verify.ts is the server's one entry to it). */
 export async function verify(owner: string, document: unknown) {
 	return (await pool()).run(owner, { name: 'verify', input: { document } }, document);
+}
+
+/** A fit of a design to a bench measurement (services/bench.ts fit); over budget answers name the design's fields. */
+export async function fit(owner: string, input: FitDesignInput) {
+	return (await pool()).run(owner, { name: 'fit', input }, input.document);
 }

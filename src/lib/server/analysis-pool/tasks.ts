@@ -6,6 +6,8 @@ import { netlistFromAnalysis, type SpiceOptions } from '../../engine/spice';
 import type { Verification } from '../../engine/verify/types';
 import { verifyDesign } from '../../engine/verify/verifyDesign';
 import { analyzeStored, cornerTraces, stepResponses } from '../services/loop-analysis';
+import { fitDesign, fittedDocument, type FitDesignInput } from '../../engine/fit';
+import { designDocumentSchema } from '../../engine/contract/designSchema';
 
 export interface StoredRequest {
 	design: unknown;
@@ -42,6 +44,14 @@ const tasks = {
 			steps: input.steps ? stepResponses(detail) : null,
 			netlist: input.netlist ? netlistFromAnalysis(detail, input.netlist) : null
 		};
+	},
+	/** A fit of a design's uncertain parameters to a bench measurement, with the document the fitted values make. */
+	fit(input: FitDesignInput) {
+		const result = fitDesign(input);
+		if ('error' in result) return result;
+		// fitDesign accepted the document, so this parse succeeds; it fills the defaults the analysis used.
+		const document = designDocumentSchema.parse(input.document);
+		return { fit: result, document: fittedDocument(document, result) };
 	},
 	/** The verdict of a design document (saves, template use and re-verification). */
 	verify(input: { document: unknown }) {

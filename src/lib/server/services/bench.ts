@@ -13,6 +13,9 @@ import { ApiError } from '../http/errors';
 import { zodFields } from '../http/errors';
 import * as audit from './audit';
 import type { Rail } from './rails';
+import * as loops from './loops';
+import { fitProvenance, type FitRequest } from '../../engine/fit';
+import type { BenchFitInput } from '../../schemas/signoff';
 import type { Actor } from './types';
 
 export type BenchFile = typeof benchFile.$inferSelect;
@@ -133,4 +136,58 @@ export async function overlay(owner: string, row: BenchFile, design: unknown) {
 		deviation: o.deviation.ok ? { ...o.deviation.deviation, perPoint: undefined } : null,
 		deviationNote: o.deviation.ok ? null : o.deviation.message
 	};
+}
+
+/**
+ * Fits the parameters the request marks uncertain of a loop revision to this bench file (in the
+ * analysis pool, for `actor`), at the measurement's Vin and Iout when its metadata gives them.
+ * With `save`, the fitted document becomes the rail's next revision through the ordinary save
+ * (verified like any design; 409 when the fitted revision is no longer the latest); its message
+ * and audit entry say which file, which parameters and the residual before and after.
+ */
+export async function fit(
+	db: Database,
+	actor: Actor,
+	owner: Rail,
+	row: BenchFile,
+	loop: { id: string; revision: number; design: unknown },
+	input: BenchFitInput
+) {
+	const { loopId: _l, save, message, ...request } = input;
+	const meta = row.metadata as { vin?: number; iout?: number };
+	const answer = await analyses.fit(actor.userId, {
+		document: loop.design,
+		measurement: row.series,
+		request: request satisfies FitRequest,
+		measuredKind: row.kind,
+		vin: typeof meta.vin === 'number' ? meta.vin : undefined,
+		iout: typeof meta.iout === 'number' ? meta.iout : undefined
+	});
+	if ('error' in answer) {
+		const status = answer.error.code === 'invalid-fit' ? 400 : 422;
+		throw new ApiError(status, answer.error.code, answer.error.message, answer.error.fields);
+	}
+	let saved: { id: string; revision: number } | null = null;
+	if (save) {
+		const provenance = fitProvenance(answer.fit, row.fileName);
+		const revision = await loops.save(db, actor, owner, { baseRevision: loop.revision, design: answer.document, message: message ?? provenance });
+		await audit.record(db, {
+			workspaceId: owner.workspaceId,
+			actor,
+			action: 'loop.fit',
+			entityType: 'loop',
+			entityId: revision.id,
+			after: {
+				railId: owner.id,
+				revision: revision.revision,
+				fittedFrom: { loopId: loop.id, revision: loop.revision },
+				benchFile: { id: row.id, fileName: row.fileName },
+				parameters: answer.fit.parameters.map((p) => ({ path: p.path, typed: p.typed, fitted: p.fitted, interval: p.interval })),
+				residual: answer.fit.residual,
+				provenance
+			}
+		});
+		saved = { id: revision.id, revision: revision.revision };
+	}
+	return { fit: answer.fit, document: answer.document, against: { loopId: loop.id, revision: loop.revision }, saved };
 }
