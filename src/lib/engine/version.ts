@@ -5,5 +5,7 @@
  * History: 2 = governing margins by smallest |PM| / |GM|, one corner set, verdict from the document's targets.
  * 3 = a crossover above a fifth of the RHP zero at any corner is a caution (compensators/crossoverLimit.ts);
  * plausibility warnings (contract/plausibility.ts) join the stored warnings.
+ * 4 = corners in DCM of a diode-emulation or diode-rectified stage are analysed with the DCM averaged
+ * model (plants/dcmModel.ts) and count in the margins, instead of being left out.
  */
-export const ENGINE_VERSION = '3';
+export const ENGINE_VERSION = '4';

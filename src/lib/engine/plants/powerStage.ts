@@ -1,18 +1,27 @@
 /**
- * Builds the averaged small-signal model (VM, CCM) of a buck or boost at its operating point:
+ * Builds the averaged small-signal model (VM) of a buck or boost at its operating point:
  * operating point, the five transfer functions and the salient features, plus warnings
  * (DCM: the CCM model does not apply [docs/formulas.md §4]; a load within 20 % of the CCM boundary).
+ * A stage the document says enters DCM (diode emulation, diode rectifier) is modelled there with
+ * the DCM averaged model (plants/dcmModel.ts, docs/formulas.md §4.2).
  * Formulas: docs/formulas.md §1–§4.
  */
 import type { EngineWarning } from '../errors';
 import { outputNetwork } from './capacitorBank';
 import { operatingPoint } from './operatingPoint';
 import { stageFeatures, stageTransferFunctions } from './stageModel';
+import { dcmTransferFunctions } from './dcmModel';
 import type { PlantModel, PowerStageInput } from './types';
 import { formatEng } from '../../units/format';
 
-/** Warning code of an operating point in DCM that the document says it enters (diode emulation, diode). */
+/**
+ * Warning code of an operating point in DCM that no model here covers: the corner is left out of
+ * the margins. Only when the DCM model cannot be formed (a non-finite coefficient).
+ */
 export const OUTSIDE_MODEL_CODE = 'dcm-outside-model';
+
+/** Note on an operating point in DCM analysed with the DCM averaged model. */
+export const DCM_MODEL_CODE = 'dcm-averaged-model';
 
 /** A load within 20 % of the CCM boundary is flagged [common practice: margin for L tolerance and load steps]. */
 export const NEAR_BOUNDARY = 1.2;
@@ -35,17 +44,32 @@ export function powerStage(input: PowerStageInput): PlantModel {
 		l: input.l,
 		inductorCurrent: op.inductorCurrent
 	};
-	const t = stageTransferFunctions(params, net);
-	const features = stageFeatures(params, t);
 	const warnings: EngineWarning[] = [];
 	const entersDcm = input.lightLoad === 'diode-emulation' || input.lightLoad === 'diode';
-	if (forced) {
-		// Neither DCM nor its boundary applies.
-	} else if (op.mode === 'dcm' && entersDcm) {
+	const how = input.lightLoad === 'diode' ? 'a diode rectifier' : 'diode emulation';
+	if (!forced && op.mode === 'dcm' && entersDcm) {
+		const dcm = dcmTransferFunctions({ topology: input.topology, vin: input.vin, vout: input.vout, iout: input.iout, l: input.l, fswHz: input.fswHz }, net);
+		if (Number.isFinite(dcm.duty) && Number.isFinite(dcm.gvd.gain) && Number.isFinite(dcm.zn.gain) && dcm.duty > 0 && dcm.duty < 1) {
+			const { duty, ...tfs } = dcm;
+			const dcmOp = { ...op, duty };
+			const t = { ...tfs, network: net };
+			// The boost's RHP zero moves up near fsw in DCM, out of this model's range (formulas §4.2).
+			const features = { ...stageFeatures({ ...params, duty }, t), rhpZeroHz: null };
+			warnings.push({
+				code: DCM_MODEL_CODE,
+				message: `Discontinuous conduction with ${how} (below ${formatEng(op.criticalLoadCurrent, 'A')}; this load ${formatEng(input.iout, 'A')}): analysed with the DCM averaged model, one output pole instead of the LC resonance, duty ${duty.toFixed(3)}; checked against switching simulation up to fsw/10.`
+			});
+			return { topology: input.topology, operatingPoint: dcmOp, features, ...t, warnings };
+		}
 		warnings.push({
 			code: OUTSIDE_MODEL_CODE,
-			message: `Outside the model: with ${input.lightLoad === 'diode' ? 'a diode rectifier' : 'diode emulation'} the inductor current runs discontinuous below ${formatEng(op.criticalLoadCurrent, 'A')} (this load: ${formatEng(input.iout, 'A')}), where the CCM averaged model does not apply; this corner is left out of the margins.`
+			message: `Outside the model: with ${how} the inductor current runs discontinuous below ${formatEng(op.criticalLoadCurrent, 'A')} (this load: ${formatEng(input.iout, 'A')}) and the DCM model cannot be formed here; this corner is left out of the margins.`
 		});
+	}
+	const t = stageTransferFunctions(params, net);
+	const features = stageFeatures(params, t);
+	if (forced || (op.mode === 'dcm' && entersDcm)) {
+		// Forced CCM: neither DCM nor its boundary applies. Outside the model: said above.
 	} else if (op.mode === 'dcm') {
 		warnings.push({
 			code: 'dcm-operating-point',

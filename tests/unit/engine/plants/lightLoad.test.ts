@@ -46,15 +46,16 @@ describe('light load', () => {
 		expect(model.reason).toMatch(/discontinuous/);
 	});
 
-	it('diode emulation: the DCM corner is marked outside the model, said plainly, and left out of the margins', () => {
+	it('diode emulation: the DCM corner is analysed with the DCM averaged model (plants/dcmModel.ts) and counted', () => {
 		const v = verifyDesign(doc('diode-emulation', onePercent)) as Verification;
-		const model = v.rows.find((x) => x.metric === 'model')!;
-		expect(model.status).toBe('caution');
-		expect(model.reason).toMatch(/^Outside the model: with diode emulation the inductor current runs discontinuous below/);
-		expect(model.corner).toMatch(/Iout min/);
-		for (const w of Object.values(v.worst)) if (w) expect(w.corner).not.toMatch(/Iout min/);
+		const light = v.corners.list.filter((c) => c.label.includes('Iout min'));
+		expect(light.length).toBeGreaterThan(0);
+		for (const c of light) {
+			expect(c.warnings).toContain('dcm-averaged-model');
+			expect(c.warnings).not.toContain('dcm-outside-model');
+		}
+		expect(v.warnings.find((w) => w.code === 'dcm-averaged-model')!.message).toMatch(/^Discontinuous conduction with diode emulation/);
 		const forced = verifyDesign(doc('forced-ccm', onePercent)) as Verification;
-		// The forced-CCM verdict counts the light-load corner; diode emulation does not.
 		expect(v.corners.count).toBe(forced.corners.count);
 	});
 });
