@@ -29,6 +29,9 @@
  *   `verifyValidatedDesign(document)`: operating × tolerance corners, worst PM/GM/fc with their
  *   corners, stability, spread yield, warnings per corner, pass/caution/fail against `targets`,
  *   stamped with `ENGINE_VERSION`.
+ * - Switching check (switching/): `switchingCheckOfDesign(doc, {freqHz?, onProgress?})` → the
+ *   periodic orbit, its Floquet multipliers and the loop gain measured on the switched circuit
+ *   beside the averaged margins (docs/formulas.md §13).
  */
 export * from './math';
 export * from './tf';
@@ -40,4 +43,5 @@ export * from './contract';
 export * from './analyze';
 export * from './verify';
 export * from './pipeline';
+export * from './switching';
 export { ENGINE_VERSION } from './version';

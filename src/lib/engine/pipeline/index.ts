@@ -1,2 +1,3 @@
 /** Document → model inputs (one place; model folders never see the document). */
 export * from './documentModel';
+export * from './switchingCircuit';

@@ -12,7 +12,7 @@ const B13 = [
 ];
 const THETA13 = 5.371920351148152;
 
-function matMul(a: Float64Array, b: Float64Array, n: number): Float64Array {
+export function matMul(a: Float64Array, b: Float64Array, n: number): Float64Array {
 	const out = new Float64Array(n * n);
 	for (let i = 0; i < n; i++) {
 		for (let k = 0; k < n; k++) {

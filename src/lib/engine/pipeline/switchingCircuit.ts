@@ -1,0 +1,65 @@
+/**
+ * The analysed design mapped to the switching model's circuit (switching/circuit.ts): the same
+ * effective capacitor branches, series resistance and load as the averaged plant, the compensator
+ * parts that were built (rounded when a series is set) and the document's op-amp model.
+ */
+import { analyzeDesignDetailed, type AnalysisDetail } from '../analyze';
+import type { ContractError } from '../contract/errors';
+import type { SwitchingCircuitInput } from '../switching/circuit';
+import { switchingCheck, type SwitchingCheckInput, type SwitchingCheckOptions, type SwitchingCheckResult } from '../switching/check';
+import type { NetworkParts } from '../synthesis/networks';
+import { rampAmplitude } from '../plants/modulator';
+import { modulatorInputOf, stageInputOf } from './documentModel';
+import { outputNetwork } from '../plants/capacitorBank';
+
+export function switchingCircuitOf(detail: AnalysisDetail): SwitchingCircuitInput {
+	const d = detail.document;
+	const op = detail.plant.operatingPoint;
+	const report = detail.compensator.rounded ?? detail.compensator.ideal;
+	const parts = report.parts;
+	const network = {
+		kind: detail.compensator.kind,
+		...parts,
+		rb: parts.rb ?? null,
+		...(detail.compensator.kind === 'type2-ota' ? { ro: parts.ro ?? null } : {})
+	} as unknown as NetworkParts;
+	return {
+		topology: d.plant.topology,
+		vin: d.plant.vin,
+		rSeries: op.rSeries,
+		l: d.plant.inductor.l,
+		rLoad: op.rLoad,
+		branches: outputNetwork(stageInputOf(d).capacitors).branches,
+		network,
+		opamp: d.compensator.kind === 'type2-ota' ? null : (d.compensator.opamp ?? null),
+		vref: d.feedback.vref,
+		vramp: rampAmplitude(modulatorInputOf(d), d.plant.vin),
+		fswHz: d.plant.fsw
+	};
+}
+
+/** The switching check's input for an analysed design (averaged figures from its built loop). */
+export function switchingCheckInputOf(detail: AnalysisDetail): SwitchingCheckInput {
+	const op = detail.plant.operatingPoint;
+	return {
+		circuit: switchingCircuitOf(detail),
+		averagedLoop: detail.loop,
+		averagedCompensator: detail.compensator.built,
+		averaged: { crossoverHz: detail.metrics.crossoverHz, phaseMarginDeg: detail.metrics.phaseMarginDeg },
+		duty: op.duty,
+		inductorCurrent: op.inductorCurrent,
+		vout: detail.document.plant.vout,
+		delayS: detail.document.modulator.delay
+	};
+}
+
+/**
+ * The switching check of a design document (any JSON value): the averaged analysis first (its
+ * built network, its margins), then the switching model; a document the engine refuses comes
+ * back as the contract error.
+ */
+export function switchingCheckOfDesign(doc: unknown, options: SwitchingCheckOptions = {}): SwitchingCheckResult | ContractError {
+	const detail = analyzeDesignDetailed(doc, { includeResponse: false, closedLoop: false, sections: false });
+	if ('error' in detail) return detail;
+	return switchingCheck(switchingCheckInputOf(detail), options);
+}

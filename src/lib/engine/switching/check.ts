@@ -1,0 +1,275 @@
+/**
+ * The switching check of a design: the periodic orbit and its multipliers, the loop gain measured
+ * on the switching model at about ten frequencies, its crossover and phase margin beside the
+ * averaged model's, and a caution when they part by more than the stated tolerance
+ * (docs/formulas.md §13.5). Voltage mode, CCM with synchronous switches; a delay is not modelled.
+ * Peak current mode would enter as a second comparator condition in cycle.ts.
+ */
+import { evaluate, evaluatePolar } from '../tf/evaluate';
+import type { FactoredTf } from '../tf/types';
+import { formatEng } from '../../units/format';
+import { switchedSystem, type SwitchingCircuitInput } from './circuit';
+import { Propagator } from './cycle';
+import { measureLoopGain, periodsFor, type LoopGainPoint } from './measure';
+import { periodicSteadyState, readMultipliers, type MultiplierReading, type PeriodicOrbit } from './steadyState';
+
+/** The switching model and the averaged one agree when PM is within this many degrees … */
+export const PM_TOLERANCE_DEG = 3;
+/** … and fc within this fraction. */
+export const FC_TOLERANCE = 0.1;
+/** Default injection: the duty cycle moves by this much peak (averaged-model estimate). */
+export const DEFAULT_DUTY_MODULATION = 1e-3;
+
+export interface SwitchingCheckInput {
+	circuit: SwitchingCircuitInput;
+	/** Averaged loop T and compensator Gc (for the injection amplitude and the phase branch). */
+	averagedLoop: FactoredTf;
+	averagedCompensator: FactoredTf;
+	averaged: { crossoverHz: number | null; phaseMarginDeg: number | null };
+	/** Averaged operating point: duty, inductor current and output voltage (the shooting's first guess). */
+	duty: number;
+	inductorCurrent: number;
+	vout: number;
+	delayS: number;
+}
+
+export interface SwitchingCheckOptions {
+	/** Frequencies to measure, Hz [a decade each side of fc and fsw/10 … fsw/3]. */
+	freqHz?: readonly number[];
+	dutyModulation?: number;
+	/** Called after each measurement, with the count done and the total planned. */
+	onProgress?: (done: number, total: number) => void;
+}
+
+export interface SwitchingPoint extends LoopGainPoint {
+	/** The measured phase on the averaged model's 360° branch. */
+	phaseUnwrappedDeg: number;
+	averagedMagDb: number;
+	averagedPhaseDeg: number;
+}
+
+export interface SwitchingCheckResult {
+	status: 'agrees' | 'differs' | 'not-run';
+	reason: string | null;
+	orbit: {
+		duty: number;
+		valleyCurrent: number;
+		peakCurrent: number;
+		multipliers: { re: number; im: number }[];
+		spectralRadius: number;
+		reading: MultiplierReading;
+		words: string;
+		/** Slope of the control voltage at the turn-off instant over the ramp's slope. */
+		controlSlopeRatio: number;
+	} | null;
+	points: SwitchingPoint[];
+	switching: { crossoverHz: number | null; phaseMarginDeg: number | null };
+	averaged: { crossoverHz: number | null; phaseMarginDeg: number | null };
+	tolerance: { phaseMarginDeg: number; crossoverFraction: number };
+	/** T at the point nearest fc measured again at half the amplitude. */
+	linearity: { freqHz: number; deltaDb: number; deltaDeg: number } | null;
+	caution: string | null;
+	notes: string[];
+}
+
+const notRun = (input: SwitchingCheckInput, reason: string): SwitchingCheckResult => ({
+	status: 'not-run',
+	reason,
+	orbit: null,
+	points: [],
+	switching: { crossoverHz: null, phaseMarginDeg: null },
+	averaged: input.averaged,
+	tolerance: { phaseMarginDeg: PM_TOLERANCE_DEG, crossoverFraction: FC_TOLERANCE },
+	linearity: null,
+	caution: null,
+	notes: []
+});
+
+/** First guess of the orbit: the averaged operating point, the network at its DC state. */
+function initialGuess(input: SwitchingCheckInput, names: string[], n: number): Float64Array {
+	const c = input.circuit;
+	const x = new Float64Array(n);
+	const vo = input.duty * c.vramp;
+	const a0 = c.opamp && c.network.kind !== 'type2-ota' ? 10 ** (c.opamp.a0Db / 20) : Infinity;
+	const vMinus = c.vref - vo / a0;
+	const ota = c.network.kind === 'type2-ota';
+	names.forEach((name, i) => {
+		if (name === 'iL') x[i] = input.inductorCurrent;
+		else if (name.startsWith('vBank')) x[i] = input.vout;
+		else if (name === 'vF' || (name === 'vC1' && !ota)) x[i] = vMinus - vo; // no DC current in R2
+		else if (name === 'vC3') x[i] = input.vout - vMinus;
+		else if (name === 'vo' || (name === 'vC1' && ota)) x[i] = vo;
+	});
+	x[n - 3] = 1;
+	x[n - 1] = 1;
+	return x;
+}
+
+export function orbitOf(input: SwitchingCheckInput): { orbit: PeriodicOrbit; prop: Propagator } {
+	const sys = switchedSystem(input.circuit, { omega: 0, amplitude: 0 });
+	const prop = new Propagator(sys, input.circuit.fswHz, input.circuit.vramp);
+	const orbit = periodicSteadyState(prop, initialGuess(input, sys.names, sys.n));
+	return { orbit, prop };
+}
+
+/**
+ * The default frequencies: fc × {0.1, 0.2, 0.5, 2, 5, 10} and fsw/10, fsw/5, fsw/3, none above
+ * fsw/3 (at fsw/2 the modulator's sampling dominates and no averaged figure is comparable).
+ */
+export function defaultCheckFrequencies(fcHz: number | null, fswHz: number): number[] {
+	const fc = fcHz ?? fswHz / 20;
+	const list = [0.1, 0.2, 0.5, 2, 5, 10].map((k) => k * fc).concat([fswHz / 10, fswHz / 5, fswHz / 3]);
+	return list.filter((f) => f > 0 && f <= (fswHz / 3) * (1 + 1e-9));
+}
+
+export function switchingCheck(input: SwitchingCheckInput, options: SwitchingCheckOptions = {}): SwitchingCheckResult {
+	const c = input.circuit;
+	if (input.delayS > 0) return notRun(input, `The loop delay (${formatEng(input.delayS, 's')}) is not in the switching model.`);
+	const { orbit, prop } = orbitOf(input);
+	if (!orbit.converged) return notRun(input, 'The switching model found no periodic steady state (the shooting did not converge).');
+	const reading = readMultipliers(orbit.multipliers);
+	const rate = prop.marginRate(orbit.cycle.xOff) + c.vramp * c.fswHz;
+	const orbitReport = {
+		duty: orbit.duty,
+		valleyCurrent: orbit.valleyCurrent,
+		peakCurrent: orbit.cycle.xOff[prop.sys.iL],
+		multipliers: orbit.multipliers.map((z) => ({ re: z.re, im: z.im })),
+		spectralRadius: orbit.spectralRadius,
+		reading,
+		words: multiplierWords(reading, orbit.spectralRadius, c.fswHz),
+		controlSlopeRatio: rate / (c.vramp * c.fswHz)
+	};
+	const notes: string[] = [];
+	if (orbit.valleyCurrent < 0) {
+		notes.push(
+			`The inductor current reverses each period (valley ${formatEng(orbit.valleyCurrent, 'A')}): modelled with synchronous switches; a diode or diode emulation would run discontinuous, which this check does not model.`
+		);
+	}
+	if (reading !== 'stable') {
+		return { ...notRun(input, orbitReport.words), orbit: orbitReport };
+	}
+
+	const requested = options.freqHz ?? defaultCheckFrequencies(input.averaged.crossoverHz, c.fswHz);
+	const periodsWanted = [...new Set(requested.map((f) => periodsFor(c.fswHz, f)))];
+	const fcAvg = input.averaged.crossoverHz;
+	if (!options.freqHz && fcAvg !== null && fcAvg < c.fswHz / 3) {
+		const nc = c.fswHz / fcAvg;
+		for (const p of [Math.max(3, Math.floor(nc)), Math.max(3, Math.ceil(nc))]) if (!periodsWanted.includes(p)) periodsWanted.push(p);
+	}
+	const total = periodsWanted.length + 1;
+	const modulation = options.dutyModulation ?? DEFAULT_DUTY_MODULATION;
+	const ctx = { circuit: c, orbit };
+	const amplitudeAt = (freqHz: number) => {
+		const omega = 2 * Math.PI * freqHz;
+		const t = evaluate(input.averagedLoop, omega);
+		const gc = evaluate(input.averagedCompensator, omega);
+		const onePlusT = Math.hypot(1 + t.re, t.im);
+		return (modulation * c.vramp * onePlusT) / Math.max(Math.hypot(gc.re, gc.im), 1e-12);
+	};
+	const points: SwitchingPoint[] = [];
+	let done = 0;
+	for (const p of periodsWanted.sort((a, b) => b - a)) {
+		const f = c.fswHz / p;
+		points.push(withAveraged(measureLoopGain(ctx, p, amplitudeAt(f)), input.averagedLoop));
+		options.onProgress?.(++done, total);
+	}
+	const switching = crossoverOf(points);
+	// Linearity: the point nearest the crossover again at half the amplitude.
+	let linearity: SwitchingCheckResult['linearity'] = null;
+	const near = nearest(points, switching.crossoverHz ?? fcAvg ?? c.fswHz / 10);
+	if (near) {
+		const half = measureLoopGain(ctx, near.periods, near.amplitude / 2);
+		linearity = { freqHz: near.freqHz, deltaDb: half.magDb - near.magDb, deltaDeg: wrap180(half.phaseDeg - near.phaseDeg) };
+	}
+	options.onProgress?.(total, total);
+
+	let caution: string | null = null;
+	const dPm = switching.phaseMarginDeg !== null && input.averaged.phaseMarginDeg !== null ? switching.phaseMarginDeg - input.averaged.phaseMarginDeg : null;
+	const fcRatio = switching.crossoverHz !== null && fcAvg !== null ? switching.crossoverHz / fcAvg : null;
+	const pmOff = dPm !== null && Math.abs(dPm) > PM_TOLERANCE_DEG;
+	const fcOff = fcRatio !== null && Math.abs(fcRatio - 1) > FC_TOLERANCE;
+	const missing = (switching.crossoverHz === null) !== (fcAvg === null);
+	if (pmOff || fcOff || missing) {
+		caution = cautionWords(input, switching, orbitReport.controlSlopeRatio, dPm, fcRatio);
+	}
+	return {
+		status: caution ? 'differs' : 'agrees',
+		reason: null,
+		orbit: orbitReport,
+		points: points.sort((a, b) => a.freqHz - b.freqHz),
+		switching,
+		averaged: input.averaged,
+		tolerance: { phaseMarginDeg: PM_TOLERANCE_DEG, crossoverFraction: FC_TOLERANCE },
+		linearity,
+		caution,
+		notes
+	};
+}
+
+function withAveraged(p: LoopGainPoint, loop: FactoredTf): SwitchingPoint {
+	// The averaged model's unwrapped phase (factored evaluation, §7.6) picks the 360° branch.
+	const avg = evaluatePolar(loop, 2 * Math.PI * p.freqHz);
+	const k = Math.round((avg.phaseDeg - p.phaseDeg) / 360);
+	return { ...p, phaseUnwrappedDeg: p.phaseDeg + 360 * k, averagedMagDb: avg.magDb, averagedPhaseDeg: avg.phaseDeg };
+}
+
+const wrap180 = (deg: number) => deg - 360 * Math.round(deg / 360);
+
+function nearest(points: readonly SwitchingPoint[], freqHz: number): SwitchingPoint | null {
+	let best: SwitchingPoint | null = null;
+	for (const p of points) if (!best || Math.abs(Math.log(p.freqHz / freqHz)) < Math.abs(Math.log(best.freqHz / freqHz))) best = p;
+	return best;
+}
+
+/** The first downward 0 dB crossing of the measured points, interpolated in log f. */
+export function crossoverOf(points: readonly SwitchingPoint[]): { crossoverHz: number | null; phaseMarginDeg: number | null } {
+	const sorted = [...points].sort((a, b) => a.freqHz - b.freqHz);
+	for (let i = 0; i + 1 < sorted.length; i++) {
+		const a = sorted[i];
+		const b = sorted[i + 1];
+		if (a.magDb > 0 && b.magDb <= 0) {
+			const u = a.magDb / (a.magDb - b.magDb);
+			const lf = Math.log(a.freqHz) + u * (Math.log(b.freqHz) - Math.log(a.freqHz));
+			const phase = a.phaseUnwrappedDeg + u * (b.phaseUnwrappedDeg - a.phaseUnwrappedDeg);
+			return { crossoverHz: Math.exp(lf), phaseMarginDeg: wrap180(180 + phase) };
+		}
+	}
+	return { crossoverHz: null, phaseMarginDeg: null };
+}
+
+function multiplierWords(reading: MultiplierReading, radius: number, fswHz: number): string {
+	switch (reading) {
+		case 'period-two':
+			return 'The switching alternates from one period to the next (period two, a subharmonic at fsw/2): the averaged model cannot show this.';
+		case 'unstable':
+			return `The periodic operation is unstable from cycle to cycle (largest multiplier ${radius.toFixed(3)}).`;
+		case 'near-period-two':
+			return 'Stable, but close to alternating from one period to the next (a multiplier near −1): expect ringing at fsw/2.';
+		default: {
+			const cycles = radius > 0 ? Math.log(0.5) / Math.log(radius) : 0;
+			return `Stable from cycle to cycle: a disturbance halves in about ${Math.max(1, Math.round(cycles))} switching periods (${formatEng(Math.max(1, cycles) / fswHz, 's')}).`;
+		}
+	}
+}
+
+function cautionWords(
+	input: SwitchingCheckInput,
+	sw: { crossoverHz: number | null; phaseMarginDeg: number | null },
+	slopeRatio: number,
+	dPm: number | null,
+	fcRatio: number | null
+): string {
+	const parts: string[] = [];
+	if (dPm !== null) parts.push(`phase margin ${sw.phaseMarginDeg!.toFixed(1)}° against ${input.averaged.phaseMarginDeg!.toFixed(1)}° averaged`);
+	if (fcRatio !== null) parts.push(`crossover ${formatEng(sw.crossoverHz!, 'Hz')} against ${formatEng(input.averaged.crossoverHz!, 'Hz')}`);
+	if (sw.crossoverHz === null && input.averaged.crossoverHz !== null) parts.push('no crossover found at the measured frequencies');
+	const causes: string[] = [];
+	if (Math.abs(slopeRatio) > 0.02) {
+		causes.push(
+			`output ripple reaches the comparator through the network's high-frequency gain: at the turn-off instant the control voltage moves at ${Math.round(slopeRatio * 100)} % of the ramp's slope, so the modulator's gain is not 1/Vramp`
+		);
+	}
+	causes.push('a light load, where the ripple is large against the DC current');
+	if ((input.averaged.crossoverHz ?? 0) > input.circuit.fswHz / 10) causes.push('a crossover near fsw/2, where the modulator samples the control voltage once per period');
+	return `The switching model differs from the averaged one (${parts.join('; ')}; tolerance ${PM_TOLERANCE_DEG}° and ${Math.round(FC_TOLERANCE * 100)} % in fc). Usual causes: ${causes.join('; ')}.`;
+}
