@@ -144,6 +144,7 @@ const cases: RouteCase[] = [
 	{ method: 'GET', route: '/api/v1/projects/[id]/rails', action: 'rail.read', prepare: async () => ({ path: `/api/v1/projects/${projectId}/rails` }) },
 	{ method: 'POST', route: '/api/v1/projects/[id]/rails', action: 'rail.create', prepare: async () => ({ path: `/api/v1/projects/${projectId}/rails`, body: railBody(railName()) }) },
 	{ method: 'GET', route: '/api/v1/projects/[id]/board', action: 'rail.read', prepare: async () => ({ path: `/api/v1/projects/${projectId}/board` }) },
+	{ method: 'GET', route: '/api/v1/rails', action: 'rail.read', prepare: async () => ({ path: `/api/v1/rails?workspace=${ws()}` }) },
 	{ method: 'GET', route: '/api/v1/rails/[id]', action: 'rail.read', prepare: async () => ({ path: `/api/v1/rails/${railId}` }) },
 	{ method: 'GET', route: '/api/v1/rails/[id]/screen', action: 'rail.read', prepare: async () => ({ path: `/api/v1/rails/${railId}/screen` }) },
 	{ method: 'PATCH', route: '/api/v1/rails/[id]', action: 'rail.update', prepare: async () => ({ path: `/api/v1/rails/${railId}`, body: { notes: unique('n') } }) },

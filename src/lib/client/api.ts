@@ -78,10 +78,3 @@ export async function apiLoad<T>(fetchFn: Fetch, url: string, here?: URL): Promi
 	if (result.status === 401 && here) redirect(303, signInPath(here.pathname + here.search));
 	error(result.status === 0 ? 503 : result.status, result.error.message);
 }
-
-/** Like `api.get` but throws the API's message. Remaining $effect loaders use it until they move to load functions. */
-export async function getOrThrow<T>(url: string): Promise<T> {
-	const result = await api.get<T>(url);
-	if (!result.ok) throw new Error(result.error.message);
-	return result.data;
-}

@@ -130,6 +130,58 @@ export interface RailScreen {
 	bench: { items: BenchFileRow[] };
 }
 
+/** Where a template is in use: a rail whose latest revision was placed from it. */
+export interface TemplateUse {
+	railId: string;
+	railName: string;
+	projectId: string;
+	revision: number;
+	status: LoopStatus;
+}
+
+/** GET /api/v1/templates items: a shared compensator strategy and the rails using it. */
+export interface TemplateRow {
+	id: string;
+	workspaceId: string;
+	name: string;
+	description: string | null;
+	topology: 'buck' | 'boost' | null;
+	compensator: unknown;
+	rails: TemplateUse[];
+}
+
+/** GET /api/v1/rails items: a rail of the workspace with its board's name. */
+export interface WorkspaceRail {
+	id: string;
+	name: string;
+	topology: 'buck' | 'boost';
+	fsw: number;
+	projectId: string;
+	projectName: string;
+}
+
+interface QueueEntry {
+	loopId: string;
+	revision: number;
+	status: LoopStatus;
+	message: string;
+	authorId: string | null;
+	authorName: string | null;
+	createdAt: string;
+	railId: string;
+	railName: string;
+	projectId: string;
+	projectName: string;
+}
+
+/** GET /api/v1/reviews: the caller's review queue in one workspace. */
+export interface ReviewQueue {
+	/** Revisions the caller was asked to sign off, open ones first, with their answer. */
+	assigned: (QueueEntry & { requestStatus: string; requestedAt: string; decidedAt: string | null; note: string | null })[];
+	/** Every other revision waiting in review. */
+	waiting: QueueEntry[];
+}
+
 export interface MemberRow {
 	id: string;
 	userId: string;

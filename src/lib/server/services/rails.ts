@@ -5,7 +5,7 @@ import { randomUUID } from 'node:crypto';
 import { asc, count, eq, max } from 'drizzle-orm';
 import type { z } from 'zod';
 import type { Database } from '../db';
-import { loopRevision, rail } from '../db/schema';
+import { loopRevision, project, rail } from '../db/schema';
 import type { Page, PageQuery } from '../http/request';
 import { invalid } from '../http/errors';
 import { railSchema, type RailInput, type railUpdateSchema } from '../../schemas/workspace';
@@ -51,6 +51,25 @@ export async function list(db: Database, projectId: string, page: PageQuery) {
 		db.select({ total: count() }).from(rail).where(eq(rail.projectId, projectId))
 	]);
 	return { items: rows, page: { ...page, total } } satisfies Page<unknown>;
+}
+
+/** Most rails one workspace list answers (`truncated` in the page total beyond). */
+export const WORKSPACE_RAILS_MAX = 1000;
+
+/** Every rail of a workspace with its board's name, by board then rail name: what a rail picker lists. */
+export async function listInWorkspace(db: Database, workspaceId: string, page: PageQuery) {
+	const [items, [{ total }]] = await Promise.all([
+		db
+			.select({ id: rail.id, name: rail.name, topology: rail.topology, fsw: rail.fsw, projectId: project.id, projectName: project.name })
+			.from(rail)
+			.innerJoin(project, eq(project.id, rail.projectId))
+			.where(eq(rail.workspaceId, workspaceId))
+			.orderBy(asc(project.name), asc(rail.name))
+			.limit(page.limit)
+			.offset(page.offset),
+		db.select({ total: count() }).from(rail).where(eq(rail.workspaceId, workspaceId))
+	]);
+	return { items, page: { ...page, total } } satisfies Page<unknown>;
 }
 
 export async function get(db: Database, id: string): Promise<Rail | null> {

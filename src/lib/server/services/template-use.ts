@@ -5,7 +5,7 @@
 import { and, desc, eq, inArray, max } from 'drizzle-orm';
 import type { z } from 'zod';
 import type { Database } from '../db';
-import { loopRevision, rail, template } from '../db/schema';
+import { loopRevision, rail } from '../db/schema';
 import type { AnalysisResponse } from '../../engine/contract/responseSchema';
 import type { DesignDocument } from '../../engine/contract/designSchema';
 import type { Verification } from '../../engine/verify/types';
@@ -164,14 +164,3 @@ export async function usage(db: Database, workspaceId: string, templateIds?: str
 	return by;
 }
 
-/** All templates of a workspace matching a search (name, description, kind), with their usage. */
-export async function search(db: Database, workspaceId: string, q: string) {
-	const all = await db.select().from(template).where(eq(template.workspaceId, workspaceId));
-	const needle = q.trim().toLowerCase();
-	const hits = needle
-		? all.filter((t) => [t.name, t.description ?? '', String((t.compensator as { kind?: string }).kind ?? ''), t.topology ?? ''].some((s) => s.toLowerCase().includes(needle)))
-		: all;
-	hits.sort((a, b) => a.name.localeCompare(b.name));
-	const used = await usage(db, workspaceId);
-	return hits.map((t) => ({ ...t, rails: used[t.id] ?? [] }));
-}

@@ -1,7 +1,7 @@
 // Templates: workspace-shared compensator strategies (kind, placement target, part series)
 // that engineers start new loops from.
 import { randomUUID } from 'node:crypto';
-import { asc, count, eq } from 'drizzle-orm';
+import { and, asc, count, eq, like, or, sql, type SQL } from 'drizzle-orm';
 import type { z } from 'zod';
 import type { Database } from '../db';
 import { template } from '../db/schema';
@@ -16,10 +16,24 @@ export type Template = typeof template.$inferSelect;
 const summary = (t: Template) => ({ name: t.name, description: t.description, topology: t.topology, compensator: t.compensator });
 const duplicate = 'a template with this name already exists in the workspace';
 
-export async function list(db: Database, workspaceId: string, page: PageQuery): Promise<Page<Template>> {
+/** `q` (case-insensitive) in the name, description, topology or network kind; an empty search matches all. */
+function matching(q: string | undefined): SQL | undefined {
+	const needle = q?.trim().toLowerCase();
+	if (!needle) return undefined;
+	const pattern = `%${needle.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
+	return or(
+		like(sql`lower(${template.name})`, pattern),
+		like(sql`lower(coalesce(${template.description}, ''))`, pattern),
+		like(sql`lower(coalesce(${template.topology}, ''))`, pattern),
+		like(sql`lower(coalesce(json_unquote(json_extract(${template.compensator}, '$.kind')), ''))`, pattern)
+	);
+}
+
+export async function list(db: Database, workspaceId: string, page: PageQuery, q?: string): Promise<Page<Template>> {
+	const where = and(eq(template.workspaceId, workspaceId), matching(q));
 	const [items, [{ total }]] = await Promise.all([
-		db.select().from(template).where(eq(template.workspaceId, workspaceId)).orderBy(asc(template.name)).limit(page.limit).offset(page.offset),
-		db.select({ total: count() }).from(template).where(eq(template.workspaceId, workspaceId))
+		db.select().from(template).where(where).orderBy(asc(template.name)).limit(page.limit).offset(page.offset),
+		db.select({ total: count() }).from(template).where(where)
 	]);
 	return { items, page: { ...page, total } };
 }
