@@ -11,7 +11,8 @@ import { DEFAULT_SWEEP_POINTS, designDocumentSchema, type DesignDocument } from 
 import type { AnalysisResponse } from './contract/responseSchema';
 import { DesignInputError, type EngineWarning } from './errors';
 import { modulatorTf, rampAmplitude } from './plants/modulator';
-import { powerStage } from './plants/powerStage';
+import { controlledStage } from './plants/controlledStage';
+import type { CurrentModePlant } from './plants/currentMode';
 import type { PlantModel } from './plants/types';
 import { defaultSweepRange, logGrid } from './sweep/grid';
 import { multiply } from './tf/algebra';
@@ -77,8 +78,8 @@ export function analyzeValidatedDesign(document: DesignDocument, options: Analyz
 
 function run(d: DesignDocument, options: AnalyzeOptions): AnalysisDetail {
 	const p = d.plant;
-	const plant = powerStage(stageInputOf(d));
 	const mod = modulatorInputOf(d);
+	const plant = controlledStage(stageInputOf(d), mod);
 	const plantLoop = multiply(modulatorTf(mod, p.vin), plant.gvd);
 
 	// Plot grid: the document's sweep, or two decades below f0 to fsw/2 (400 points).
@@ -126,7 +127,7 @@ function run(d: DesignDocument, options: AnalyzeOptions): AnalysisDetail {
 	if (include && freqHz) {
 		const gp = frequencyResponse(plant.gvd, freqHz);
 		const gc = frequencyResponse(compensator.built, freqHz);
-		const fmDb = -20 * Math.log10(rampAmplitude(mod, p.vin));
+		const fmDb = 20 * Math.log10(modulatorTf(mod, p.vin).gain);
 		const delayDegPerHz = -360 * mod.delayS;
 		const n = freqHz.length;
 		// Plain loops into plain arrays: Array.from(typedArray, fn) is slow in V8.
@@ -168,14 +169,16 @@ function run(d: DesignDocument, options: AnalyzeOptions): AnalysisDetail {
 			criticalInductance: op.criticalInductance,
 			criticalLoadResistance: op.criticalLoadResistance,
 			criticalLoadCurrent: op.criticalLoadCurrent,
-			rampAmplitude: rampAmplitude(mod, p.vin)
+			// Peak current mode: the compensation ramp's rise over one period at the comparator (Se·Ts).
+			rampAmplitude: mod.currentMode ? mod.currentMode.rampSlope / p.fsw : rampAmplitude(mod, p.vin)
 		},
 		features: {
 			f0Hz: plant.features.f0Hz,
 			q: finiteOr0(plant.features.q),
 			esrZeroHz: plant.features.esrZeroHz,
 			rhpZeroHz: plant.features.rhpZeroHz,
-			selfResonanceHz: plant.features.selfResonanceHz
+			selfResonanceHz: plant.features.selfResonanceHz,
+			...currentModeOf(plant)
 		},
 		compensator: {
 			kind: compensator.kind,
@@ -230,7 +233,15 @@ function run(d: DesignDocument, options: AnalyzeOptions): AnalysisDetail {
 	const extra = robustnessSections(detail, { closedLoop: options.closedLoop ?? (include || d.loadStep !== undefined), sections: options.sections });
 	if (extra.closedLoop) response.closedLoop = extra.closedLoop;
 	if (extra.corners) response.corners = extra.corners;
-	if (extra.inputFilter) response.inputFilter = extra.inputFilter;
+	if (extra.inputFilter) {
+		response.inputFilter = extra.inputFilter;
+		if (mod.currentMode) {
+			extra.warnings.push({
+				code: 'input-filter-current-mode-approximate',
+				message: "The input-filter check uses the stage's voltage-mode input impedance ZD; with peak current mode ZD differs (ZN does not), so treat the filter's effect on the loop as indicative."
+			});
+		}
+	}
 	if (extra.spread) response.spread = extra.spread;
 	if (extra.warnings.length) response.warnings = mergeWarnings(response.warnings, extra.warnings);
 	return detail;
@@ -274,6 +285,12 @@ function mergeWarnings(...lists: EngineWarning[][]): EngineWarning[] {
 		}
 	}
 	return out;
+}
+
+/** features.currentMode of a peak current-mode plant (qp null when mc·D′ = 0.5 exactly). */
+function currentModeOf(plant: PlantModel): { currentMode?: AnalysisResponse['features']['currentMode'] } {
+	const cm = (plant as Partial<CurrentModePlant>).currentMode;
+	return cm ? { currentMode: { ...cm } } : {};
 }
 
 const clampDb = (x: number) => (Number.isNaN(x) ? -1000 : Math.max(-1000, Math.min(1000, x)));

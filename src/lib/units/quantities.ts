@@ -3,7 +3,7 @@
  * A trailing unit is optional in every field; a different known unit is reported, not ignored.
  */
 
-export type UnitSymbol = 'V' | 'A' | 'Ω' | 'H' | 'F' | 'Hz' | 's' | 'S' | 'W' | 'C' | '';
+export type UnitSymbol = 'V' | 'A' | 'Ω' | 'H' | 'F' | 'Hz' | 's' | 'S' | 'W' | 'C' | 'V/s' | 'V/A' | '';
 
 /** Accepted spellings of each unit, matched case-insensitively at the end of the text. */
 export const UNIT_ALIASES: Readonly<Record<Exclude<UnitSymbol, ''>, readonly string[]>> = {
@@ -17,7 +17,11 @@ export const UNIT_ALIASES: Readonly<Record<Exclude<UnitSymbol, ''>, readonly str
 	S: ['S'],
 	W: ['W'],
 	// Charge (gate charge, reverse-recovery charge): coulomb.
-	C: ['C']
+	C: ['C'],
+	// Slopes and the current-sense gain of peak current mode (a sense gain is not typed in Ω: it
+	// includes the amplifier's gain).
+	'V/s': ['V/s', 'V/sec'],
+	'V/A': ['V/A']
 };
 
 /** Longest alias first, so that `ohms` wins over `s`. */

@@ -2,7 +2,8 @@
  * The exported SPICE netlist, run in ngspice, against the engine's loop gain: within 0.05 dB and 0.5° up to fsw/2
  * [ngspice is the outside tool]. Designs: the eight reference cases (buck and boost, banks with ESR
  * and ESL, rdsOn, feed-forward with delay, finite-GBW op-amp) plus Type I, Type II, OTA (with and without Ro), a
- * Vout = Vref divider and a synthesised (K-factor, rounded) Type III.
+ * Vout = Vref divider, a synthesised (K-factor, rounded) Type III and the peak current-mode cases
+ * (reference/currentmode/cases: the comparator's averaged law in behavioural sources).
  */
 import { spawnSync } from 'node:child_process';
 import { mkdtempSync, readFileSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
@@ -55,6 +56,11 @@ const designs: [string, unknown][] = [
 			d.compensator = { kind: 'type2', parts: { r2: 4990, c1: 47e-9, c2: 1e-9 }, opamp: { a0Db: 80, gbw: 2e6 }, series: null };
 		})
 	],
+	// Peak current mode: the comparator's averaged law with He(s) as behavioural sources.
+	...readdirSync(path.resolve('reference/currentmode/cases'))
+		.filter((f) => f.endsWith('.json'))
+		.sort()
+		.map((f) => [`peak current ${f.replace(/\.json$/, '')}`, JSON.parse(readFileSync(path.resolve('reference/currentmode/cases', f), 'utf8'))] as [string, unknown]),
 	[
 		'buck type3 synthesised by K-factor, rounded E96/E12',
 		variant('buck-ceramic-1v2.json', (d) => {

@@ -132,11 +132,36 @@ export const plantSchema = z
 		}
 	});
 
-export const modulatorSchema = z.object({
-	vramp: inRange('V', 1e-6, 1e4),
-	feedForward: z.boolean({ error: 'must be true or false' }).default(false),
-	delay: nonNegative('s').max(1, { error: 'must be ≤ 1 s' }).default(0)
-}, { error: missingOr('must be an object { vramp, feedForward, delay }') });
+/** Ramp amplitude a peak-current document is given when it names none (vramp is not used there). */
+export const UNUSED_VRAMP = 1;
+
+/**
+ * Voltage mode (default): vramp and feedForward as always. Peak current mode (docs/formulas.md
+ * §14): senseGain Ri (V/A) is required, rampSlope Se (V/s at the comparator) defaults to 0, vramp
+ * may be left out (it is not used) and feed-forward does not apply (the current loop already
+ * follows the input).
+ */
+export const modulatorSchema = z
+	.object(
+		{
+			control: z.enum(['voltage', 'peak-current'], { error: 'must be "voltage" or "peak-current"' }).default('voltage'),
+			vramp: inRange('V', 1e-6, 1e4).optional(),
+			feedForward: z.boolean({ error: 'must be true or false' }).default(false),
+			delay: nonNegative('s').max(1, { error: 'must be ≤ 1 s' }).default(0),
+			senseGain: inRange('V/A', 1e-6, 1e3).optional(),
+			rampSlope: nonNegative('V/s').max(1e13, { error: 'must be ≤ 1e13 V/s' }).optional()
+		},
+		{ error: missingOr('must be an object { vramp, feedForward, delay }') }
+	)
+	.superRefine((m, ctx) => {
+		if (m.control !== 'peak-current') {
+			if (m.vramp === undefined) ctx.addIssue({ code: 'custom', path: ['vramp'], message: 'is required' });
+			return;
+		}
+		if (m.senseGain === undefined) ctx.addIssue({ code: 'custom', path: ['senseGain'], message: 'is required with control "peak-current" (sense resistance × amplifier gain, V/A)' });
+		if (m.feedForward) ctx.addIssue({ code: 'custom', path: ['feedForward'], message: 'must be false with control "peak-current" (the current loop already follows the input)' });
+	})
+	.transform((m) => ({ ...m, vramp: m.vramp ?? UNUSED_VRAMP }));
 
 export const feedbackSchema = z.object({
 	vref: inRange('V', 1e-3, 1e5),

@@ -33,7 +33,9 @@ export const USUAL_RANGES = {
 	esr: { what: 'capacitor ESRs (per part)', unit: 'Ω', min: 0, max: 2 },
 	esl: { what: 'capacitor ESLs (per part)', unit: 'H', min: 0, max: 20e-9 },
 	vramp: { what: 'PWM ramp amplitudes', unit: 'V', min: 0.1, max: 10 },
-	vref: { what: 'controller reference voltages', unit: 'V', min: 0.1, max: 5 }
+	vref: { what: 'controller reference voltages', unit: 'V', min: 0.1, max: 5 },
+	// A sense resistor of 1 mΩ…1 Ω times an amplifier gain of 1…20 [common practice].
+	senseGain: { what: 'current-sense gains (sense resistance × amplifier gain)', unit: 'V/A', min: 1e-3, max: 20 }
 } as const satisfies Record<string, UsualRange>;
 
 function check(path: string, value: number, r: UsualRange): EngineWarning | null {
@@ -58,7 +60,8 @@ export function plausibilityWarnings(d: DesignDocument): EngineWarning[] {
 		['plant.inductor.l', p.inductor.l, u.l],
 		['plant.inductor.dcr', p.inductor.dcr, u.dcr],
 		['plant.rdsOn', p.rdsOn, u.rdsOn],
-		['modulator.vramp', d.modulator.vramp, u.vramp],
+		// The ramp amplitude matters in voltage mode only; peak current mode has its sense gain instead.
+		d.modulator.control === 'peak-current' ? ['modulator.senseGain', d.modulator.senseGain ?? 0, u.senseGain] : ['modulator.vramp', d.modulator.vramp, u.vramp],
 		['feedback.vref', d.feedback.vref, u.vref]
 	];
 	p.capacitors.forEach((b, i) => {

@@ -39,7 +39,22 @@ export const analysisResponseSchema = z.object({
 		q: finite,
 		esrZeroHz: z.array(finite),
 		rhpZeroHz: nullableFinite,
-		selfResonanceHz: z.array(finite)
+		selfResonanceHz: z.array(finite),
+		/** Peak current mode only (plants/currentMode.ts): slopes in V/s at the comparator. */
+		currentMode: z
+			.object({
+				sn: finite,
+				sf: finite,
+				se: finite,
+				mc: finite,
+				qp: nullableFinite,
+				subharmonic: z.enum(['damped', 'peaking', 'unstable']),
+				seForStability: finite,
+				seForQpOne: finite,
+				seHalfSf: finite,
+				lowFrequencyPoleHz: finite
+			})
+			.optional()
 	}),
 	compensator: z.object({
 		kind: z.string(),

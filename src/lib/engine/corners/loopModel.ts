@@ -7,7 +7,7 @@
 import type { AnalysisDetail } from '../analyze';
 import { compensatorTf, type OpampModel } from '../compensators/transfer';
 import { modulatorTf, type ModulatorInput } from '../plants/modulator';
-import { powerStage } from '../plants/powerStage';
+import { controlledStage } from '../plants/controlledStage';
 import type { PlantModel, PowerStageInput } from '../plants/types';
 import type { NetworkParts } from '../synthesis/networks';
 import { multiply } from '../tf/algebra';
@@ -36,7 +36,7 @@ export interface BuiltLoop {
 }
 
 export function buildLoop(spec: LoopSpec): BuiltLoop {
-	const plant = powerStage(spec.stage);
+	const plant = controlledStage(spec.stage, spec.modulator);
 	const compensator = compensatorTf(spec.parts, spec.opamp);
 	const modulator = modulatorTf(spec.modulator, spec.stage.vin, spec.vinNominal);
 	return { plant, compensator, modulator, loop: multiply(compensator, modulator, plant.gvd) };

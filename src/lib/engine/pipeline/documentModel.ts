@@ -4,11 +4,11 @@
  * the closed-loop section and every screen that moves a design to another operating point use
  * these.
  */
-import type { DesignDocument, DesignDocumentInput } from '../contract/designSchema';
+import { UNUSED_VRAMP, type DesignDocument, type DesignDocumentInput } from '../contract/designSchema';
 import { operatingCases } from '../corners/operatingCases';
 import { isDesignInputError } from '../errors';
 import { modulatorTf, rampAmplitude, type ModulatorInput } from '../plants/modulator';
-import { powerStage } from '../plants/powerStage';
+import { controlledStage } from '../plants/controlledStage';
 import type { PowerStageInput } from '../plants/types';
 import { multiply } from '../tf/algebra';
 import type { FactoredTf } from '../tf/types';
@@ -54,7 +54,9 @@ export function stageInputOf(d: DesignDocument, at?: { vin: number; iout: number
 
 /** The modulator of a validated document (vramp is the ramp at plant.vin). */
 export function modulatorInputOf(d: DesignDocument): ModulatorInput {
-	return { vramp: d.modulator.vramp, feedForward: d.modulator.feedForward, delayS: d.modulator.delay };
+	const m = d.modulator;
+	const base = { vramp: m.vramp, feedForward: m.feedForward, delayS: m.delay };
+	return m.control === 'peak-current' ? { ...base, currentMode: { senseGain: m.senseGain ?? 0, rampSlope: m.rampSlope ?? 0 } } : base;
 }
 
 /**
@@ -67,7 +69,7 @@ export function operatingPointDocument(
 	at: { vin: number; iout: number },
 	compensator: DesignDocumentInput['compensator']
 ): DesignDocumentInput {
-	const mod = { vramp: doc.modulator.vramp, feedForward: doc.modulator.feedForward ?? false, delayS: doc.modulator.delay ?? 0 };
+	const mod = { vramp: doc.modulator.vramp ?? UNUSED_VRAMP, feedForward: doc.modulator.feedForward ?? false, delayS: doc.modulator.delay ?? 0 };
 	return {
 		...doc,
 		plant: { ...doc.plant, vin: at.vin, iout: at.iout },
@@ -88,7 +90,7 @@ export function cornerPlantLoops(d: DesignDocument): FactoredTf[] {
 	for (const c of cases) {
 		if (c.nominal) continue;
 		try {
-			out.push(multiply(modulatorTf(mod, c.vin, d.plant.vin), powerStage(stageInputOf(d, c)).gvd));
+			out.push(multiply(modulatorTf(mod, c.vin, d.plant.vin), controlledStage(stageInputOf(d, c), mod).gvd));
 		} catch (e) {
 			if (!isDesignInputError(e)) throw e;
 		}

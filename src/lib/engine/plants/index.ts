@@ -5,3 +5,5 @@ export * from './operatingPoint';
 export * from './modulator';
 export { outputNetwork, equivalentBranches, bankImpedance } from './capacitorBank';
 export { dominantResonance } from './stageModel';
+export { controlledStage } from './controlledStage';
+export { currentModeStage, currentModeFeatures, type CurrentModeInput, type CurrentModeFeatures, type CurrentModePlant } from './currentMode';

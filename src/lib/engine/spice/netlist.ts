@@ -10,6 +10,7 @@
 import { analyzeDesignDetailed, type AnalysisDetail } from '../analyze';
 import type { ContractError } from '../contract/errors';
 import { defaultSweepRange } from '../sweep/grid';
+import { modulatorGains, type CurrentModeFeatures, type CurrentModePlant } from '../plants/currentMode';
 
 export interface SpiceOptions {
 	/** AC sweep; default: the document's sweep range, else two decades below f0 to fsw/2. */
@@ -61,10 +62,17 @@ export function netlistFromAnalysis(detail: AnalysisDetail, options: SpiceOption
 	const n = new NetlistWriter();
 
 	n.line(spiceTitle(options.title ?? `Loopwright loop gain: ${p.topology} ${num(p.vin)} V to ${num(p.vout)} V, ${num(p.iout)} A, fsw ${num(p.fsw)} Hz`));
-	n.comment('Averaged small-signal loop (voltage mode, CCM), written by Loopwright for ngspice.');
-	n.comment('AC result: v(loop) = T(jw) = Gc * (1/Vramp) * Gvd * exp(-s*Td); vdb(loop) is |T| in dB, cph(v(loop)) its phase.');
-	n.comment('The loop is opened at the PWM input (no current flows there): Vd drives the duty D + d (AC 1),');
-	n.comment('the compensator answers at node ea, and Et returns -v(ea)/Vramp, the duty the loop would ask for.');
+	if (d.modulator.control === 'peak-current') {
+		n.comment('Averaged small-signal loop (peak current mode, CCM), written by Loopwright for ngspice.');
+		n.comment('AC result: v(loop) = T(jw) = Gc * Gvc * exp(-s*Td); vdb(loop) is |T| in dB, cph(v(loop)) its phase.');
+		n.comment('The loop is opened at the comparator control input (no current flows there): Vc drives vc (AC 1),');
+		n.comment('Bd turns it into the duty with the sensed current and the ramp, and Et returns -v(ea).');
+	} else {
+		n.comment('Averaged small-signal loop (voltage mode, CCM), written by Loopwright for ngspice.');
+		n.comment('AC result: v(loop) = T(jw) = Gc * (1/Vramp) * Gvd * exp(-s*Td); vdb(loop) is |T| in dB, cph(v(loop)) its phase.');
+		n.comment('The loop is opened at the PWM input (no current flows there): Vd drives the duty D + d (AC 1),');
+		n.comment('the compensator answers at node ea, and Et returns -v(ea)/Vramp, the duty the loop would ask for.');
+	}
 	n.comment(`Operating point from the engine: D = ${num(op.duty)}, IL = ${num(op.inductorCurrent)} A, R = ${num(op.rLoad)} ohm.`);
 	n.comment('Small-signal estimate; confirm margins and transients on hardware.');
 	n.comment('Above 60 V DC or at mains follow the applicable safety standards and licensed practice.');
@@ -72,7 +80,9 @@ export function netlistFromAnalysis(detail: AnalysisDetail, options: SpiceOption
 
 	n.comment('--- power stage: averaged switch network, series resistance r = DCR + rdsOn');
 	n.line(`Vg in 0 DC ${num(p.vin)}`);
-	n.line(`Vd d 0 DC ${num(op.duty)} AC 1`);
+	const cm = (detail.plant as Partial<CurrentModePlant>).currentMode;
+	if (cm) currentModulator(n, detail, cm);
+	else n.line(`Vd d 0 DC ${num(op.duty)} AC 1`);
 	const r = p.inductor.dcr + p.rdsOn;
 	if (p.topology === 'buck') {
 		// Switch node = d·vg; the input supplies d·iL.
@@ -153,16 +163,19 @@ export function netlistFromAnalysis(detail: AnalysisDetail, options: SpiceOption
 	}
 	n.blank();
 
-	n.comment(`--- modulator: gain 1/Vramp, Vramp = ${num(vramp)} V peak-to-peak${d.modulator.feedForward ? ' (feed-forward: the ramp at this Vin)' : ''}`);
+	// Peak current mode: the loop is opened at the comparator's control input, whose gain is in Bd.
+	const returnGain = cm ? -1 : -1 / vramp;
+	if (cm) n.comment('--- loop return: v(loop) = -v(ea), the control voltage the compensator asks for');
+	else n.comment(`--- modulator: gain 1/Vramp, Vramp = ${num(vramp)} V peak-to-peak${d.modulator.feedForward ? ' (feed-forward: the ramp at this Vin)' : ''}`);
 	if (delayS > 0) {
 		n.comment(`loop delay ${num(delayS)} s: a matched lossless line (exact exp(-s*Td) in AC), gain 2 for the halving`);
-		n.line(`Et tp 0 ea 0 ${num(-1 / vramp)}`);
+		n.line(`Et tp 0 ea 0 ${num(returnGain)}`);
 		n.line('Rdl1 tp ta 50');
 		n.line(`Tdl ta 0 tb 0 Z0=50 TD=${num(delayS)}`);
 		n.line('Rdl2 tb 0 50');
 		n.line('Edl loop 0 tb 0 2');
 	} else {
-		n.line(`Et loop 0 ea 0 ${num(-1 / vramp)}`);
+		n.line(`Et loop 0 ea 0 ${num(returnGain)}`);
 	}
 	n.blank();
 
@@ -234,4 +247,30 @@ class NetlistWriter {
 	text() {
 		return this.lines.join('\n') + '\n';
 	}
+}
+
+/**
+ * Peak current mode (docs/formulas.md §14.1): the duty comes from the comparator's averaged law
+ * d = D + Fm·(vc − Ri·He(s)·(iL − IL) + kf·(vg − Vg) + kr·(vout − Vout)), with He(s)·iL built from
+ * the inductor's voltage (s·iL = vL/L) and its derivative through a 1 F capacitor. `Vc` at the
+ * control input carries the AC 1; its DC 0 leaves the operating point at the engine's duty.
+ */
+function currentModulator(n: NetlistWriter, detail: AnalysisDetail, cm: CurrentModeFeatures): void {
+	const p = detail.document.plant;
+	const op = detail.plant.operatingPoint;
+	const mod = detail.document.modulator;
+	const cmIn = { senseGain: mod.senseGain ?? 0, rampSlope: mod.rampSlope ?? 0 };
+	const g = modulatorGains(p.topology, op.duty, p.inductor.l, p.fsw, cm, cmIn);
+	const ts = 1 / p.fsw;
+	const lNode = p.topology === 'buck' ? 'out' : 'sw';
+	n.comment(`--- peak current mode: Ri = ${num(cmIn.senseGain)} V/A, Se = ${num(cm.se)} V/s, Sn = ${num(cm.sn)} V/s, mc = ${num(cm.mc)}`);
+	n.comment('AC 1 at the comparator control input vc; He(s) = 1 - s*Ts/2 + s^2*Ts^2/pi^2 on the inductor current');
+	n.line('Vc vc 0 DC 0 AC 1');
+	n.line(`Evl vl 0 l2 ${lNode} 1`);
+	n.line('Vder vl vl2 DC 0');
+	n.line('Cder vl2 0 1');
+	n.line(`Bhe he 0 V = I(Vil) - ${num(ts / 2 / p.inductor.l)}*V(vl) + ${num((ts * ts) / (Math.PI * Math.PI) / p.inductor.l)}*I(Vder)`);
+	n.line(
+		`Bd d 0 V = ${num(op.duty)} + ${num(g.fm)}*(V(vc) - ${num(cmIn.senseGain)}*(V(he) - ${num(op.inductorCurrent)}) + ${num(g.kf)}*(V(in) - ${num(p.vin)}) + ${num(g.kr)}*(V(out) - ${num(p.vout)}))`
+	);
 }

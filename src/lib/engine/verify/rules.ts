@@ -30,6 +30,8 @@ export const worseOf = (a: VerdictStatus, b: VerdictStatus): VerdictStatus => (R
 
 export interface RuleInput {
 	targets: Targets;
+	/** The document's control method: peak current adds the current-loop row. */
+	peakCurrent?: boolean;
 	fswHz: number;
 	corners: VerifiedCorner[];
 	worst: { phaseMarginDeg: Worst | null; gainMarginDb: Worst | null; crossoverLowHz: Worst | null; crossoverHighHz: Worst | null };
@@ -134,6 +136,22 @@ export function modelRow(warnings: RuleInput['warnings']): VerdictRow {
 	};
 }
 
+/**
+ * Peak current mode only: subharmonic oscillation of the current loop at any corner fails (the
+ * outer loop cannot cure it), a Qp above 2 is a caution (plants/currentMode.ts, docs/formulas.md
+ * §14.2). The reason carries the warning's words, which name the ramp slope that cures it.
+ */
+export function currentLoopRow(warnings: RuleInput['warnings']): VerdictRow {
+	const target = 'mc·D′ > 0.5 and Qp ≤ 2 at every corner';
+	for (const [code, status] of [['subharmonic-unstable', 'fail'], ['subharmonic-peaking', 'caution']] as const) {
+		const w = warnings.find((x) => x.code === code);
+		if (!w) continue;
+		const more = w.corners.length > 1 ? ` and ${w.corners.length - 1} more corner${w.corners.length > 2 ? 's' : ''}` : '';
+		return { metric: 'current-loop', status, value: w.corners.length, target, corner: w.corners[0] ?? null, reason: `At ${w.corners[0]}${more}: ${w.message}` };
+	}
+	return { metric: 'current-loop', status: 'pass', value: 0, target, corner: null, reason: 'The current loop is damped at fsw/2 at every corner (Qp ≤ 2).' };
+}
+
 /** Every row, then the overall status (the worst row) and the sentence for the heading. */
 export function verdictOf(input: RuleInput): { status: VerdictStatus; summary: string; rows: VerdictRow[] } {
 	const t = input.targets;
@@ -144,6 +162,7 @@ export function verdictOf(input: RuleInput): { status: VerdictStatus; summary: s
 		stabilityRow(input.corners)
 	];
 	if (input.spread) rows.push(yieldRow(input.spread));
+	if (input.peakCurrent) rows.push(currentLoopRow(input.warnings));
 	rows.push(modelRow(input.warnings));
 	const status = rows.reduce<VerdictStatus>((s, r) => worseOf(s, r.status), 'pass');
 	const first = rows.find((r) => r.status === status);

@@ -11,7 +11,8 @@ export const VERDICT_LABELS: Record<VerdictRow['metric'], string> = {
 	fc: 'Crossover',
 	stability: 'Closed loop',
 	yield: 'Spread yield',
-	model: 'Model'
+	model: 'Model',
+	'current-loop': 'Current loop'
 };
 
 export const STATUS_WORDS: Record<VerdictStatus, string> = { pass: 'Pass', caution: 'Caution', fail: 'Fail' };
@@ -34,5 +35,7 @@ export function verdictValueText(row: VerdictRow): string {
 			return formatPercent(v);
 		case 'model':
 			return v === null || v === 0 ? 'valid' : plural(v, 'warning');
+		case 'current-loop':
+			return v === null || v === 0 ? 'no subharmonic' : `${plural(v, 'corner')} ${row.status === 'fail' ? 'oscillating' : 'peaking'}`;
 	}
 }

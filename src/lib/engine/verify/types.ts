@@ -8,7 +8,7 @@ import type { Targets } from '../contract/targetsSchema';
 export type VerdictStatus = 'pass' | 'caution' | 'fail';
 
 export interface VerdictRow {
-	metric: 'pm' | 'gm' | 'fc' | 'stability' | 'yield' | 'model';
+	metric: 'pm' | 'gm' | 'fc' | 'stability' | 'yield' | 'model' | 'current-loop';
 	status: VerdictStatus;
 	/** The worst value (deg, dB, Hz, fraction), or null when there is none. */
 	value: number | null;

@@ -103,7 +103,7 @@ function verifyAnalysed(doc: DesignDocument, detail: AnalysisDetail, options: Ve
 	};
 	const warnings = collectWarnings(detail, report);
 	const spreadSummary = spread ? { samples: spread.completed, seed: spread.seed, yield: spread.yield.all, stable: spread.yield.stable } : null;
-	const verdict = verdictOf({ targets, fswHz, corners: list, worst, spread: spreadSummary, warnings });
+	const verdict = verdictOf({ targets, fswHz, corners: list, worst, spread: spreadSummary, warnings, peakCurrent: detail.document.modulator.control === 'peak-current' });
 	const m = detail.metrics;
 	const c = detail.compensator;
 	const series = doc.compensator.series === undefined ? DEFAULT_SERIES : doc.compensator.series;
