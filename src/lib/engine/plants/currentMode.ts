@@ -17,7 +17,7 @@ import { realRoot, type FactoredTf, type Root } from '../tf/types';
 import { fromPolynomials } from '../tf/convert';
 import { outputNetwork, stageDenominator } from './capacitorBank';
 import { factorNormalised } from './factorPoly';
-import { powerStage } from './powerStage';
+import { OUTSIDE_MODEL_CODE, powerStage } from './powerStage';
 import type { PlantModel, PowerStageInput } from './types';
 import { formatEng } from '../../units/format';
 
@@ -108,8 +108,13 @@ const tf = (gain: number, zeros: Root[], poles: Root[]): FactoredTf => ({ gain, 
  * with the current loop closed. ZD and ZN stay the voltage-mode stage's (see docs/formulas.md §14.5).
  */
 export function currentModeStage(input: PowerStageInput, cm: CurrentModeInput): CurrentModePlant {
-	const vm = powerStage(input);
-	const op = vm.operatingPoint;
+	const asTyped = powerStage(input);
+	// Below the CCM boundary with diode emulation or a diode the stage runs in DCM, where this CCM
+	// model does not hold: the CCM algebra keeps the numbers finite and the corner is marked
+	// outside the model, so the verdict leaves it out of the margins (as in voltage mode).
+	const dcm = input.lightLoad !== undefined && input.lightLoad !== 'forced-ccm' && asTyped.operatingPoint.mode === 'dcm';
+	const vm = dcm ? powerStage({ ...input, lightLoad: 'forced-ccm' }) : asTyped;
+	const op = dcm ? { ...vm.operatingPoint, mode: 'dcm' as const } : vm.operatingPoint;
 	const net = outputNetwork(input.capacitors);
 	const R = op.rLoad;
 	const r = op.rSeries;
@@ -148,8 +153,12 @@ export function currentModeStage(input: PowerStageInput, cm: CurrentModeInput): 
 
 	const lowestPole = Math.min(...poles.map((p) => (p.kind === 'real' ? Math.abs(p.omega) : p.omega0)));
 	const currentMode: CurrentModeFeatures = { ...f, lowFrequencyPoleHz: lowestPole / (2 * Math.PI) };
-	const warnings = [...vm.warnings, ...currentModeWarnings(currentMode, D, input.fswHz)];
-	return { ...vm, gvd: gvc, gvg, zo, warnings, currentMode };
+	const outside = {
+		code: OUTSIDE_MODEL_CODE,
+		message: `Outside the model: the inductor current runs discontinuous below ${formatEng(op.criticalLoadCurrent, 'A')} (this load: ${formatEng(input.iout, 'A')}), and the peak current-mode model here is for CCM only; this corner is left out of the margins.`
+	};
+	const warnings = [...(dcm ? [outside] : vm.warnings), ...currentModeWarnings(currentMode, D, input.fswHz)];
+	return { ...vm, operatingPoint: op, gvd: gvc, gvg, zo, warnings, currentMode };
 }
 
 /** num/P with P's factors already known (only the numerator is factored here). */

@@ -154,3 +154,13 @@ describe('peak current mode through the analysis', () => {
 		expect('error' in bad && bad.error.fields['modulator.control']).toMatch(/"voltage" or "peak-current"/);
 	});
 });
+
+describe('light load', () => {
+	it('diode emulation below the CCM boundary: the corner is outside the CCM current-mode model, numbers stay finite', () => {
+		const plant = currentModeStage({ ...buck, iout: 0.05, lightLoad: 'diode-emulation' }, { senseGain: Ri, rampSlope: 5e4 });
+		expect(plant.warnings.map((w) => w.code)).toContain('dcm-outside-model');
+		expect(Number.isFinite(plant.gvd.gain)).toBe(true);
+		const forced = currentModeStage({ ...buck, iout: 0.05, lightLoad: 'forced-ccm' }, { senseGain: Ri, rampSlope: 5e4 });
+		expect(forced.warnings.map((w) => w.code)).not.toContain('dcm-outside-model');
+	});
+});
