@@ -173,7 +173,15 @@ export function switchingCheck(input: SwitchingCheckInput, options: SwitchingChe
 		points.push(withAveraged(measureLoopGain(ctx, p, amplitudeAt(f)), input.averagedLoop));
 		options.onProgress?.(++done, total);
 	}
-	const switching = crossoverOf(points);
+	let switching = crossoverOf(points);
+	// Where the switching crossover lies between points far apart, measure beside it too.
+	for (let pass = 0; pass < 2 && switching.crossoverHz !== null; pass++) {
+		const nc = c.fswHz / switching.crossoverHz;
+		const wanted = [Math.max(3, Math.floor(nc)), Math.max(3, Math.ceil(nc))].filter((p) => !points.some((q) => q.periods === p));
+		if (!wanted.length) break;
+		for (const p of wanted) points.push(withAveraged(measureLoopGain(ctx, p, amplitudeAt(c.fswHz / p)), input.averagedLoop));
+		switching = crossoverOf(points);
+	}
 	// Linearity: the point nearest the crossover again at half the amplitude.
 	let linearity: SwitchingCheckResult['linearity'] = null;
 	const near = nearest(points, switching.crossoverHz ?? fcAvg ?? c.fswHz / 10);

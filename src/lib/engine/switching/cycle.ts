@@ -108,10 +108,16 @@ export class Propagator {
 	private placeTurnOff(xl: Float64Array, tl: number, tr: number): { t: number; xt: Float64Array } {
 		let lo = tl;
 		let hi = tr;
-		let t = tl;
-		let xt = xl;
-		let g = this.margin(xl, tl);
-		for (let it = 0; it < 60; it++) {
+		// First candidate: the root of the cubic through the margin and its rate at both grid
+		// points (one exact step is then usually enough).
+		const xr = matVec(this.on.step, xl, this.sys.n);
+		const cand0 = hermiteRoot(this.margin(xl, tl), this.marginRate(xl) * this.h, this.margin(xr, tr), this.marginRate(xr) * this.h);
+		let t = tl + cand0 * this.h;
+		let xt = this.advance(this.on, t - tl, xl);
+		let g = this.margin(xt, t);
+		if (g > 0) lo = t;
+		else hi = t;
+		for (let it = 0; it < 60 && Math.abs(g) > 1e-14 * this.vramp; it++) {
 			const rate = this.marginRate(xt);
 			let cand = rate < 0 ? t - g / rate : (lo + hi) / 2;
 			if (!(cand > lo && cand < hi)) cand = (lo + hi) / 2;
@@ -154,4 +160,21 @@ export class Propagator {
 		const m = matMul(scaled(this.off.a, this.ts - r.tOff), matMul(s, scaled(this.on.a, r.tOff), n), n);
 		return leadingBlock(m, n, nc);
 	}
+}
+
+/** The zero in (0, 1) of the cubic Hermite interpolant with values g0 > 0 ≥ g1 and slopes d0, d1 (per unit step). */
+function hermiteRoot(g0: number, d0: number, g1: number, d1: number): number {
+	const at = (u: number) => {
+		const u2 = u * u;
+		const u3 = u2 * u;
+		return (2 * u3 - 3 * u2 + 1) * g0 + (u3 - 2 * u2 + u) * d0 + (-2 * u3 + 3 * u2) * g1 + (u3 - u2) * d1;
+	};
+	let lo = 0;
+	let hi = 1;
+	for (let i = 0; i < 50; i++) {
+		const mid = (lo + hi) / 2;
+		if (at(mid) > 0) lo = mid;
+		else hi = mid;
+	}
+	return Math.min(Math.max((lo + hi) / 2, 1e-9), 1 - 1e-9);
 }

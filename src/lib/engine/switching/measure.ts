@@ -185,7 +185,7 @@ export function measureLoopGain(ctx: MeasureContext, periods: number, amplitude:
 		for (let i = 0; i < nc; i++) f[i] = x[i] - x0[i];
 		const delta = luSolve(lu, f);
 		for (let i = 0; i < nc; i++) x0[i] -= delta[i];
-		if (iterations >= 1 && change <= 1e-7) break;
+		if (iterations >= 1 && change <= 1e-6) break;
 	}
 	const mag = Math.hypot(t.re, t.im);
 	return {

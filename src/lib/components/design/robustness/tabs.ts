@@ -1,5 +1,5 @@
 /** The design screen's panels, in tab order: the loop's Bode plot first, then the robustness panels. */
-export type PanelId = 'loop' | 'closed' | 'step' | 'corners' | 'spread' | 'filter';
+export type PanelId = 'loop' | 'closed' | 'step' | 'corners' | 'spread' | 'filter' | 'switching';
 
 export const PANELS: { id: PanelId; label: string }[] = [
 	{ id: 'loop', label: 'Loop' },
@@ -7,5 +7,6 @@ export const PANELS: { id: PanelId; label: string }[] = [
 	{ id: 'step', label: 'Step' },
 	{ id: 'corners', label: 'Corners' },
 	{ id: 'spread', label: 'Spread' },
-	{ id: 'filter', label: 'Input filter' }
+	{ id: 'filter', label: 'Input filter' },
+	{ id: 'switching', label: 'Switching check' }
 ];

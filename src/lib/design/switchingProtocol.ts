@@ -1,0 +1,14 @@
+/**
+ * Messages between the design screen and the switching-check worker (switching.worker.ts). The
+ * worker runs the engine's switching check of one design document and reports progress after
+ * each measured frequency; the screen cancels by ending the worker (the check has no pause
+ * points of its own, and a fresh worker costs a few milliseconds).
+ */
+import type { SwitchingCheckResult } from '$lib/engine/switching/check';
+
+export type ToWorker = { type: 'start'; runId: number; document: unknown };
+
+export type FromWorker =
+	| { type: 'progress'; runId: number; done: number; total: number }
+	| { type: 'result'; runId: number; result: SwitchingCheckResult; elapsedMs: number }
+	| { type: 'error'; runId: number; message: string };
