@@ -10,9 +10,9 @@
  * clipped. The Jacobian is by central differences (the models are cheap, derivatives by hand
  * would duplicate them).
  *
- * Written here rather than taken from a package: mathjs has no least-squares solver, and the npm
- * curve-fitting LM packages fit real y(x) samples without a robust loss or the Jacobian we need
- * for the intervals (scripts/bench.ts measures this solver against scipy on the same problem).
+ * Written here rather than taken from a package: mathjs (already a dependency) has no
+ * least-squares solver, and the npm curve-fitting LM package (ml-levenberg-marquardt) fits real
+ * y(x) samples with clamped bounds but no robust loss and returns no Jacobian for the intervals.
  */
 
 export type FitLoss = 'linear' | 'soft-l1';

@@ -1,5 +1,5 @@
 /** Sensitivity of the margins to every part (docs/formulas.md §12). */
-import { analyzeValidatedDesign } from '../analyze';
+import { analyzeValidatedDesign, type AnalysisDetail } from '../analyze';
 import type { ContractError } from '../contract/errors';
 import type { DesignDocument } from '../contract/designSchema';
 import { loopSpecFromDetail } from '../corners/loopModel';
@@ -12,7 +12,12 @@ export * from './sensitivity';
 export function designSensitivity(doc: DesignDocument): SensitivityReport | ContractError {
 	const detail = analyzeValidatedDesign(doc, { includeResponse: false, closedLoop: false, sections: false });
 	if ('error' in detail) return detail;
+	return detailSensitivity(detail);
+}
+
+/** The same from an analysis already made (the review page's and the report's). */
+export function detailSensitivity(detail: AnalysisDetail): SensitivityReport {
 	const tol: Partial<Record<PartName, number>> = {};
-	for (const [name, t] of Object.entries(doc.tolerances ?? {})) if (t && t.tol > 0) tol[name as PartName] = t.tol;
+	for (const [name, t] of Object.entries(detail.document.tolerances ?? {})) if (t && t.tol > 0) tol[name as PartName] = t.tol;
 	return sensitivity(loopSpecFromDetail(detail), tol);
 }

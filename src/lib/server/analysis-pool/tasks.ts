@@ -8,6 +8,7 @@ import { verifyDesign } from '../../engine/verify/verifyDesign';
 import { analyzeStored, cornerTraces, stepResponses } from '../services/loop-analysis';
 import { fitDesign, fittedDocument, type FitDesignInput } from '../../engine/fit';
 import { designDocumentSchema } from '../../engine/contract/designSchema';
+import { detailSensitivity } from '../../engine/sensitivity';
 
 export interface StoredRequest {
 	design: unknown;
@@ -17,6 +18,8 @@ export interface StoredRequest {
 	steps?: boolean;
 	/** Add the SPICE netlist. */
 	netlist?: SpiceOptions;
+	/** Add the ranked sensitivities of PM, GM and fc to every part. */
+	sensitivity?: boolean;
 }
 
 const tasks = {
@@ -42,7 +45,8 @@ const tasks = {
 			response: detail.response,
 			cornerTraces: input.verification ? cornerTraces(detail, input.verification) : [],
 			steps: input.steps ? stepResponses(detail) : null,
-			netlist: input.netlist ? netlistFromAnalysis(detail, input.netlist) : null
+			netlist: input.netlist ? netlistFromAnalysis(detail, input.netlist) : null,
+			sensitivity: input.sensitivity ? detailSensitivity(detail) : null
 		};
 	},
 	/** A fit of a design's uncertain parameters to a bench measurement, with the document the fitted values make. */

@@ -103,8 +103,8 @@ export async function reviewRecord(db: Database, loop: Loop) {
 
 /** What the engineer saw, drawn again from the stored design in the analysis pool (for `owner`): plot, operating point, closed loop, steps. */
 export async function reviewDrawing(loop: Loop, owner: string) {
-	const detail = await analyses.stored(owner, { design: loop.design, verification: loop.verification, steps: true });
-	if ('error' in detail) return { analysisError: detail.error, plot: null, operatingPoint: null, network: null, closedLoop: null, steps: null };
+	const detail = await analyses.stored(owner, { design: loop.design, verification: loop.verification, steps: true, sensitivity: true });
+	if ('error' in detail) return { analysisError: detail.error, plot: null, operatingPoint: null, network: null, closedLoop: null, steps: null, sensitivity: null };
 	const r = detail.response;
 	const m = r.metrics;
 	const traces = detail.cornerTraces;
@@ -121,7 +121,8 @@ export async function reviewDrawing(loop: Loop, owner: string) {
 		operatingPoint: r.operatingPoint,
 		network: { kind: r.compensator.kind, zerosHz: (r.compensator.rounded ?? r.compensator.ideal).zerosHz, polesHz: (r.compensator.rounded ?? r.compensator.ideal).polesHz },
 		closedLoop: { stable: m.closedLoopStable, modulusMargin: m.modulusMargin, modulusMarginHz: m.modulusMarginHz, delayMarginS: m.delayMarginS, crossovers: m.crossovers, phaseCrossovers: m.phaseCrossovers, polesHz: m.closedLoopPolesHz },
-		steps: detail.steps
+		steps: detail.steps,
+		sensitivity: detail.sensitivity
 	};
 }
 
