@@ -86,7 +86,7 @@ const notRun = (input: SwitchingCheckInput, reason: string): SwitchingCheckResul
 });
 
 /** First guess of the orbit: the averaged operating point, the network at its DC state. */
-function initialGuess(input: SwitchingCheckInput, names: string[], n: number): Float64Array {
+export function initialGuess(input: SwitchingCheckInput, names: string[], n: number): Float64Array {
 	const c = input.circuit;
 	const x = new Float64Array(n);
 	const vo = input.duty * c.vramp;
