@@ -13,6 +13,7 @@ import {
 	logGrid,
 	operatingPointDocument,
 	type AnalysisDetail,
+	type AnalyzeOptions,
 	type ContractError,
 	type DesignDocumentInput
 } from '$lib/engine';
@@ -92,7 +93,7 @@ function contractMessage(e: ContractError): { message: string; fieldErrors: Reco
 }
 
 /** The nominal's built network as fixed parts, for the corners. */
-function fixedCompensator(nominal: AnalysisDetail): DesignDocumentInput['compensator'] {
+export function fixedCompensator(nominal: AnalysisDetail): DesignDocumentInput['compensator'] {
 	const c = nominal.response.compensator;
 	const built = c.rounded ?? c.ideal;
 	const parts: Record<string, number> = {};
@@ -117,6 +118,9 @@ function validatedCorner(nominal: DesignDocument, corner: DesignDocumentInput, c
 	return { ...nominal, plant: plant.data, modulator: modulator.data, compensator };
 }
 
+/** How an operating case is analysed for the plot: no closed-loop section, no sections, no closed-loop poles. */
+export const CASE_OPTIONS = { closedLoop: false, sections: false, closedLoopPoles: false } as const satisfies AnalyzeOptions;
+
 export function analyzeForm(form: FormResult): AnalysisOutcome {
 	if (!form.document || !form.range || !form.targets) return { ok: false, message: 'Some values cannot be read; see the marked fields.', fieldErrors: form.errors };
 	const t0 = performance.now();
@@ -132,12 +136,19 @@ export function analyzeForm(form: FormResult): AnalysisOutcome {
 
 	const compensator = fixedCompensator(nominal);
 	const parsedCompensator = compensatorSchema.safeParse(compensator);
+	// What the plot needs of an operating case: its traces and margins, not the whole analysis.
+	// The fixed network's Gc does not depend on the case, so it is evaluated once (from the first
+	// case's own built network) and handed to the others; the closed-loop poles are left out (the
+	// stability verdict stays). Same engine run, same numbers (tests/unit/design/analysisCorners.test.ts).
+	let networkResponse: AnalyzeOptions['networkResponse'];
 	const corners = designCorners(form.range).map((corner): CornerAnalysis => {
 		if (corner.nominal) return { corner, detail: nominal, error: null };
 		const cornerDoc = operatingPointDocument(doc, corner, compensator);
 		const validated = parsedNominal.success && parsedCompensator.success ? validatedCorner(parsedNominal.data, cornerDoc, parsedCompensator.data) : null;
-		const r = validated ? analyzeValidatedDesign(validated, { closedLoop: false, sections: false }) : analyzeDesignDetailed(cornerDoc, { closedLoop: false, sections: false });
-		return 'error' in r ? { corner, detail: null, error: r.error.message } : { corner, detail: r, error: null };
+		const r = validated ? analyzeValidatedDesign(validated, { ...CASE_OPTIONS, networkResponse }) : analyzeDesignDetailed(cornerDoc, CASE_OPTIONS);
+		if ('error' in r) return { corner, detail: null, error: r.error.message };
+		networkResponse ??= frequencyResponse(r.compensator.built, freqHz);
+		return { corner, detail: r, error: null };
 	});
 	return {
 		ok: true,

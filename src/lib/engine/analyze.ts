@@ -32,6 +32,14 @@ export interface AnalyzeOptions {
 	closedLoop?: boolean;
 	/** Run the corners, inputFilter and spread sections the document asks for [true]. */
 	sections?: boolean;
+	/**
+	 * Gc of the document's built network on the document's sweep, when the caller already has it
+	 * (the same fixed parts analysed at several operating cases: Gc does not depend on the case,
+	 * so it is evaluated once). Used as given; the caller answers for it being that network's.
+	 */
+	networkResponse?: { magDb: ArrayLike<number>; phaseDeg: ArrayLike<number> };
+	/** Closed-loop poles in the metrics [true]; false keeps the stability verdict (Routh–Hurwitz when clearly stable) and leaves the poles out. */
+	closedLoopPoles?: boolean;
 }
 
 /** Everything the pipeline built, for callers that need the transfer functions too. */
@@ -111,6 +119,7 @@ function run(d: DesignDocument, options: AnalyzeOptions): AnalysisDetail {
 		vref: d.feedback.vref,
 		r1: d.feedback.r1,
 		metricsRangeHz: wanted,
+		closedLoopPoles: options.closedLoopPoles,
 		cornerPlants: d.compensator.target?.placeFor === 'worst-corner' ? cornerPlantLoops(d) : undefined
 	});
 	const loop = compensator.builtLoop;
@@ -126,7 +135,7 @@ function run(d: DesignDocument, options: AnalyzeOptions): AnalysisDetail {
 	let freqList: number[] = [];
 	if (include && freqHz) {
 		const gp = frequencyResponse(plant.gvd, freqHz);
-		const gc = frequencyResponse(compensator.built, freqHz);
+		const gc = options.networkResponse ?? frequencyResponse(compensator.built, freqHz);
 		const fmDb = 20 * Math.log10(modulatorTf(mod, p.vin).gain);
 		const delayDegPerHz = -360 * mod.delayS;
 		const n = freqHz.length;

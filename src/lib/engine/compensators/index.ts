@@ -55,6 +55,8 @@ export interface CompensatorContext {
 	 * back as `builtLoopMetrics` for the caller to reuse (analyzeDesign does).
 	 */
 	metricsRangeHz?: { startHz: number; stopHz: number };
+	/** With metricsRangeHz: compute the closed-loop poles too [true]. */
+	closedLoopPoles?: boolean;
 	/** Fm·Gvd at the other operating cases, for target.placeFor 'worst-corner' (pipeline builds them). */
 	cornerPlants?: FactoredTf[];
 }
@@ -171,7 +173,7 @@ export function resolveParsedCompensator(c: CompensatorDoc, ctx: CompensatorCont
 		? { startHz: Math.min(range.startHz, wanted.startHz), stopHz: Math.max(range.stopHz, wanted.stopHz) }
 		: range;
 	const builtLoop = multiply(built, ctx.plant);
-	const builtLoopMetrics = loopMetrics(builtLoop, builtRange, { closedLoopPoles: wanted !== undefined });
+	const builtLoopMetrics = loopMetrics(builtLoop, builtRange, { closedLoopPoles: wanted !== undefined && ctx.closedLoopPoles !== false });
 	const builtCheck = loopCheckFromMetrics(builtLoopMetrics);
 	const roundedLoop = rounded ? builtCheck : null;
 	const idealLoop = rounded
