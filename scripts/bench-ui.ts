@@ -27,9 +27,14 @@
 //    dispatched by Chromium aligned to the next animation frame, so waiting for that frame is
 //    not the page's work: a drag step is measured from dispatch into the page → painted (the
 //    frame's work, budget one 16.7 ms frame); event.timeStamp → painted is printed beside it.
+//  - Beside each design-screen row: the renderer main thread's CPU time from just before the
+//    input to just after the paint (CDP Performance.getMetrics ThreadTime, read outside the timed
+//    span; it includes the two short page calls that arm and read the probe). On a loaded machine
+//    the wall time waits for a core; this is what the page itself spent, the figure a quiet machine
+//    approaches. And the screen's own per-frame log (engine, DOM update) for keystrokes and drags.
 //  - Server rows (review page first byte, PNG and PDF exports) are timed from Node with the
 //    browser's session cookie: first byte = the first chunk of the body; exports = whole body.
-import { chromium, type Browser, type BrowserContext, type Page } from '@playwright/test';
+import { chromium, type Browser, type BrowserContext, type CDPSession, type Page } from '@playwright/test';
 import { randomBytes } from 'node:crypto';
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { cpus, loadavg } from 'node:os';
@@ -66,6 +71,10 @@ interface Row {
 	note?: string;
 	/** Printed beside the row, not compared with the budget. */
 	extra?: { label: string; samples: number[] };
+	/** The renderer main thread's CPU time over each sample (CDP ThreadTime): what the page itself spent, whatever else the machine runs. */
+	cpu?: number[];
+	/** The design screen's own log of its frame work (engine, DOM update), ms per frame. */
+	frames?: { computeMs: number[]; updateMs: number[] };
 }
 const rows: Row[] = [];
 const skipped: { name: string; why: string }[] = [];
@@ -150,6 +159,30 @@ function instrument() {
 	(window as unknown as { __bench: BenchApi }).__bench = api;
 }
 
+/** The renderer main thread's CPU time so far, ms (CDP Performance.getMetrics ThreadTime). */
+const cdpSessions = new WeakMap<Page, CDPSession>();
+async function threadTimeMs(page: Page): Promise<number> {
+	let cdp = cdpSessions.get(page);
+	if (!cdp) {
+		cdp = await page.context().newCDPSession(page);
+		await cdp.send('Performance.enable');
+		cdpSessions.set(page, cdp);
+	}
+	const { metrics } = await cdp.send('Performance.getMetrics');
+	return (metrics.find((m) => m.name === 'ThreadTime')?.value ?? NaN) * 1000;
+}
+
+/** The design screen's frame log (DesignScreen's __loopwrightFrames) of one kind, emptied after reading. */
+async function takeFrames(page: Page, kind: 'input' | 'drag'): Promise<{ computeMs: number[]; updateMs: number[] }> {
+	const frames = await page.evaluate((k) => {
+		const log = (window as unknown as { __loopwrightFrames?: { kind?: string; computeMs: number; updateMs: number }[] }).__loopwrightFrames ?? [];
+		const mine = log.filter((f) => f.kind === k);
+		log.length = 0;
+		return mine;
+	}, kind);
+	return { computeMs: frames.map((f) => f.computeMs), updateMs: frames.map((f) => f.updateMs) };
+}
+
 async function arm(page: Page, o: { root: string; ready?: string; event: string }) {
 	await page.evaluate((opts) => (window as unknown as { __bench: BenchApi }).__bench.arm(opts), o);
 }
@@ -183,6 +216,9 @@ function printTable(load: { start: number[]; end: number[] }) {
 	for (const r of rows) {
 		if (r.note) console.log(`  ${r.name}: ${r.note}`);
 		if (r.extra) console.log(`  ${r.name}: ${r.extra.label} p50 ${ms(percentile(r.extra.samples, 50))} ms, p95 ${ms(percentile(r.extra.samples, 95))} ms`);
+		if (r.cpu?.length) console.log(`  ${r.name}: renderer main-thread CPU from the input to the paint p50 ${ms(percentile(r.cpu, 50))} ms, p95 ${ms(percentile(r.cpu, 95))} ms`);
+		if (r.frames?.computeMs.length)
+			console.log(`  ${r.name}: in the page, per frame: engine p50 ${ms(percentile(r.frames.computeMs, 50))} ms (p95 ${ms(percentile(r.frames.computeMs, 95))}), DOM update p50 ${ms(percentile(r.frames.updateMs, 50))} ms (p95 ${ms(percentile(r.frames.updateMs, 95))}); style, layout and paint follow`);
 	}
 	for (const s of skipped) console.log(`  skipped: ${s.name}: ${s.why}`);
 	const la = (v: number[]) => v.map((x) => x.toFixed(2)).join(' ');
@@ -217,21 +253,27 @@ async function keystrokes(page: Page, name: string) {
 	const first = original[0];
 	const other = first === '1' ? '2' : '1';
 	const samples: number[] = [];
+	const cpu: number[] = [];
 	let missed = 0;
+	await takeFrames(page, 'input');
 	for (let i = 0; i < SAMPLES; i++) {
 		await field.focus();
 		await page.keyboard.press('Home');
 		await page.keyboard.press('Shift+ArrowRight');
 		await arm(page, { root: PLOT_ROOT, event: 'keydown' });
+		const cpu0 = await threadTimeMs(page);
 		await page.keyboard.press(i % 2 === 0 ? other : first);
 		const s = await result(page, 5000);
-		if (s) samples.push(s.paintTs - s.eventTs);
-		else missed++;
+		const cpu1 = await threadTimeMs(page);
+		if (s) {
+			samples.push(s.paintTs - s.eventTs);
+			cpu.push(cpu1 - cpu0);
+		} else missed++;
 		// A person typing: about four keystrokes a second.
 		await sleep(250);
 	}
 	await settle(page);
-	rows.push({ name: `keystroke → plot repainted (${name})`, samples, budgetMs: BUDGET.keystroke, note: missed ? `${missed} keystrokes repainted nothing within 5 s` : undefined });
+	rows.push({ name: `keystroke → plot repainted (${name})`, samples, budgetMs: BUDGET.keystroke, note: missed ? `${missed} keystrokes repainted nothing within 5 s` : undefined, cpu, frames: await takeFrames(page, 'input') });
 }
 
 /** Drags the first draggable marker back and forth in small steps, one step per painted frame. */
@@ -245,19 +287,25 @@ async function drag(page: Page, name: string) {
 	await page.mouse.down();
 	const fromDispatch: number[] = [];
 	const fromEvent: number[] = [];
+	const cpu: number[] = [];
 	let missed = 0;
+	await takeFrames(page, 'drag');
 	for (let i = 0; i < SAMPLES; i++) {
 		// A few pixels either side of the start, never twice the same place in a row and never far
 		// enough to pass a neighbouring corner (which would only show a note, not a new plot).
 		const dx = (i % 2 === 0 ? 1 : -1) * (2 + (i % 5));
 		await arm(page, { root: PLOT_ROOT, event: 'pointermove' });
+		const cpu0 = await threadTimeMs(page);
 		await page.mouse.move(x0 + dx, y);
 		const s = await result(page, 5000);
+		const cpu1 = await threadTimeMs(page);
 		if (s) {
 			fromDispatch.push(s.paintTs - s.dispatchTs);
 			fromEvent.push(s.paintTs - s.eventTs);
+			cpu.push(cpu1 - cpu0);
 		} else missed++;
 	}
+	const frames = await takeFrames(page, 'drag');
 	await page.mouse.move(x0, y);
 	await page.mouse.up();
 	await settle(page);
@@ -266,7 +314,9 @@ async function drag(page: Page, name: string) {
 		samples: fromDispatch,
 		budgetMs: BUDGET.drag,
 		note: missed ? `${missed} moves painted nothing within 5 s` : undefined,
-		extra: { label: 'from event.timeStamp (includes the wait for the next frame)', samples: fromEvent }
+		extra: { label: 'from event.timeStamp (includes the wait for the next frame)', samples: fromEvent },
+		cpu,
+		frames
 	});
 }
 
@@ -284,18 +334,23 @@ async function tabSwitches(page: Page, name: string) {
 	const order = ['closed', 'step', 'corners', 'spread', 'filter', 'loop'];
 	const samples = new Map<string, number[]>(order.map((t) => [t, []]));
 	const missed = new Map<string, number>();
+	const cpu = new Map<string, number[]>(order.map((t) => [t, []]));
 	for (let round = 0; round < ROUNDS; round++) {
 		for (const tab of order) {
 			await arm(page, { root: '[data-testid="design-screen"]', ready: TAB_READY[tab], event: 'click' });
+			const cpu0 = await threadTimeMs(page);
 			await page.getByTestId(`tab-${tab}`).click();
 			const s = await result(page, 10_000);
-			if (s) samples.get(tab)!.push(s.paintTs - s.eventTs);
-			else missed.set(tab, (missed.get(tab) ?? 0) + 1);
+			const cpu1 = await threadTimeMs(page);
+			if (s) {
+				samples.get(tab)!.push(s.paintTs - s.eventTs);
+				cpu.get(tab)!.push(cpu1 - cpu0);
+			} else missed.set(tab, (missed.get(tab) ?? 0) + 1);
 			await sleep(150);
 		}
 	}
 	for (const tab of order) {
-		rows.push({ name: `tab switch → ${tab} painted (${name})`, samples: samples.get(tab)!, budgetMs: BUDGET.tab, note: missed.get(tab) ? `${missed.get(tab)} switches showed no content within 10 s` : undefined });
+		rows.push({ name: `tab switch → ${tab} painted (${name})`, samples: samples.get(tab)!, budgetMs: BUDGET.tab, note: missed.get(tab) ? `${missed.get(tab)} switches showed no content within 10 s` : undefined, cpu: cpu.get(tab) });
 	}
 }
 
@@ -499,7 +554,7 @@ async function main() {
 	load.end = loadavg();
 	printTable(load);
 	mkdirSync('.tmp', { recursive: true });
-	const summary = rows.map((r) => ({ name: r.name, n: r.samples.length, p50Ms: percentile(r.samples, 50), p95Ms: percentile(r.samples, 95), budgetMs: r.budgetMs, ratio: percentile(r.samples, 95) / r.budgetMs, note: r.note ?? null }));
+	const summary = rows.map((r) => ({ name: r.name, n: r.samples.length, p50Ms: percentile(r.samples, 50), p95Ms: percentile(r.samples, 95), budgetMs: r.budgetMs, ratio: percentile(r.samples, 95) / r.budgetMs, note: r.note ?? null, mainThreadCpuP50Ms: r.cpu?.length ? percentile(r.cpu, 50) : null, mainThreadCpuP95Ms: r.cpu?.length ? percentile(r.cpu, 95) : null }));
 	writeFileSync('.tmp/bench-ui.json', JSON.stringify({ date: new Date().toISOString(), loadavg: load, cpus: cpus().length, rows: summary, skipped }, null, 2));
 	log('figures written to .tmp/bench-ui.json');
 	// The mail fake is a child process: while it runs, this process would never end.

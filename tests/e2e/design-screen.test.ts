@@ -100,7 +100,7 @@ test('one drag frame: recompute of 9 corners × 400 points plus redraw (printed,
 	}));
 	await page.evaluate(() => ((window as unknown as { __loopwrightFrames: unknown[] }).__loopwrightFrames.length = 0));
 	await dragMarker(page, 'root-pole1Hz', -120, 60);
-	const frames = await page.evaluate(() => (window as unknown as { __loopwrightFrames: { computeMs: number; updateMs: number }[] }).__loopwrightFrames);
+	const frames = await page.evaluate(() => (window as unknown as { __loopwrightFrames: { kind: string; computeMs: number; updateMs: number }[] }).__loopwrightFrames.filter((f) => f.kind === 'drag'));
 	expect(frames.length).toBeGreaterThan(20);
 	const total = frames.map((f) => f.computeMs + f.updateMs).sort((a, b) => a - b);
 	const compute = frames.map((f) => f.computeMs).sort((a, b) => a - b);
@@ -121,6 +121,8 @@ test('typed key by key, the deferred sections settle on the same figures as the 
 		await expect(page.getByTestId('verdict')).toHaveAttribute('data-state', 'final', { timeout: 30_000 });
 		const verdict = await page.getByTestId('verdict-pm-value').textContent();
 		await page.getByTestId('tab-closed').click();
+		// The closed loop runs in a worker once the input settles.
+		await expect(page.getByTestId('closed-loop-area')).toHaveAttribute('data-state', 'final', { timeout: 30_000 });
 		const sensitivity = await page.getByTestId('sensitivity-peak').textContent();
 		const zout = await page.getByTestId('zout-peak').textContent();
 		await page.getByTestId('tab-corners').click();
