@@ -31,6 +31,8 @@ export interface SwitchingCheckInput {
 	inductorCurrent: number;
 	vout: number;
 	delayS: number;
+	/** Why the design is outside the switching model's reach (peak current mode, a DCM nominal point), or null. */
+	outsideReach: string | null;
 }
 
 export interface SwitchingCheckOptions {
@@ -124,6 +126,7 @@ export function defaultCheckFrequencies(fcHz: number | null, fswHz: number): num
 
 export function switchingCheck(input: SwitchingCheckInput, options: SwitchingCheckOptions = {}): SwitchingCheckResult {
 	const c = input.circuit;
+	if (input.outsideReach) return notRun(input, input.outsideReach);
 	if (input.delayS > 0) return notRun(input, `The loop delay (${formatEng(input.delayS, 's')}) is not in the switching model.`);
 	const { orbit, prop } = orbitOf(input);
 	if (!orbit.converged) return notRun(input, 'The switching model found no periodic steady state (the shooting did not converge).');
