@@ -1,7 +1,9 @@
 // Page-load figures against a running server (production build), as the
 // demo owner on the seeded data (npx tsx scripts/seed.ts --scale first):
 //   review page first byte, board table complete (all rows with their verdict), board → rail
-//   click to plot visible (Debian's Chromium), PNG and PDF export of a revision with a stored verdict.
+//   click to plot visible (Debian's Chromium), PNG and PDF export of a revision with a stored verdict
+//   (kept files after the warm-up) and the first PNG / PDF of a revision saved just before (each
+//   run saves one more revision of the measured rail).
 // Prints median and p95 per row with the load average. A measurement, not a test: no budgets asserted.
 // Run: npx tsx scripts/measure-pages.ts [origin] [runs]   (origin default http://127.0.0.1:$PORT)
 import { loadavg } from 'node:os';
@@ -62,6 +64,22 @@ async function main() {
 		await measure(`review page first byte (${tag})`, async () => (await get(`/w/${ws.id}/reviews/${loop.id}`, 'text/html')).firstByte);
 		await measure(`PNG export (${tag})`, async () => (await get(`/api/v1/loops/${loop.id}/exports/png`, 'image/png')).total);
 		await measure(`PDF export (${tag})`, async () => (await get(`/api/v1/loops/${loop.id}/exports/pdf`, 'application/pdf')).total);
+
+		// A revision saved just now: the first download of each file, as a person clicks it right after the save.
+		const firstAfterSave = async (format: 'png' | 'pdf') => {
+			const design = (await json<{ design: unknown }>(`/api/v1/loops/${loop.id}`)).design;
+			const latest = (await json<{ items: { revision: number }[] }>(`/api/v1/rails/${rail.id}/loops?limit=1`)).items[0].revision;
+			const saved = await fetch(`${origin}/api/v1/rails/${rail.id}/loops`, {
+				method: 'POST',
+				headers: { cookie, origin, 'content-type': 'application/json' },
+				body: JSON.stringify({ baseRevision: latest, design, message: `measure-pages: first ${format}` })
+			});
+			if (saved.status !== 201) throw new Error(`save: HTTP ${saved.status}`);
+			const id = ((await saved.json()) as { id: string }).id;
+			return (await get(`/api/v1/loops/${id}/exports/${format}${format === 'png' ? '?corners=1' : ''}`, format === 'png' ? 'image/png' : 'application/pdf')).total;
+		};
+		await measure(`first PNG right after a save (${tag})`, () => firstAfterSave('png'));
+		await measure(`first PDF right after a save (${tag})`, () => firstAfterSave('pdf'));
 
 		const browser = await chromium.launch({ executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium', args: ['--no-sandbox', '--disable-gpu'] });
 		const context = await browser.newContext({ viewport: { width: 1440, height: 900 } });

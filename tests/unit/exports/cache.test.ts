@@ -1,6 +1,7 @@
 // The kept exports stay bounded (hostile use: every signed-in user can ask for many files):
 // at most 256 files and 64 MB, least recently used dropped first; an error answer and a file
-// over 8 MB are never kept; a kept file is answered without drawing again.
+// over 8 MB are never kept; a kept file is answered without drawing again, and a file being
+// drawn is not drawn a second time.
 import { describe, expect, it, vi } from 'vitest';
 import { cachedExport, exportCacheSize, exportKey } from '../../../src/lib/server/exports/cache';
 
@@ -14,6 +15,26 @@ describe('export cache', () => {
 		// Another input (theme) is another file.
 		await cachedExport(exportKey({ plot: 'loop-1', theme: 'light' }), render);
 		expect(render).toHaveBeenCalledTimes(2);
+	});
+
+	it('answers a request for a file being drawn with that drawing, and draws again after a failure', async () => {
+		let finish: (b: Buffer) => void = () => {};
+		const render = vi.fn(() => new Promise<Buffer>((resolve) => (finish = resolve)));
+		const key = exportKey({ plot: 'in-flight' });
+		const first = cachedExport(key, render);
+		const second = cachedExport(key, render);
+		finish(Buffer.from('drawn once'));
+		expect((await first).toString()).toBe('drawn once');
+		expect((await second).toString()).toBe('drawn once');
+		expect(render).toHaveBeenCalledTimes(1);
+
+		const failing = vi.fn(async () => {
+			throw new Error('pool busy');
+		});
+		const other = exportKey({ plot: 'fails' });
+		await expect(Promise.all([cachedExport(other, failing), cachedExport(other, failing)])).rejects.toThrow('pool busy');
+		expect(failing).toHaveBeenCalledTimes(1);
+		expect((await cachedExport(other, async () => 'svg now')).toString()).toBe('svg now');
 	});
 
 	it('never keeps an error answer', async () => {

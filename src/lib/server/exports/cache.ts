@@ -32,9 +32,13 @@ function remember(key: string, body: Body) {
 	}
 }
 
+/** Drawings under way by key: a second request for a file being drawn (a download right after
+ * the save's pre-render began) waits for that drawing instead of starting another. */
+const drawing = new Map<string, Promise<unknown>>();
+
 /**
- * The file under `key`, drawn by `render` only when it is not kept yet. A render that answers
- * something other than a file (an error object) is passed through and not kept.
+ * The file under `key`, drawn by `render` only when it is not kept yet nor being drawn. A render
+ * that answers something other than a file (an error object) is passed through and not kept.
  */
 export async function cachedExport<B extends Body, T>(key: string, render: () => Promise<B | T>): Promise<B | T> {
 	const kept = entries.get(key) as B | undefined;
@@ -44,9 +48,18 @@ export async function cachedExport<B extends Body, T>(key: string, render: () =>
 		entries.set(key, kept);
 		return kept;
 	}
-	const body = await render();
-	if (typeof body === 'string' || Buffer.isBuffer(body)) remember(key, body);
-	return body;
+	const under = drawing.get(key) as Promise<B | T> | undefined;
+	if (under) return under;
+	const started = render().then((body) => {
+		if (typeof body === 'string' || Buffer.isBuffer(body)) remember(key, body);
+		return body;
+	});
+	drawing.set(key, started);
+	try {
+		return await started;
+	} finally {
+		drawing.delete(key);
+	}
 }
 
 /** For tests: how many files and bytes are kept. */

@@ -11,6 +11,7 @@ import { designImportSchema } from '$lib/schemas/signoff';
 import * as loops from '$lib/server/services/loops';
 import * as rails from '$lib/server/services/rails';
 import * as audit from '$lib/server/services/audit';
+import { prerenderExports } from '$lib/server/services/export-prerender';
 import type { RequestHandler } from './$types';
 
 export const POST: RequestHandler = endpoint(async (event) => {
@@ -23,5 +24,6 @@ export const POST: RequestHandler = endpoint(async (event) => {
 	}
 	const row = await loops.save(db, access.caller, rail, { baseRevision: input.baseRevision, design: result.document, message: input.message });
 	await audit.record(db, { workspaceId: rail.workspaceId, actor: access.caller, action: 'loop.import', entityType: 'loop', entityId: row.id, after: { railId: rail.id, revision: row.revision } });
+	prerenderExports(db, row.id, access.caller.userId);
 	return created(row);
 });

@@ -10,23 +10,17 @@ import { authorizeRow } from '$lib/server/authz/guard';
 import { endpoint } from '$lib/server/http/endpoint';
 import { ApiError } from '$lib/server/http/errors';
 import { parseQuery } from '$lib/server/http/request';
-import { exportSignedOffJson, networkRoots, plotFromResponse, renderBodePng, renderBodeSvg, sweepCsv, verdictCsv } from '$lib/server/exports';
+import { exportSignedOffJson, sweepCsv, verdictCsv } from '$lib/server/exports';
 import * as loops from '$lib/server/services/loops';
 import * as signoff from '$lib/server/services/signoff';
 import * as analyses from '$lib/server/analysis-pool';
-import { cachedExport, exportKey } from '$lib/server/exports/cache';
+import { plotFile, plotQuerySchema } from '$lib/server/services/plot-export';
 import { z } from 'zod';
 import type { RequestHandler } from './$types';
 
 const EXPORT_FORMATS = ['csv', 'verdict', 'svg', 'png', 'spice', 'json', 'pdf'] as const;
 
-const querySchema = z.object({
-	corners: z.enum(['0', '1']).optional(),
-	corner: z.coerce.number().int().min(0).max(3).optional(),
-	theme: z.enum(['light', 'dark']).optional(),
-	width: z.coerce.number().int().min(320).max(2400).optional(),
-	batch: z.enum(['0', '1']).optional()
-});
+const querySchema = plotQuerySchema.extend({ batch: z.enum(['0', '1']).optional() });
 
 const TYPES: Record<(typeof EXPORT_FORMATS)[number], { type: string; ext: string }> = {
 	csv: { type: 'text/csv; charset=utf-8', ext: 'csv' },
@@ -77,11 +71,8 @@ export const GET: RequestHandler = endpoint(async (event) => {
 		return file(out.json, 'json', base, false);
 	}
 	if (format === 'svg' || format === 'png') {
-		const v = row.verification;
 		// The plot shows the immutable design, the corners that set the stored verdict and the title: a repeat is the kept file.
-		const key = exportKey({ plot: row.id, format, q, base, verdict: v ? { engineVersion: v.engineVersion, worst: v.worst } : null });
-		const body = await cachedExport(key, () => drawPlot(owner, row, format, q, base));
-		return file(body, format, base, inline);
+		return file(await plotFile(owner, row, format, q, base), format, base, inline);
 	}
 	const detail = await analyses.stored(owner, {
 		design: row.design,
@@ -96,25 +87,3 @@ export const GET: RequestHandler = endpoint(async (event) => {
 	}
 	throw new ApiError(404, 'not-found', `no export called ${format}`);
 });
-
-type Query = z.infer<typeof querySchema>;
-
-/** The Bode plot of a stored revision as SVG or PNG, drawn from an analysis in the pool (for `owner`). */
-async function drawPlot(owner: string, row: NonNullable<Awaited<ReturnType<typeof loops.get>>>, format: 'svg' | 'png', q: Query, base: string): Promise<string | Buffer> {
-	const detail = await analyses.stored(owner, { design: row.design, verification: row.verification });
-	if ('error' in detail) throw new ApiError(422, detail.error.code, `the stored design cannot be analysed: ${detail.error.message}`, detail.error.fields);
-	const nominal = detail.response;
-	const fsw = detail.document.plant.fsw;
-	const corners = detail.cornerTraces;
-	let plot;
-	if (q.corner !== undefined) {
-		const c = corners[q.corner];
-		if (!c) throw new ApiError(400, 'invalid-query', 'the request failed validation', { corner: corners.length ? `must be 0…${corners.length - 1} (the corners that set the verdict)` : 'this revision has no corner traces' });
-		plot = plotFromResponse(nominal, { fswHz: fsw, title: `${base}, ${c.label}`, show: { plant: false, compensator: false }, cornerLoops: [c] });
-	} else {
-		plot = plotFromResponse(nominal, { fswHz: fsw, cornerLoops: q.corners === '1' ? corners : [], title: `${base} loop gain` });
-	}
-	const options = { width: q.width ?? 900, theme: q.theme ?? 'light', roots: networkRoots(nominal) } as const;
-	if (format === 'svg') return renderBodeSvg(plot, options);
-	return renderBodePng(plot, { ...options, pixelWidth: (q.width ?? 900) * 2 });
-}
