@@ -7,6 +7,9 @@ import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import Papa from 'papaparse';
 import { Resvg } from '@resvg/resvg-js';
+import { designSensitivity, type SensitivityReport } from '$lib/engine/sensitivity';
+import { designDocumentSchema } from '$lib/engine/contract/designSchema';
+import { sensitivityCells } from '$lib/verdict/sensitivityText';
 import { describe, expect, it } from 'vitest';
 import { parseBenchFile } from '$lib/bench';
 import { analyzeDesign, type AnalysisResponse } from '$lib/engine';
@@ -172,6 +175,16 @@ describe('buildSignoffPdf', { timeout: 60_000 }, () => {
 		expect(t.pages).toBeGreaterThanOrEqual(2);
 		// the caution footer on every page
 		expect(text.split('Page ').length - 1).toBe(t.pages);
+	});
+
+	it('prints the ranked sensitivity table when the report has one, with its totals', async () => {
+		const report = designSensitivity(designDocumentSchema.parse(specDoc)) as SensitivityReport;
+		const pdf = await buildSignoffPdf({ rail: { name: 'S' }, revision: { label: 'r1' }, document: specDoc as never, response: buck, verification, sensitivity: report });
+		const text = flat((await pdfText(pdf)).text);
+		expect(text).toContain('What moves the phase margin');
+		expect(text).toContain('Root-sum-square');
+		// The largest row, as the review page's table prints it (verdict/sensitivityText.ts).
+		for (const cell of sensitivityCells(report.rows[0]).slice(0, 2)) expect(text).toContain(cell);
 	});
 
 	it('an en dash and Ω survive in the PDF, and every verdict row is one line (failed before: "1 k ohm?1 M ohm", rows wrapped)', async () => {

@@ -19,6 +19,8 @@ import { PALETTES } from './theme';
 import { formatDateTime } from '../../text/dates';
 import { loopStatusText } from '../../text/status';
 import { cornerListText } from '../../verdict/cornerList';
+import { SENSITIVITY_HEADER, sensitivityCells, sensitivityTotals } from '../../verdict/sensitivityText';
+import type { SensitivityReport } from '../../engine/sensitivity';
 
 export const REPORT_CAUTION =
 	'Small-signal estimate; confirm margins and transients on hardware; above 60 V DC or at mains follow the applicable safety standards and licensed practice.';
@@ -51,6 +53,8 @@ export interface SignoffReportInput {
 	/** The verdict stored with the revision; null only for a row not verified yet. */
 	verification: Verification | null;
 	cornerTraces?: ReportCornerTrace[];
+	/** The ranked sensitivities of the margins to every part (engine/sensitivity). */
+	sensitivity?: SensitivityReport | null;
 	review?: ReviewEntry[];
 	/** A plot image to use instead of rendering one from the response. */
 	plotPng?: Buffer;
@@ -185,6 +189,17 @@ export function buildSignoffPdf(input: SignoffReportInput, options: PdfOptions =
 	p.capacitors.forEach((c, i) => partRows.push({ cells: [`COUT${i + 1}`, `${c.count} x ${formatPart(c.c, 'F')}`, `${c.count} x ${formatPart(c.c, 'F')}`, `output bank branch ${i + 1}, ESR ${formatPart(c.esr, 'Ω')} each`] }));
 	table(doc, ['Part', 'Ideal', 'Built', 'Role'], [60, 90, 90, w - 240], partRows);
 	doc.moveDown(0.6);
+
+	// Which part moves the margins most (linearised at the nominal point; the corners are exact).
+	if (input.sensitivity) {
+		heading(doc, 'What moves the phase margin');
+		doc.font('Helvetica').fontSize(9).fillColor(MUTED).text(`Change of each figure with one part at its tolerance (${input.sensitivity.rankedBy === 'tolerance' ? 'ranked by it' : 'no tolerances: ranked per +10 %'}), linearised at the nominal operating point.`, { width: w });
+		doc.moveDown(0.2);
+		const rows = input.sensitivity.rows.map((r) => ({ cells: sensitivityCells(r) }));
+		for (const t of sensitivityTotals(input.sensitivity)) rows.push({ cells: [t.label, '', '', ...t.cells] });
+		table(doc, [...SENSITIVITY_HEADER], [w - 400, 50, 80, 80, 90, 100], rows);
+		doc.moveDown(0.6);
+	}
 
 	// Every warning the engine raised, at any corner.
 	heading(doc, 'Engine warnings');

@@ -141,9 +141,10 @@ export async function reportPdf(db: Database, loop: Loop, owner: string): Promis
 	// Everything the report prints besides the (immutable) design: a repeated download is the kept file.
 	const key = exportKey({ pdf: loop.id, railText, revision, verification: loop.verification, review });
 	return cachedExport<Buffer, { error: { code: string; message: string; fields?: Record<string, string> } }>(key, async () => {
-		const detail = await analyses.stored(owner, { design: loop.design, verification: loop.verification });
+		const detail = await analyses.stored(owner, { design: loop.design, verification: loop.verification, sensitivity: true });
 		if ('error' in detail) return detail;
 		return buildSignoffPdf({
+			sensitivity: detail.sensitivity,
 			rail: railText,
 			revision,
 			document: detail.document,
