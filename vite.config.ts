@@ -17,7 +17,10 @@ export default defineConfig({
 					name: 'unit',
 					include: ['tests/unit/**/*.test.ts'],
 					setupFiles: ['tests/unit/fast-check-seed.ts'],
-					environment: 'node'
+					environment: 'node',
+					// A ceiling against a hang, not a timing check: property tests take a few seconds on a
+					// quiet 2-core machine and several times that when it is busy.
+					testTimeout: 60_000
 				}
 			},
 			{
