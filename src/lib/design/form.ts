@@ -74,8 +74,12 @@ export interface DesignForm {
 	tempMin?: string;
 	tempMax?: string;
 	capacitors: CapacitorRow[];
+	/** Control method: a PWM ramp, or peak current mode with its sense gain and compensation ramp. */
+	control: 'voltage' | 'peak-current';
 	vramp: string;
 	feedForward: boolean;
+	senseGain: string;
+	rampSlope: string;
 	delay: string;
 	vref: string;
 	r1: string;
@@ -130,6 +134,8 @@ export const FIELDS: Record<string, FieldSpec> = {
 	dcr: pos('DCR', 'Ω', { allowZero: true }),
 	rdsOn: pos('RDS(on)', 'Ω', { allowZero: true }),
 	vramp: pos('Ramp Vpp', 'V'),
+	senseGain: pos('Sense gain Ri', 'V/A', { hint: 'sense resistance × amplifier gain' }),
+	rampSlope: pos('Ramp slope Se', 'V/s', { allowZero: true, hint: 'compensation ramp at the comparator' }),
 	delay: pos('Loop delay', 's', { allowZero: true, max: 1 }),
 	vref: pos('Vref', 'V'),
 	r1: pos('R1 (divider top)', 'Ω'),
@@ -343,7 +349,10 @@ export function readForm(form: DesignForm): FormResult {
 			...(form.lightLoad ? { lightLoad: form.lightLoad } : {}),
 			...(losses ? { losses } : {})
 		},
-		modulator: { vramp: v('vramp'), feedForward: form.feedForward, delay: v('delay') },
+		modulator:
+			form.control === 'peak-current'
+				? { control: 'peak-current', senseGain: v('senseGain'), rampSlope: v('rampSlope'), delay: v('delay') }
+				: { vramp: v('vramp'), feedForward: form.feedForward, delay: v('delay') },
 		feedback: { vref: v('vref'), r1: v('r1') },
 		compensator: compensator as DesignDocumentInput['compensator'],
 		// The verification spec: the verdict of this document never depends on settings elsewhere.
@@ -426,6 +435,8 @@ export function fieldForPath(path: string): string | null {
 		'corners.temperature.max': 'tempMax',
 		'plant.capacitors': 'capacitors',
 		'modulator.vramp': 'vramp',
+		'modulator.senseGain': 'senseGain',
+		'modulator.rampSlope': 'rampSlope',
 		'modulator.delay': 'delay',
 		'feedback.vref': 'vref',
 		'feedback.r1': 'r1',
@@ -493,8 +504,11 @@ export function demoForm(): DesignForm {
 		dcr: '4m',
 		rdsOn: '6m',
 		capacitors: [capacitorRow('47u', '2m', '0', '3'), capacitorRow('330u', '15m', '0', '1')],
+		control: 'voltage',
 		vramp: '1',
 		feedForward: false,
+		senseGain: '100m',
+		rampSlope: '50k',
 		delay: '0',
 		vref: '0.6',
 		r1: '10k',
@@ -623,7 +637,7 @@ type DocLike = {
 		lightLoad?: Exclude<LightLoadChoice, ''>;
 		losses?: Partial<Record<LossKey, number>>;
 	};
-	modulator: { vramp: number; feedForward?: boolean; delay?: number };
+	modulator: { vramp?: number; feedForward?: boolean; delay?: number; control?: 'voltage' | 'peak-current'; senseGain?: number; rampSlope?: number };
 	feedback: { vref: number; r1: number };
 	compensator: {
 		kind: CompensatorKind;
@@ -668,8 +682,11 @@ export function formFromDocument(doc: DocLike, rail: RailSummary | null, gmTarge
 		tempMin: doc.corners?.temperature ? String(doc.corners.temperature.min) : '',
 		tempMax: doc.corners?.temperature ? String(doc.corners.temperature.max) : '',
 		capacitors: p.capacitors.map((b) => ({ ...capacitorRow(f(b.c, 'F'), f(b.esr ?? 0, 'Ω'), f(b.esl ?? 0, 'H'), String(b.count ?? 1)), ...deratingRow(b) })),
-		vramp: f(doc.modulator.vramp, 'V'),
+		control: doc.modulator.control ?? 'voltage',
+		vramp: doc.modulator.control === 'peak-current' ? '1' : f(doc.modulator.vramp, 'V'),
 		feedForward: doc.modulator.feedForward ?? false,
+		senseGain: doc.modulator.senseGain === undefined ? '100m' : f(doc.modulator.senseGain, 'V/A'),
+		rampSlope: doc.modulator.rampSlope === undefined ? (doc.modulator.control === 'peak-current' ? '0' : '50k') : f(doc.modulator.rampSlope, 'V/s'),
 		delay: f(doc.modulator.delay ?? 0, 's'),
 		vref: f(doc.feedback.vref, 'V'),
 		r1: f(doc.feedback.r1, 'Ω'),
