@@ -4,24 +4,31 @@
  * value comes back at its field.
  */
 import { describe, expect, it } from 'vitest';
-import { demoForm, fieldForPath, formFromDocument, readForm } from '$lib/design/form';
+import { demoForm, fieldForPath, formFromDocument, readForm, type DesignForm } from '$lib/design/form';
 import { analyzeDesign } from '$lib/engine';
+
+/** The document a form reads into; a form with errors fails the test with them. */
+function documentOf(f: DesignForm) {
+	const r = readForm(f);
+	if (!r.document) throw new Error(`form errors: ${JSON.stringify(r.errors)}`);
+	return r.document;
+}
 
 describe('design form: control method', () => {
 	const form = { ...demoForm(), control: 'peak-current' as const, senseGain: '50m V/A', rampSlope: '120k' };
 
 	it('peak current mode: the document carries control, Ri and Se in SI and no ramp', () => {
-		const r = readForm(form);
-		expect(r.errors).toEqual({});
-		expect(r.document.modulator).toEqual({ control: 'peak-current', senseGain: 0.05, rampSlope: 120e3, delay: 0 });
-		const a = analyzeDesign(r.document);
+		expect(readForm(form).errors).toEqual({});
+		const doc = documentOf(form);
+		expect(doc.modulator).toEqual({ control: 'peak-current', senseGain: 0.05, rampSlope: 120e3, delay: 0 });
+		const a = analyzeDesign(doc);
 		if ('error' in a) throw new Error(JSON.stringify(a.error));
 		expect(a.features.currentMode?.se).toBe(120e3);
 	});
 
 	it('document → form → document is lossless', () => {
-		const doc = readForm(form).document;
-		const again = readForm(formFromDocument(doc as never, null)).document;
+		const doc = documentOf(form);
+		const again = documentOf(formFromDocument(doc as never, null));
 		expect(again.modulator).toEqual(doc.modulator);
 	});
 
@@ -33,6 +40,6 @@ describe('design form: control method', () => {
 	});
 
 	it('voltage mode is unchanged: the ramp and feed-forward, no current-mode fields', () => {
-		expect(readForm(demoForm()).document.modulator).toEqual({ vramp: 1, feedForward: false, delay: 0 });
+		expect(documentOf(demoForm()).modulator).toEqual({ vramp: 1, feedForward: false, delay: 0 });
 	});
 });
