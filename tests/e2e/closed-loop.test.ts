@@ -123,3 +123,16 @@ test('the input-filter verdict follows the damping resistor', async ({ page }) =
 	await expect(verdict).toHaveAttribute('data-verdict', 'pass');
 	await page.screenshot({ path: 'test-results/input-filter-damped.png', fullPage: true });
 });
+
+test('the switching check runs in its worker and shows its phase margin beside the averaged one', async ({ page }) => {
+	// The production worker bundle is what this exercises: a module-order fault in a worker shows
+	// only there, as an error instead of figures.
+	await openSandbox(page);
+	await page.getByTestId('tab-switching').click();
+	await page.getByTestId('switching-run').click();
+	const figures = page.getByTestId('switching-figures');
+	await expect(figures).toBeVisible({ timeout: 90_000 });
+	// [common practice] a PM is a finite angle in degrees
+	await expect(page.getByTestId('switching-pm')).toHaveText(/-?\d+(\.\d+)?\s*°/);
+	expect(await page.getByTestId('switching-panel').innerText()).not.toMatch(/NaN|Infinity/);
+});

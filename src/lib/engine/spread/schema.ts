@@ -4,7 +4,7 @@
  * Part tolerances come from the `tolerances` section (corners/schema.ts).
  */
 import { z } from 'zod';
-import { DEFAULT_SAMPLES, MAX_SAMPLES } from './spread';
+import { DEFAULT_SAMPLES, MAX_SAMPLES } from './limits';
 
 const num = (unit: string) => z.number({ error: `must be a number (${unit})` });
 

@@ -12,10 +12,9 @@ import { loopMetrics } from '../analysis/margins';
 import { isDesignInputError } from '../errors';
 import { createRng, type Rng } from './prng';
 import { histogram, statistics, type Histogram, type Statistics } from './histogram';
+import { DEFAULT_SAMPLES, MAX_SAMPLES } from './limits';
 
-/** 10 000 samples resolve a yield to 0.01 %; the cost is samples × one loop analysis. */
-export const MAX_SAMPLES = 10000;
-export const DEFAULT_SAMPLES = 1000;
+export { DEFAULT_SAMPLES, MAX_SAMPLES };
 
 export interface PartTolerance {
 	/** Relative limit (0.1 = ±10 %). */
