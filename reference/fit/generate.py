@@ -97,6 +97,32 @@ def residual_vector(meas, model):
     return out
 
 
+def case_residual(case, meas, f):
+    """The residual of a case's parameters at theta: log factors on the typed values, the delay in periods."""
+    fsw = DESIGN["plant"]["fsw"]
+    names = [p["key"] for p in case["parameters"]]
+
+    def fun(theta):
+        factors, delay = {}, 0.0
+        for k, name in enumerate(names):
+            if name == "delay":
+                delay = theta[k] / fsw
+            else:
+                factors[name] = np.exp(theta[k])
+        return residual_vector(meas, responses(loop_parts(DESIGN, factors, delay), f)[case["response"]])
+
+    return fun
+
+
+def fit_case(case, fun):
+    """scipy's fit of a case: the engine's start, bounds, loss and f_scale."""
+    lower = np.array([p["lower"] for p in case["parameters"]])
+    upper = np.array([p["upper"] for p in case["parameters"]])
+    x0 = np.array([p["start"] for p in case["parameters"]])
+    return least_squares(fun, x0, bounds=(lower, upper), method="trf", loss="soft_l1",
+                         f_scale=case["fScale"], x_scale="jac", xtol=1e-14, ftol=1e-14, gtol=1e-14, max_nfev=2000)
+
+
 def run_case(case, rng):
     fsw = DESIGN["plant"]["fsw"]
     f = np.logspace(np.log10(case["startHz"]), np.log10(case["stopHz"]), case["points"])
@@ -110,25 +136,8 @@ def run_case(case, rng):
         phase_deg[i] += ddeg
     meas = 10 ** (mag_db / 20) * np.exp(1j * np.radians(phase_deg))
 
-    names = [p["key"] for p in case["parameters"]]
-    lower = np.array([p["lower"] for p in case["parameters"]])
-    upper = np.array([p["upper"] for p in case["parameters"]])
-    x0 = np.array([p["start"] for p in case["parameters"]])
-
-    def model_at(theta):
-        factors, delay = {}, 0.0
-        for k, name in enumerate(names):
-            if name == "delay":
-                delay = theta[k] / fsw
-            else:
-                factors[name] = np.exp(theta[k])
-        return responses(loop_parts(DESIGN, factors, delay), f)[case["response"]]
-
-    def fun(theta):
-        return residual_vector(meas, model_at(theta))
-
-    res = least_squares(fun, x0, bounds=(lower, upper), method="trf", loss="soft_l1",
-                        f_scale=case["fScale"], x_scale="jac", xtol=1e-14, ftol=1e-14, gtol=1e-14, max_nfev=2000)
+    fun = case_residual(case, meas, f)
+    res = fit_case(case, fun)
     theta = res.x
     r = fun(theta)
     h = 1e-6
@@ -149,7 +158,7 @@ def run_case(case, rng):
         return typed_value(name) * np.exp(t)
 
     estimates = []
-    for k, name in enumerate(names):
+    for k, name in enumerate(p["key"] for p in case["parameters"]):
         estimates.append({
             "key": name,
             "true": truth.get(name, 0.0) if name == "delay" else typed_value(name) * truth.get(name, 1.0),
