@@ -34,7 +34,9 @@ export function switchingCircuitOf(detail: AnalysisDetail): SwitchingCircuitInpu
 		opamp: d.compensator.kind === 'type2-ota' ? null : (d.compensator.opamp ?? null),
 		vref: d.feedback.vref,
 		vramp: rampAmplitude(modulatorInputOf(d), d.plant.vin),
-		fswHz: d.plant.fsw
+		fswHz: d.plant.fsw,
+		// The document names no maximum duty (neither does the averaged model): the clock never ends the on interval.
+		currentMode: d.modulator.control === 'peak-current' ? { senseGain: d.modulator.senseGain ?? 0, rampSlope: d.modulator.rampSlope ?? 0 } : null
 	};
 }
 
@@ -65,10 +67,9 @@ export function switchingCheckOfDesign(doc: unknown, options: SwitchingCheckOpti
 	return switchingCheck(switchingCheckInputOf(detail), options);
 }
 
-/** Designs the voltage-mode, synchronous-CCM switching model does not cover yet. */
+/** Designs the synchronous-CCM switching model does not cover. */
 function outsideReachOf(detail: AnalysisDetail): string | null {
 	const d = detail.document;
-	if (d.modulator.control === 'peak-current') return 'Peak current mode is not in the switching model yet (voltage mode only).';
 	const light = d.plant.lightLoad;
 	if (detail.plant.operatingPoint.mode === 'dcm' && (light === 'diode' || light === 'diode-emulation')) {
 		return 'The nominal point runs discontinuous (diode or diode emulation); the switching model covers continuous conduction only.';

@@ -2,14 +2,15 @@
  * The switching check of a design: the periodic orbit and its multipliers, the loop gain measured
  * on the switching model at about ten frequencies, its crossover and phase margin beside the
  * averaged model's, and a caution when they part by more than the stated tolerance
- * (docs/formulas.md §13.5). Voltage mode, CCM with synchronous switches; a delay is not modelled.
- * Peak current mode would enter as a second comparator condition in cycle.ts.
+ * (docs/formulas.md §13.5). Voltage mode and peak current mode (comparator.ts), CCM with
+ * synchronous switches; a delay is not modelled.
  */
 import { evaluate, evaluatePolar } from '../tf/evaluate';
 import type { FactoredTf } from '../tf/types';
 import { formatEng } from '../../units/format';
 import { switchedSystem, type SwitchingCircuitInput } from './circuit';
 import { Propagator } from './cycle';
+import { matVec } from './linalg';
 import { measureLoopGain, periodsFor, type LoopGainPoint } from './measure';
 import { periodicSteadyState, readMultipliers, type MultiplierReading, type PeriodicOrbit } from './steadyState';
 
@@ -61,7 +62,7 @@ export interface SwitchingCheckResult {
 		spectralRadius: number;
 		reading: MultiplierReading;
 		words: string;
-		/** Slope of the control voltage at the turn-off instant over the ramp's slope. */
+		/** Slope of the control voltage at the turn-off instant over the slope it meets (the ramp; in peak current mode the sensed current plus the ramp). */
 		controlSlopeRatio: number;
 	} | null;
 	points: SwitchingPoint[];
@@ -87,11 +88,20 @@ const notRun = (input: SwitchingCheckInput, reason: string): SwitchingCheckResul
 	notes: []
 });
 
+/** Peak current mode's control voltage at the averaged point: Ri·(IL + ΔiL/2) + Se·D·Ts. */
+function peakControlGuess(input: SwitchingCheckInput): number {
+	const c = input.circuit;
+	const cm = c.currentMode!;
+	const onTime = input.duty / c.fswHz;
+	const rise = c.topology === 'buck' ? c.vin - input.vout : c.vin;
+	return cm.senseGain * (input.inductorCurrent + (rise * onTime) / (2 * c.l)) + cm.rampSlope * onTime;
+}
+
 /** First guess of the orbit: the averaged operating point, the network at its DC state. */
 export function initialGuess(input: SwitchingCheckInput, names: string[], n: number): Float64Array {
 	const c = input.circuit;
 	const x = new Float64Array(n);
-	const vo = input.duty * c.vramp;
+	const vo = c.currentMode ? peakControlGuess(input) : input.duty * c.vramp;
 	const a0 = c.opamp && c.network.kind !== 'type2-ota' ? 10 ** (c.opamp.a0Db / 20) : Infinity;
 	const vMinus = c.vref - vo / a0;
 	const ota = c.network.kind === 'type2-ota';
@@ -109,7 +119,7 @@ export function initialGuess(input: SwitchingCheckInput, names: string[], n: num
 
 export function orbitOf(input: SwitchingCheckInput): { orbit: PeriodicOrbit; prop: Propagator } {
 	const sys = switchedSystem(input.circuit, { omega: 0, amplitude: 0 });
-	const prop = new Propagator(sys, input.circuit.fswHz, input.circuit.vramp);
+	const prop = new Propagator(sys, input.circuit.fswHz);
 	const orbit = periodicSteadyState(prop, initialGuess(input, sys.names, sys.n));
 	return { orbit, prop };
 }
@@ -131,7 +141,7 @@ export function switchingCheck(input: SwitchingCheckInput, options: SwitchingChe
 	const { orbit, prop } = orbitOf(input);
 	if (!orbit.converged) return notRun(input, 'The switching model found no periodic steady state (the shooting did not converge).');
 	const reading = readMultipliers(orbit.multipliers);
-	const rate = prop.marginRate(orbit.cycle.xOff) + c.vramp * c.fswHz;
+	const slopes = comparatorSlopes(prop, orbit);
 	const orbitReport = {
 		duty: orbit.duty,
 		valleyCurrent: orbit.valleyCurrent,
@@ -140,7 +150,7 @@ export function switchingCheck(input: SwitchingCheckInput, options: SwitchingChe
 		spectralRadius: orbit.spectralRadius,
 		reading,
 		words: multiplierWords(reading, orbit.spectralRadius, c.fswHz),
-		controlSlopeRatio: rate / (c.vramp * c.fswHz)
+		controlSlopeRatio: slopes.ratio
 	};
 	const notes: string[] = [];
 	if (orbit.valleyCurrent < 0) {
@@ -167,7 +177,7 @@ export function switchingCheck(input: SwitchingCheckInput, options: SwitchingChe
 		const t = evaluate(input.averagedLoop, omega);
 		const gc = evaluate(input.averagedCompensator, omega);
 		const onePlusT = Math.hypot(1 + t.re, t.im);
-		return (modulation * c.vramp * onePlusT) / Math.max(Math.hypot(gc.re, gc.im), 1e-12);
+		return (modulation * slopes.rampEquivalent * onePlusT) / Math.max(Math.hypot(gc.re, gc.im), 1e-12);
 	};
 	const points: SwitchingPoint[] = [];
 	let done = 0;
@@ -215,6 +225,28 @@ export function switchingCheck(input: SwitchingCheckInput, options: SwitchingChe
 		caution,
 		notes
 	};
+}
+
+/**
+ * At the orbit's turn-off instant: the control voltage's slope over the slope of what it meets
+ * (the ramp in voltage mode; Sn + Se, the sensed current's rise plus the ramp, in peak current
+ * mode), and the peak-to-peak ramp that gives the modulator's averaged gain (Vramp; (Sn + Se)·Ts,
+ * docs/formulas.md §14.1), from which the injection amplitude is set.
+ */
+function comparatorSlopes(prop: Propagator, orbit: PeriodicOrbit): { ratio: number; rampEquivalent: number } {
+	const { sys, ts } = prop;
+	const xOff = orbit.cycle.xOff;
+	const fx = matVec(sys.aOn, xOff, sys.n);
+	const vcRate = sys.amplifier.reduce((s, v, i) => s + v * fx[i], 0);
+	if (sys.comparator.control === 'voltage') return { ratio: vcRate / prop.slope, rampEquivalent: prop.slope * ts };
+	// What vc meets rises at Ri·diL/dt + Se = vcRate − (margin's rate); Sn is taken from the orbit's
+	// own rise, valley to peak over the on time, as the averaged model takes it from the ripple.
+	const met = vcRate - prop.marginRate(xOff);
+	const senseGain = sys.amplifier[sys.iL] - sys.control[sys.iL];
+	const tOn = orbit.cycle.tOff;
+	const sn = tOn > 0 ? (senseGain * (xOff[sys.iL] - orbit.x0[sys.iL])) / tOn : 0;
+	const rampEquivalent = (sn + prop.slope) * ts;
+	return { ratio: met > 0 ? vcRate / met : 0, rampEquivalent: rampEquivalent > 0 ? rampEquivalent : sys.comparator.scale };
 }
 
 function withAveraged(p: LoopGainPoint, loop: FactoredTf): SwitchingPoint {
@@ -277,7 +309,9 @@ function cautionWords(
 	const causes: string[] = [];
 	if (Math.abs(slopeRatio) > 0.02) {
 		causes.push(
-			`output ripple reaches the comparator through the network's high-frequency gain: at the turn-off instant the control voltage moves at ${Math.round(slopeRatio * 100)} % of the ramp's slope, so the modulator's gain is not 1/Vramp`
+			input.circuit.currentMode
+				? `output ripple reaches the comparator through the network's high-frequency gain: at the turn-off instant the control voltage moves at ${Math.round(slopeRatio * 100)} % of the slope of the sensed current plus the ramp, so the modulator's gain is not 1/((Sn + Se)·Ts)`
+				: `output ripple reaches the comparator through the network's high-frequency gain: at the turn-off instant the control voltage moves at ${Math.round(slopeRatio * 100)} % of the ramp's slope, so the modulator's gain is not 1/Vramp`
 		);
 	}
 	causes.push('a light load, where the ripple is large against the DC current');

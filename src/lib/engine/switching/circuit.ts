@@ -1,5 +1,5 @@
 /**
- * The switched linear circuit of a voltage-mode buck or boost in CCM, as two state matrices (switch
+ * The switched linear circuit of a voltage-mode or peak current-mode buck or boost in CCM, as two state matrices (switch
  * on, switch off) over one augmented state: the circuit's own states, then three exogenous ones
  * (the constant 1 that carries Vin, Vref and a load-step current, and sin ωt, cos ωt of the
  * injected sine). Each interval is then the autonomous x' = Ā·x, solved exactly by e^(Ā·t).
@@ -7,10 +7,13 @@
  * in both intervals (synchronous switches), every capacitor-bank branch with its C, ESR and ESL,
  * resistive load, and the compensator network with the ideal or single-pole op-amp (§5.6) or the
  * OTA (§5.5), driven from the sensed node vs = vout + injection (docs/formulas.md §13).
+ * The comparator row and its ramp are the only difference between the two control methods
+ * (comparator.ts).
  */
 import type { EquivalentBranch } from '../plants/capacitorBank';
 import type { OpampModel } from '../compensators/transfer';
 import type { NetworkParts } from '../synthesis/networks';
+import { comparatorOf, type ComparatorSpec, type CurrentModeCircuit } from './comparator';
 
 export interface SwitchingCircuitInput {
 	topology: 'buck' | 'boost';
@@ -23,9 +26,11 @@ export interface SwitchingCircuitInput {
 	network: NetworkParts;
 	opamp: OpampModel | null;
 	vref: number;
-	/** Peak-to-peak PWM ramp, V (the ramp rises from 0 V to vramp each period). */
+	/** Peak-to-peak PWM ramp, V (the ramp rises from 0 V to vramp each period); voltage mode only. */
 	vramp: number;
 	fswHz: number;
+	/** Peak current mode: the sensed inductor current plus the ramp Se meets the amplifier output. */
+	currentMode?: CurrentModeCircuit | null;
 }
 
 export interface SwitchedSystem {
@@ -37,10 +42,14 @@ export interface SwitchedSystem {
 	/** Ā with the switch on and off (row-major n×n). */
 	aOn: Float64Array;
 	aOff: Float64Array;
-	/** Rows over the augmented state: output voltage (depends on the switch for the boost), comparator input. */
+	/** Rows over the augmented state: output voltage (depends on the switch for the boost), comparator margin without its ramp. */
 	voutOn: Float64Array;
 	voutOff: Float64Array;
 	control: Float64Array;
+	/** Row of the amplifier output vc (the control voltage). */
+	amplifier: Float64Array;
+	/** The comparator's ramp (V/s), its maximum duty and the scale of its margin (docs/formulas.md §13.2). */
+	comparator: ComparatorSpec;
 	/** Index of the inductor current, of the constant 1, of sin ωt and cos ωt. */
 	iL: number;
 	one: number;
@@ -144,15 +153,31 @@ export function switchedSystem(c: SwitchingCircuitInput, inj: InjectionSpec): Sw
 		}
 		// Compensator, driven from the sensed node.
 		const vs = lin([1, v], [inj.amplitude, unit(sinI)]);
-		const control = compensatorRows(net, c, finite, comp, vs, { row, unit, lin, set, one });
+		const amplifier = compensatorRows(net, c, finite, comp, vs, { row, unit, lin, set, one });
 		// Exogenous generator: d/dt sin = ω cos, d/dt cos = −ω sin.
 		a[sinI * n + cosI] = inj.omega;
 		a[cosI * n + sinI] = -inj.omega;
-		return { a, v, control };
+		return { a, v, amplifier };
 	};
 	const on = build(true);
 	const off = build(false);
-	return { n, nc, names, aOn: on.a, aOff: off.a, voutOn: on.v, voutOff: off.v, control: on.control, iL: 0, one, sin: sinI, cos: cosI };
+	const { control, spec } = comparatorOf(c, on.amplifier, 0);
+	return {
+		n,
+		nc,
+		names,
+		aOn: on.a,
+		aOff: off.a,
+		voutOn: on.v,
+		voutOff: off.v,
+		control,
+		amplifier: on.amplifier,
+		comparator: spec,
+		iL: 0,
+		one,
+		sin: sinI,
+		cos: cosI
+	};
 }
 
 interface RowKit {

@@ -1,11 +1,14 @@
 /**
  * One switching period of the trailing-edge PWM, solved exactly: the switch turns on at the clock,
- * turns off at the first instant the amplifier output falls to the ramp (0 → Vramp over Ts), and
- * stays off until the next clock. The on interval is walked on a grid of K exact steps e^(Ā·h)
- * (precomputed) until the comparator condition changes sign; the instant is then placed inside that
- * step by a safeguarded Newton iteration on the exact solution (docs/formulas.md §13.2). A crossing
- * and return within one grid step (h = Ts/K) would be missed; the ramp's slope makes that need
- * ripple on the control voltage steeper than the ramp, which the check reports as outside its reach.
+ * turns off at the first instant the comparator's margin reaches zero (voltage mode: the amplifier
+ * output falls to the ramp, 0 → Vramp over Ts; peak current mode: the sensed current plus the ramp
+ * Se rises to the amplifier output; comparator.ts) or at the maximum duty, and stays off until the
+ * next clock. The on interval is walked on a grid of K exact steps e^(Ā·h) (precomputed) until the
+ * margin changes sign; the instant is then placed inside that step by a safeguarded Newton
+ * iteration on the exact solution (docs/formulas.md §13.2). A crossing and return within one grid
+ * step (h = Ts/K) would be missed; that needs the margin to turn back up within h, steeper than
+ * the ramp (voltage mode) or than the inductor's own rise (current mode), which the check reports
+ * as outside its reach.
  */
 import { expm } from '../timeresponse/expm';
 import { identity, leadingBlock, matMul, matVec } from './linalg';
@@ -25,6 +28,8 @@ export interface CycleResult {
 	x1: Float64Array;
 	/** Turn-off instant from the start of the period, s (0: never on; Ts: never off). */
 	tOff: number;
+	/** True when the clock ended the on interval (maximum duty, or on for the whole period), not the comparator. */
+	forced: boolean;
 	/** State at the turn-off instant. */
 	xOff: Float64Array;
 }
@@ -34,18 +39,23 @@ export class Propagator {
 	readonly h: number;
 	readonly on: Flow;
 	readonly off: Flow;
-	private readonly slope: number;
+	/** The comparator's ramp, V/s (docs/formulas.md §13.2). */
+	readonly slope: number;
+	/** Latest turn-off instant the clock allows, s. */
+	readonly tMax: number;
+	private readonly scale: number;
 
 	constructor(
 		readonly sys: SwitchedSystem,
-		fswHz: number,
-		readonly vramp: number
+		fswHz: number
 	) {
 		this.ts = 1 / fswHz;
 		this.h = this.ts / GRID_STEPS;
 		this.on = this.flow(sys.aOn);
 		this.off = this.flow(sys.aOff);
-		this.slope = vramp / this.ts;
+		this.slope = sys.comparator.rampSlope;
+		this.tMax = sys.comparator.maxDuty * this.ts;
+		this.scale = sys.comparator.scale;
 	}
 
 	private flow(a: Float64Array): Flow {
@@ -62,7 +72,7 @@ export class Propagator {
 		return matVec(expm(f.a.map((v) => v * delta), this.sys.n), x, this.sys.n);
 	}
 
-	/** Comparator margin: amplifier output minus ramp; the switch stays on while it is positive. */
+	/** Comparator margin c·x − S·τ (comparator.ts); the switch stays on while it is positive. */
 	margin(x: Float64Array, t: number): number {
 		const c = this.sys.control;
 		let s = 0;
@@ -83,19 +93,34 @@ export class Propagator {
 	cycle(x0: Float64Array): CycleResult {
 		const n = this.sys.n;
 		const K = GRID_STEPS;
-		if (this.margin(x0, 0) <= 0) return { x1: this.repeat(this.off.step, x0, K), tOff: 0, xOff: Float64Array.from(x0) };
+		if (this.margin(x0, 0) <= 0 || this.tMax <= 0) return { x1: this.repeat(this.off.step, x0, K), tOff: 0, forced: this.margin(x0, 0) > 0, xOff: Float64Array.from(x0) };
+		// Whole grid steps the clock allows; with a maximum duty off the grid, one partial step after them.
+		const kMax = Math.min(K, Math.floor(this.tMax / this.h + 1e-9));
 		let x = x0;
 		let k = 0;
 		let next = matVec(this.on.step, x, n);
-		while (k < K && this.margin(next, (k + 1) * this.h) > 0) {
+		while (k < kMax && this.margin(next, (k + 1) * this.h) > 0) {
 			x = next;
 			k++;
-			if (k < K) next = matVec(this.on.step, x, n);
+			if (k < kMax) next = matVec(this.on.step, x, n);
 		}
-		if (k === K) return { x1: x, tOff: this.ts, xOff: Float64Array.from(x) };
-		const { t, xt } = this.placeTurnOff(x, k * this.h, (k + 1) * this.h);
+		if (k === K) return { x1: x, tOff: this.ts, forced: true, xOff: Float64Array.from(x) };
+		let tr = (k + 1) * this.h;
+		if (k === kMax) {
+			// The margin is still positive at the last grid point the clock allows: the comparator
+			// trips before tMax, or the clock ends the on interval there.
+			tr = this.tMax;
+			const xMax = this.advance(this.on, tr - k * this.h, x);
+			if (tr <= k * this.h || this.margin(xMax, tr) > 0) return this.finishOff(xMax, tr, true, k);
+		}
+		const { t, xt } = this.placeTurnOff(x, k * this.h, tr);
+		return this.finishOff(xt, t, false, k);
+	}
+
+	/** From the turn-off state at t (inside grid step k) to the end of the period. */
+	private finishOff(xt: Float64Array, t: number, forced: boolean, k: number): CycleResult {
 		const toGrid = this.advance(this.off, (k + 1) * this.h - t, xt);
-		return { x1: this.repeat(this.off.step, toGrid, K - k - 1), tOff: t, xOff: xt };
+		return { x1: this.repeat(this.off.step, toGrid, GRID_STEPS - k - 1), tOff: t, forced, xOff: xt };
 	}
 
 	private repeat(m: Float64Array, x: Float64Array, times: number): Float64Array {
@@ -110,14 +135,15 @@ export class Propagator {
 		let hi = tr;
 		// First candidate: the root of the cubic through the margin and its rate at both grid
 		// points (one exact step is then usually enough).
-		const xr = matVec(this.on.step, xl, this.sys.n);
-		const cand0 = hermiteRoot(this.margin(xl, tl), this.marginRate(xl) * this.h, this.margin(xr, tr), this.marginRate(xr) * this.h);
-		let t = tl + cand0 * this.h;
+		const span = tr - tl;
+		const xr = span === this.h ? matVec(this.on.step, xl, this.sys.n) : this.advance(this.on, span, xl);
+		const cand0 = hermiteRoot(this.margin(xl, tl), this.marginRate(xl) * span, this.margin(xr, tr), this.marginRate(xr) * span);
+		let t = tl + cand0 * span;
 		let xt = this.advance(this.on, t - tl, xl);
 		let g = this.margin(xt, t);
 		if (g > 0) lo = t;
 		else hi = t;
-		for (let it = 0; it < 60 && Math.abs(g) > 1e-14 * this.vramp; it++) {
+		for (let it = 0; it < 60 && Math.abs(g) > 1e-14 * this.scale; it++) {
 			const rate = this.marginRate(xt);
 			let cand = rate < 0 ? t - g / rate : (lo + hi) / 2;
 			if (!(cand > lo && cand < hi)) cand = (lo + hi) / 2;
@@ -129,7 +155,7 @@ export class Propagator {
 			g = gc;
 			if (gc > 0) lo = cand;
 			else hi = cand;
-			if (Math.abs(gc) <= 1e-14 * this.vramp || step <= 1e-15 * this.ts || hi - lo <= 1e-15 * this.ts) break;
+			if (Math.abs(gc) <= 1e-14 * this.scale || step <= 1e-15 * this.ts || hi - lo <= 1e-15 * this.ts) break;
 		}
 		return { t, xt };
 	}
@@ -146,6 +172,7 @@ export class Propagator {
 		const scaled = (a: Float64Array, t: number) => expm(a.map((v) => v * t), n);
 		if (r.tOff <= 0) return leadingBlock(scaled(this.off.a, this.ts), n, nc);
 		if (r.tOff >= this.ts) return leadingBlock(scaled(this.on.a, this.ts), n, nc);
+		if (r.forced) return leadingBlock(matMul(scaled(this.off.a, this.ts - r.tOff), scaled(this.on.a, r.tOff), n), n, nc);
 		const fOn = matVec(this.on.a, r.xOff, n);
 		const fOff = matVec(this.off.a, r.xOff, n);
 		const c = this.sys.control;

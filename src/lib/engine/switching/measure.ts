@@ -142,7 +142,7 @@ export function measureLoopGain(ctx: MeasureContext, periods: number, amplitude:
 	const { circuit, orbit } = ctx;
 	const omega = (2 * Math.PI * circuit.fswHz) / periods;
 	const sys = switchedSystem(circuit, { omega, amplitude });
-	const prop = new Propagator(sys, circuit.fswHz, circuit.vramp);
+	const prop = new Propagator(sys, circuit.fswHz);
 	const { n, nc } = sys;
 	const wOn = weights(sys.aOn, sys.voutOn, n, nc, omega);
 	const wOff = weights(sys.aOff, sys.voutOff, n, nc, omega);

@@ -94,14 +94,6 @@ describe('switching model of a light-load boost with a Type III network', () => 
 });
 
 describe('switching check refusals', () => {
-	it('does not run a peak-current-mode design (the model is voltage mode), and says why', () => {
-		const doc = caseDoc('buck-12v-3v3') as { modulator: Record<string, unknown> };
-		const pcm = { ...doc, modulator: { vramp: 1.5, feedForward: false, delay: 0, control: 'peak-current', senseGain: 0.1 } };
-		const r = switchingCheck(switchingCheckInputOf(detailOf(pcm)));
-		expect(r.status).toBe('not-run');
-		expect(r.reason).toMatch(/Peak current mode/);
-	});
-
 	it('does not run with a loop delay, and says why', () => {
 		const doc = caseDoc('buck-12v-3v3') as { modulator: Record<string, unknown> };
 		const r = switchingCheck(switchingCheckInputOf(detailOf({ ...doc, modulator: { ...doc.modulator, delay: 1e-7 } })));
