@@ -85,6 +85,7 @@ export function bodeData(a: DesignAnalysis, roots: PlotRoot[], override?: LoopOv
 		crossover: override ? override.crossover : m.crossoverHz !== null && m.phaseMarginDeg !== null ? { freqHz: m.crossoverHz, phaseMarginDeg: m.phaseMarginDeg } : null,
 		gainMargin: override ? override.gainMargin : m.gainMarginDb !== null && m.phaseCrossoverHz !== null ? { freqHz: m.phaseCrossoverHz, gainMarginDb: m.gainMarginDb } : null,
 		modelLimitHz: a.document.plant.fsw / 2,
+		control: a.document.modulator.control,
 		markers: criticalFrequencies(a.nominal.response.features, a.document.plant.fsw, a.nominal.document.compensator.target?.crossoverHz),
 		roots: override?.roots ?? roots
 	};

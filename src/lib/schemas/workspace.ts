@@ -99,6 +99,11 @@ export const commentSchema = z.object({
 
 const compensatorStrategy = z.object({
 	kind: z.enum(['type1', 'type2', 'type3', 'type2-ota']),
+	/**
+	 * The control method of the plant the strategy was placed against (absent in templates made
+	 * before peak current mode: voltage). A strategy only fits a rail with the same method.
+	 */
+	control: z.enum(['voltage', 'peak-current'], { error: 'must be "voltage" or "peak-current"' }).optional(),
 	target: z
 		.object({
 			method: z.enum(['k-factor', 'features', 'manual']),

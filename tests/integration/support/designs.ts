@@ -52,3 +52,39 @@ export function worstCaseDesign() {
 		inputFilter: { l: 1e-6, dcr: 0.01, c: 10e-6, damping: { optimalRatio: 4 } }
 	};
 }
+
+/**
+ * buckDesign()'s stage under peak current-mode control: Ri = 0.1 V/A, Se = 35 kV/s (mc ≈ 1.5 at
+ * D ≈ 0.42), a Type II placed by K-factor at 30 kHz (Type II is the usual network there).
+ */
+export function currentModeBuckDesign() {
+	const base = buckDesign();
+	return {
+		...base,
+		modulator: { control: 'peak-current', senseGain: 0.1, rampSlope: 35e3, delay: 0 },
+		compensator: { kind: 'type2', target: { method: 'k-factor', crossoverHz: 30_000, phaseMarginDeg: 60 }, series: { resistors: 'E96', capacitors: 'E12' } }
+	};
+}
+
+/**
+ * A 12 V → 24 V, 1 A boost at 500 kHz under peak current mode (Ri = 0.05 V/A, Se = 50 kV/s, above
+ * the (Sf − Sn)/2 a 9 V input needs), crossed at 5 kHz, below its RHP zero near 95 kHz.
+ */
+export function currentModeBoostDesign() {
+	return {
+		schemaVersion: 1,
+		plant: {
+			topology: 'boost',
+			vin: 12,
+			vout: 24,
+			iout: 1,
+			fsw: 500_000,
+			inductor: { l: 10e-6, dcr: 0.02 },
+			capacitors: [{ c: 22e-6, esr: 0.003, esl: 0, count: 3 }],
+			rdsOn: 0.015
+		},
+		modulator: { control: 'peak-current', senseGain: 0.05, rampSlope: 50e3, delay: 0 },
+		feedback: { vref: 0.8, r1: 10_000 },
+		compensator: { kind: 'type2', target: { method: 'k-factor', crossoverHz: 5_000, phaseMarginDeg: 60 }, series: { resistors: 'E96', capacitors: 'E12' } }
+	};
+}

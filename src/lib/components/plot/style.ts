@@ -4,6 +4,7 @@
  * Class names are written out in full so Tailwind finds them.
  */
 import type { TraceKind } from './types';
+import { plantTraceLabel, type ControlMode } from '$lib/text/controlMode';
 
 export interface TraceStyle {
 	label: string;
@@ -16,9 +17,13 @@ export interface TraceStyle {
 
 export const TRACE_STYLE: Record<TraceKind, TraceStyle> = {
 	loop: { label: 'Loop gain T', magClass: 'stroke-mag', phaseClass: 'stroke-phase', dash: '' },
-	plant: { label: 'Plant Gvd', magClass: 'stroke-mag', phaseClass: 'stroke-phase', dash: '7 4' },
+	plant: { label: plantTraceLabel('voltage'), magClass: 'stroke-mag', phaseClass: 'stroke-phase', dash: '7 4' },
 	compensator: { label: 'Network Gc', magClass: 'stroke-comp', phaseClass: 'stroke-comp', dash: '10 3 2 3' }
 };
+
+/** A kind's name for people; the plant's follows the control method (`long`: with its input and output in words). */
+export const traceLabel = (kind: TraceKind, control: ControlMode | undefined, long = false): string =>
+	kind === 'plant' ? plantTraceLabel(control, long) : TRACE_STYLE[kind].label;
 
 export const TRACE_ORDER: TraceKind[] = ['loop', 'plant', 'compensator'];
 

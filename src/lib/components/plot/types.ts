@@ -4,6 +4,8 @@
  * phases in degrees (unwrapped). Non-finite samples are skipped, never drawn.
  */
 
+import type { ControlMode } from '$lib/text/controlMode';
+
 export type TraceKind = 'plant' | 'compensator' | 'loop';
 
 export interface BodeTrace {
@@ -45,6 +47,8 @@ export interface BodeData {
 	markers?: FreqMarker[];
 	/** Measured bench data, drawn as dots on their own frequencies (optional). */
 	measured?: MeasuredSeries[];
+	/** Control method of the loop: names the plant trace Gvd (voltage mode) or Gvc (peak current mode). */
+	control?: ControlMode;
 }
 
 /** A labelled frequency: the LC resonance, an ESR zero, the RHP zero, fsw/2, the crossover target. */

@@ -263,7 +263,7 @@ function currentModulator(n: NetlistWriter, detail: AnalysisDetail, cm: CurrentM
 	const g = modulatorGains(p.topology, op.duty, p.inductor.l, p.fsw, cm, cmIn);
 	const ts = 1 / p.fsw;
 	const lNode = p.topology === 'buck' ? 'out' : 'sw';
-	n.comment(`--- peak current mode: Ri = ${num(cmIn.senseGain)} V/A, Se = ${num(cm.se)} V/s, Sn = ${num(cm.sn)} V/s, mc = ${num(cm.mc)}`);
+	n.comment(`--- peak current mode: Ri = ${num(cmIn.senseGain)} V/A, Se = ${num(cm.se)} V/s, Sn = ${num(cm.sn)} V/s, mc = ${num(cm.mc)}, Qp = ${cm.qp === null ? 'inf' : num(cm.qp)} (${cm.subharmonic})`);
 	n.comment('AC 1 at the comparator control input vc; He(s) = 1 - s*Ts/2 + s^2*Ts^2/pi^2 on the inductor current');
 	n.line('Vc vc 0 DC 0 AC 1');
 	n.line(`Evl vl 0 l2 ${lNode} 1`);

@@ -9,6 +9,7 @@ import { line } from 'd3-shape';
 import { drawableText } from './drawableText';
 import { formatDb, formatDeg, formatEng } from '$lib/units/format';
 import type { ExportPlot, ExportTrace, ExportTraceKind } from './plotTypes';
+import { plantTraceLabel } from '$lib/text/controlMode';
 import { PALETTES, PLOT_FONT_FAMILY, type Palette, type ThemeName } from './theme';
 
 export interface BodeSvgOptions {
@@ -27,7 +28,7 @@ const AXIS_H = 34;
 export const BODE_SVG_HEIGHT = MARGIN.top + MAG_H + LANE_H + PHASE_H + AXIS_H;
 
 const DASH: Record<ExportTraceKind, string> = { loop: '', plant: '7 4', compensator: '10 3 2 3' };
-const LABEL: Record<ExportTraceKind, string> = { loop: 'Loop gain T', plant: 'Plant Gvd', compensator: 'Network Gc' };
+const LABEL: Record<Exclude<ExportTraceKind, 'plant'>, string> = { loop: 'Loop gain T', compensator: 'Network Gc' };
 const ORDER: ExportTraceKind[] = ['compensator', 'plant', 'loop']; // loop last, on top
 
 export function renderBodeSvg(plot: ExportPlot, options: BodeSvgOptions = {}): string {
@@ -205,7 +206,7 @@ function chip(text: string, cx: number, cy: number, width: number, pal: Palette)
 function legend(plot: ExportPlot, width: number, pal: Palette): string {
 	const kinds = (['loop', 'plant', 'compensator'] as ExportTraceKind[]).filter((k) => plot.traces.some((t) => t.kind === k));
 	const items: { label: string; draw: string }[] = kinds.map((k) => ({
-		label: LABEL[k],
+		label: k === 'plant' ? plantTraceLabel(plot.control) : LABEL[k],
 		draw: `<line x1="0" y1="0" x2="22" y2="0" stroke="${k === 'compensator' ? pal.comp : pal.mag}" stroke-width="2"${DASH[k] ? ` stroke-dasharray="${DASH[k]}"` : ''}/>`
 	}));
 	const corners = plot.traces.filter((t) => !t.nominal && t.kind === 'loop').length;

@@ -6,6 +6,7 @@
 import type { AnalysisResponse } from '$lib/engine';
 import type { BodeSvgOptions } from './bodeSvg';
 import type { ExportMeasured, ExportPlot, ExportTrace } from './plotTypes';
+import { plantTraceLabel, type ControlMode } from '$lib/text/controlMode';
 
 export interface PlotFromResponseOptions {
 	/** Switching frequency, Hz: the band above fsw/2 is hatched. */
@@ -23,6 +24,9 @@ export interface PlotFromResponseOptions {
 export function plotFromResponse(response: AnalysisResponse, options: PlotFromResponseOptions = {}): ExportPlot {
 	const show = { loop: true, plant: true, compensator: true, ...options.show };
 	const r = response.response;
+	// Only a peak current-mode analysis reports the current loop's features.
+	const control: ControlMode = response.features.currentMode ? 'peak-current' : 'voltage';
+	const label = (kind: 'loop' | 'plant' | 'compensator', which: string) => traceName(kind, which, control);
 	const traces: ExportTrace[] = [];
 	const kinds = (['compensator', 'plant', 'loop'] as const).filter((k) => show[k]);
 	for (const k of kinds) traces.push({ kind: k, label: label(k, 'nominal'), nominal: true, magDb: r[k].magDb, phaseDeg: r[k].phaseDeg });
@@ -45,7 +49,8 @@ export function plotFromResponse(response: AnalysisResponse, options: PlotFromRe
 		crossover: m.crossoverHz !== null && m.phaseMarginDeg !== null ? { freqHz: m.crossoverHz, phaseMarginDeg: m.phaseMarginDeg } : null,
 		gainMargin: m.phaseCrossoverHz !== null && m.gainMarginDb !== null ? { freqHz: m.phaseCrossoverHz, gainMarginDb: m.gainMarginDb } : null,
 		modelLimitHz: options.fswHz ? options.fswHz / 2 : null,
-		title: options.title
+		title: options.title,
+		control
 	};
 }
 
@@ -58,7 +63,7 @@ export function networkRoots(response: AnalysisResponse): NonNullable<BodeSvgOpt
 	];
 }
 
-function label(kind: 'loop' | 'plant' | 'compensator', which: string): string {
-	const base = kind === 'loop' ? 'Loop gain T' : kind === 'plant' ? 'Plant Gvd' : 'Network Gc';
+function traceName(kind: 'loop' | 'plant' | 'compensator', which: string, control: ControlMode): string {
+	const base = kind === 'loop' ? 'Loop gain T' : kind === 'plant' ? plantTraceLabel(control) : 'Network Gc';
 	return which === 'nominal' ? base : `${base}, ${which}`;
 }

@@ -3,6 +3,8 @@
  * network, corners drawn thin and faint, measured bench points, the crossover and gain-margin chips, and the band
  * above fsw/2. Arrays follow `freqHz` (ascending, Hz); dB and degrees (unwrapped). Non-finite samples are gaps.
  */
+import type { ControlMode } from '$lib/text/controlMode';
+
 export type ExportTraceKind = 'loop' | 'plant' | 'compensator';
 
 export interface ExportTrace {
@@ -31,4 +33,6 @@ export interface ExportPlot {
 	/** fsw/2; above it the averaged model is not trusted (shaded). */
 	modelLimitHz: number | null;
 	title?: string;
+	/** Control method: the plant is Gvd in voltage mode, Gvc (control voltage → vout) in peak current mode. */
+	control?: ControlMode;
 }

@@ -18,6 +18,7 @@ import { fontFor, registerReportFonts, useFontFor } from './pdfFonts';
 import { PALETTES } from './theme';
 import { formatDateTime } from '../../text/dates';
 import { loopStatusText } from '../../text/status';
+import { modulatorText } from '../../text/controlMode';
 import { cornerListText } from '../../verdict/cornerList';
 import { SENSITIVITY_HEADER, sensitivityCells, sensitivityTotals } from '../../verdict/sensitivityText';
 import type { SensitivityReport } from '../../engine/sensitivity';
@@ -155,7 +156,7 @@ export function buildSignoffPdf(input: SignoffReportInput, options: PdfOptions =
 		['Inductor', `L ${formatPart(p.inductor.l, 'H')}, DCR ${formatPart(p.inductor.dcr, 'Ω')}, rdsOn ${formatPart(p.rdsOn, 'Ω')}`],
 		['Bank', bank],
 		['Operating point', `D ${op.duty.toFixed(3)}, efficiency ${(op.efficiency * 100).toFixed(1)} %, ripple ${formatEng(op.rippleCurrent, 'A')} p-p, ${op.mode.toUpperCase()}`],
-		['Modulator', `Vramp ${formatEng(d.modulator.vramp, 'V')} p-p${d.modulator.feedForward ? ', input feed-forward' : ''}${d.modulator.delay > 0 ? `, delay ${formatEng(d.modulator.delay, 's')}` : ''}`],
+		['Modulator', modulatorText(d.modulator, input.response.features.currentMode)],
 		['Feedback', `Vref ${formatPart(d.feedback.vref, 'V')}, R1 ${formatPart(d.feedback.r1, 'Ω')}`],
 		['Network', networkText(input.response, d)],
 		['Plant features', featuresText(input.response)]
@@ -326,6 +327,8 @@ function featuresText(r: AnalysisResponse): string {
 	const parts = [`f0 ${formatEng(f.f0Hz, 'Hz')}, Q ${f.q.toFixed(2)}`];
 	if (f.esrZeroHz.length) parts.push(`ESR zero ${f.esrZeroHz.map((x) => formatEng(x, 'Hz')).join(', ')}`);
 	if (f.rhpZeroHz !== null) parts.push(`RHP zero ${formatEng(f.rhpZeroHz, 'Hz')}`);
+	// Peak current mode: the plant is Gvc, whose low-frequency pole replaces the LC pair's role.
+	if (f.currentMode) parts.push(`Gvc low-frequency pole ${formatEng(f.currentMode.lowFrequencyPoleHz, 'Hz')}, Sn ${formatEng(f.currentMode.sn, 'V/s')}, Sf ${formatEng(f.currentMode.sf, 'V/s')}`);
 	return parts.join('; ');
 }
 

@@ -14,6 +14,7 @@ import * as rails from './rails';
 import * as reviews from './reviews';
 import { verdictFigures } from '../../verdict/figures';
 import * as analyses from '../analysis-pool';
+import { controlOf, modulatorText } from '../../text/controlMode';
 import { parameterDiff, verdictDiff } from './loop-analysis';
 
 export type Loop = NonNullable<Awaited<ReturnType<typeof loops.get>>>;
@@ -104,7 +105,7 @@ export async function reviewRecord(db: Database, loop: Loop) {
 /** What the engineer saw, drawn again from the stored design in the analysis pool (for `owner`): plot, operating point, closed loop, steps. */
 export async function reviewDrawing(loop: Loop, owner: string) {
 	const detail = await analyses.stored(owner, { design: loop.design, verification: loop.verification, steps: true, sensitivity: true });
-	if ('error' in detail) return { analysisError: detail.error, plot: null, operatingPoint: null, network: null, closedLoop: null, steps: null, sensitivity: null };
+	if ('error' in detail) return { analysisError: detail.error, plot: null, operatingPoint: null, modulator: null, network: null, closedLoop: null, steps: null, sensitivity: null };
 	const r = detail.response;
 	const m = r.metrics;
 	const traces = detail.cornerTraces;
@@ -119,6 +120,12 @@ export async function reviewDrawing(loop: Loop, owner: string) {
 			modelLimitHz: detail.document.plant.fsw / 2
 		},
 		operatingPoint: r.operatingPoint,
+		// The control method in words, and for peak current mode the current loop's slopes, mc and Qp.
+		modulator: {
+			control: controlOf(detail.document.modulator.control),
+			text: modulatorText(detail.document.modulator, r.features.currentMode),
+			currentMode: r.features.currentMode ?? null
+		},
 		network: { kind: r.compensator.kind, zerosHz: (r.compensator.rounded ?? r.compensator.ideal).zerosHz, polesHz: (r.compensator.rounded ?? r.compensator.ideal).polesHz },
 		closedLoop: { stable: m.closedLoopStable, modulusMargin: m.modulusMargin, modulusMarginHz: m.modulusMarginHz, delayMarginS: m.delayMarginS, crossovers: m.crossovers, phaseCrossovers: m.phaseCrossovers, polesHz: m.closedLoopPolesHz },
 		steps: detail.steps,

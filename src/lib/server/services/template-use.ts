@@ -11,6 +11,7 @@ import type { DesignDocument } from '../../engine/contract/designSchema';
 import type { Verification } from '../../engine/verify/types';
 import { readForm, starterForm } from '../../design/form';
 import { defaultCrossoverHz } from '../../engine/compensators/crossoverLimit';
+import { CONTROL_MODE_LABEL, controlOf, templateControlMismatch } from '../../text/controlMode';
 import type { templateSchema } from '../../schemas/workspace';
 import * as analyses from '../analysis-pool';
 import { ApiError } from '../http/errors';
@@ -39,8 +40,10 @@ export function strategyFromDesign(doc: DesignDocument, response: AnalysisRespon
 	const fc = c.target?.crossoverHz ?? response.metrics.crossoverHz ?? fsw / 10;
 	const series = c.series === null ? { resistors: null, capacitors: null } : (c.series ?? { resistors: 'E96' as const, capacitors: 'E12' as const });
 	const crossoverFraction = sig(Math.min(0.5, fc / fsw));
+	// The network answers the plant of its control method, so the strategy records it.
+	const control = controlOf(doc.modulator.control);
 	if (c.target?.method === 'k-factor' && !c.parts) {
-		return { kind: c.kind, target: { method: 'k-factor', crossoverFraction, phaseMarginDeg: c.target.phaseMarginDeg ?? 60 }, series };
+		return { kind: c.kind, control, target: { method: 'k-factor', crossoverFraction, phaseMarginDeg: c.target.phaseMarginDeg ?? 60 }, series };
 	}
 	const net = response.compensator.rounded ?? response.compensator.ideal;
 	const f0 = response.features.f0Hz;
@@ -48,6 +51,7 @@ export function strategyFromDesign(doc: DesignDocument, response: AnalysisRespon
 	const poles = net.polesHz.filter((f) => f > 0);
 	return {
 		kind: c.kind,
+		control,
 		target: {
 			method: 'features',
 			crossoverFraction,
@@ -100,7 +104,14 @@ export async function apply(db: Database, actor: Actor, tpl: Template, target: R
 		throw new ApiError(422, 'topology-mismatch', `the template is for a ${tpl.topology}; ${target.name} is a ${target.topology}`, { railId: `must be a ${tpl.topology} rail` });
 	}
 	const base = await railBaseDesign(db, target);
-	const design = designWithStrategy(base.design, tpl.compensator as Strategy);
+	const strategy = tpl.compensator as Strategy;
+	const railControl = (base.design.modulator as { control?: string } | undefined)?.control;
+	const mismatch = templateControlMismatch(strategy.control, railControl, target.name);
+	if (mismatch) {
+		const wanted = CONTROL_MODE_LABEL[controlOf(strategy.control)].toLowerCase();
+		throw new ApiError(422, 'control-mismatch', mismatch, { railId: `must be a ${wanted} rail` });
+	}
+	const design = designWithStrategy(base.design, strategy);
 	const analysis = await analyses.analyze(actor.userId, design, { includeResponse: false, closedLoop: false, sections: false });
 	if ('error' in analysis) {
 		throw new ApiError(422, 'template-not-placeable', `the template cannot be placed on ${target.name}: ${analysis.error.message}`, analysis.error.fields);

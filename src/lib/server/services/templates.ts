@@ -16,7 +16,7 @@ export type Template = typeof template.$inferSelect;
 const summary = (t: Template) => ({ name: t.name, description: t.description, topology: t.topology, compensator: t.compensator });
 const duplicate = 'a template with this name already exists in the workspace';
 
-/** `q` (case-insensitive) in the name, description, topology or network kind; an empty search matches all. */
+/** `q` (case-insensitive) in the name, description, topology, network kind or control method; an empty search matches all. */
 function matching(q: string | undefined): SQL | undefined {
 	const needle = q?.trim().toLowerCase();
 	if (!needle) return undefined;
@@ -25,7 +25,9 @@ function matching(q: string | undefined): SQL | undefined {
 		like(sql`lower(${template.name})`, pattern),
 		like(sql`lower(coalesce(${template.description}, ''))`, pattern),
 		like(sql`lower(coalesce(${template.topology}, ''))`, pattern),
-		like(sql`lower(coalesce(json_unquote(json_extract(${template.compensator}, '$.kind')), ''))`, pattern)
+		like(sql`lower(coalesce(json_unquote(json_extract(${template.compensator}, '$.kind')), ''))`, pattern),
+		// The control method in words ("peak current", "voltage"); a template without one is voltage mode.
+		like(sql`lower(replace(coalesce(json_unquote(json_extract(${template.compensator}, '$.control')), 'voltage'), '-', ' '))`, pattern)
 	);
 }
 
