@@ -5,8 +5,10 @@ The same method, written as an engineer would in numpy: each interval by scipy.l
 turn-off instant on a 16-step grid then a safeguarded Newton on the exact solution from the
 Hermite-cubic start, the periodic orbit by Newton with the saltation Jacobian, the injected orbit
 over N periods by the chord iteration with M0^N, and the one-bin Fourier integrals per interval
-from (A - jwI)^-1. Input (JSON on stdin): the switched systems the engine built (matrices, rows)
-and the list of (N, amplitude) to measure; output: the measured T and the CPU time.
+from (A - jwI)^-1. Input (JSON on stdin): the switched systems the engine built (matrices, rows),
+the comparator's ramp slope (V/s: Vramp/Ts in voltage mode, Se in peak current mode, where the
+control row already carries -Ri on the inductor current) and the scale of its margin, and the list
+of (N, amplitude) to measure; output: the measured T and the CPU time.
 """
 import json
 import sys
@@ -19,7 +21,7 @@ K = 16
 
 
 class Prop:
-    def __init__(self, s, fsw, vramp):
+    def __init__(self, s, fsw, slope, scale):
         self.n, self.nc = s["n"], s["nc"]
         self.a_on = np.array(s["aOn"]).reshape(self.n, self.n)
         self.a_off = np.array(s["aOff"]).reshape(self.n, self.n)
@@ -28,8 +30,8 @@ class Prop:
         self.v_off = np.array(s["voutOff"])
         self.ts = 1 / fsw
         self.h = self.ts / K
-        self.vramp = vramp
-        self.slope = vramp / self.ts
+        self.scale = scale
+        self.slope = slope
         self.step_on = expm(self.a_on * self.h)
         self.step_off = expm(self.a_off * self.h)
 
@@ -53,7 +55,7 @@ class Prop:
         g = self.margin(xt, t)
         lo, hi = (t, tr) if g > 0 else (tl, t)
         it = 0
-        while it < 60 and abs(g) > 1e-14 * self.vramp:
+        while it < 60 and abs(g) > 1e-14 * self.scale:
             r = self.rate(xt)
             cand = t - g / r if r < 0 else (lo + hi) / 2
             if not (lo < cand < hi):
@@ -126,8 +128,8 @@ def integral(wq, nc, w, t0, t1, x0, x1):
     return acc + q @ e
 
 
-def measure(sysj, fsw, vramp, x_star, m0, periods, amp):
-    p = Prop(sysj, fsw, vramp)
+def measure(sysj, fsw, slope, scale, x_star, m0, periods, amp):
+    p = Prop(sysj, fsw, slope, scale)
     n, nc = p.n, p.nc
     w = 2 * np.pi * fsw / periods
     w_on = weights(p.a_on, p.v_on, n, nc, w)
@@ -162,11 +164,12 @@ def main():
     out = []
     for case in job["cases"]:
         t0 = time.process_time()
-        p0 = Prop(case["unperturbed"], case["fsw"], case["vramp"])
+        slope, scale = case["rampSlope"], case["marginScale"]
+        p0 = Prop(case["unperturbed"], case["fsw"], slope, scale)
         x_star, m0 = orbit(p0, np.array(case["guess"]))
         results = []
         for m in case["measurements"]:
-            t = measure(m["system"], case["fsw"], case["vramp"], x_star, m0, m["periods"], m["amplitude"])
+            t = measure(m["system"], case["fsw"], slope, scale, x_star, m0, m["periods"], m["amplitude"])
             results.append({"periods": m["periods"], "re": t.real, "im": t.imag})
         out.append({"name": case["name"], "cpuS": time.process_time() - t0, "points": results})
     json.dump({"numpy": np.__version__, "cases": out}, sys.stdout)

@@ -1,6 +1,7 @@
 /**
- * `npm run bench` (last part): the switching check (engine switching/) of the two designs in
- * reference/switching/cases, about ten frequencies each plus the linearity point, against
+ * `npm run bench` (last part): the switching check (engine switching/) of the two voltage-mode
+ * designs in reference/switching/cases and a peak current-mode boost of reference/currentmode/cases,
+ * about ten frequencies each plus the linearity point, against
  * reference/bench_switching_numpy.py, the same method in numpy/scipy (scipy.linalg.expm per
  * interval), given the same switched systems and the same (N, amplitude) list in the same run.
  * Prints process CPU time per check for both, their ratio and the largest difference in T.
@@ -17,7 +18,11 @@ import { switchedSystem } from '../src/lib/engine/switching/circuit';
 
 const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
 const RUNS = Math.max(1, Number(process.env.BENCH_RUNS ?? 3));
-const CASES = ['buck-12v-3v3', 'boost-5v-12v-light'];
+const CASES = [
+	['switching', 'buck-12v-3v3'],
+	['switching', 'boost-5v-12v-light'],
+	['currentmode', 'boost-d058-rhp']
+] as const;
 
 const cpuMs = () => {
 	const u = process.cpuUsage();
@@ -36,8 +41,8 @@ const plain = (s: ReturnType<typeof switchedSystem>) => ({
 
 const jobs = [];
 const engine: { name: string; cpuMs: number; wallMs: number; result: SwitchingCheckResult }[] = [];
-for (const name of CASES) {
-	const doc = JSON.parse(readFileSync(path.join(ROOT, 'reference/switching/cases', `${name}.json`), 'utf8'));
+for (const [dir, name] of CASES) {
+	const doc = JSON.parse(readFileSync(path.join(ROOT, 'reference', dir, 'cases', `${name}.json`), 'utf8'));
 	const detail = analyzeDesignDetailed(doc, { includeResponse: false });
 	if ('error' in detail) throw new Error(`${name}: ${detail.error.message}`);
 	const input = switchingCheckInputOf(detail);
@@ -61,7 +66,8 @@ for (const name of CASES) {
 	jobs.push({
 		name,
 		fsw: c.fswHz,
-		vramp: c.vramp,
+		rampSlope: unperturbed.comparator.rampSlope,
+		marginScale: unperturbed.comparator.scale,
 		unperturbed: plain(unperturbed),
 		guess: Array.from(initialGuess(input, unperturbed.names, unperturbed.n)),
 		measurements: list.map((m) => ({ ...m, system: plain(switchedSystem(c, { omega: (2 * Math.PI * c.fswHz) / m.periods, amplitude: m.amplitude })) }))

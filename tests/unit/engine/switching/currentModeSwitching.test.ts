@@ -10,7 +10,9 @@
  * the comparator moves T by tenths of a dB at least (the averaged model, a close approximation,
  * is 0.2–0.3 dB and ~1° away below fsw/5: reference/currentmode/README.md).
  */
-import { readFileSync } from 'node:fs';
+import { spawnSync } from 'node:child_process';
+import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { analyzeDesignDetailed } from '$lib/engine/analyze';
@@ -126,6 +128,61 @@ describe('subharmonic oscillation through the Floquet multipliers (buck D ≈ 0.
 		expect(steady.lowest.re).toBeGreaterThan(-1);
 		expect(readMultipliers(steady.orbit.multipliers)).toBe('near-period-two');
 	});
+});
+
+type Multiplier = { re: number; im: number };
+interface FloquetRef {
+	cases: Record<string, { duty: number; multipliers: Multiplier[] }>;
+	subharmonic: { rampSlope: number; duty: number; multipliers: Multiplier[] }[];
+}
+
+/** Largest distance from a reference multiplier to the nearest of the engine's (same count). */
+function multiplierGap(engine: readonly Multiplier[], ref: readonly Multiplier[]): number {
+	expect(engine.length).toBe(ref.length);
+	return Math.max(...ref.map((r) => Math.min(...engine.map((e) => Math.hypot(e.re - r.re, e.im - r.im)))));
+}
+
+describe("Floquet multipliers against the simulated circuit's own period map (reference/currentmode/floquet.py)", () => {
+	// The reference differentiates the scipy simulator's one-period map by central differences
+	// at its Newton fixed point (no saltation formula, no engine code): 1e-5 covers the
+	// differencing error (step 1e-6 relative) with room; the engine's Jacobian is exact.
+	const ref = read<FloquetRef>('out', 'floquet.json');
+	it.each(CASES)('%s: the same multipliers within 1e-5', (name) => {
+		const { orbit } = orbitOf(inputOf(read<Doc>('cases', `${name}.json`)));
+		expect(Math.abs(orbit.duty - ref.cases[name].duty)).toBeLessThan(1e-9);
+		expect(multiplierGap(orbit.multipliers, ref.cases[name].multipliers)).toBeLessThan(1e-5);
+	});
+	it('the D ≈ 0.53 buck without a ramp and at 0.9 and 1.1 × the boundary ramp: the same multipliers, one passing −1', () => {
+		const doc = read<Doc>('cases', 'buck-d052-mc11.json');
+		const lowest: number[] = [];
+		for (const run of ref.subharmonic) {
+			const { orbit } = orbitOf(inputOf(withRamp(doc, run.rampSlope)));
+			expect(multiplierGap(orbit.multipliers, run.multipliers), `Se ${run.rampSlope}`).toBeLessThan(1e-5);
+			lowest.push(Math.min(...run.multipliers.map((m) => m.re)));
+		}
+		expect(lowest[0]).toBeLessThan(-1);
+		expect(lowest[1]).toBeLessThan(-1);
+		expect(lowest[2]).toBeGreaterThan(-1);
+	});
+});
+
+const hasPythonScipy = spawnSync('python3', ['-c', 'import numpy, scipy'], { stdio: 'ignore' }).status === 0;
+
+describe.runIf(hasPythonScipy)('the multipliers regenerate to the committed numbers', () => {
+	it('re-runs reference/currentmode/floquet.py and diffs', () => {
+		const out = mkdtempSync(path.join(tmpdir(), 'loopwright-floquet-'));
+		try {
+			const run = spawnSync('python3', [path.join(DIR, 'floquet.py'), '--out', out], { encoding: 'utf8', timeout: 110_000 });
+			expect(run.status, run.stderr).toBe(0);
+			const fresh = JSON.parse(readFileSync(path.join(out, 'floquet.json'), 'utf8')) as FloquetRef;
+			const committed = read<FloquetRef>('out', 'floquet.json');
+			// Same script on another numpy/scipy build moves only the last digits.
+			for (const name of CASES) expect(multiplierGap(fresh.cases[name].multipliers, committed.cases[name].multipliers)).toBeLessThan(1e-8);
+			committed.subharmonic.forEach((r, i) => expect(multiplierGap(fresh.subharmonic[i].multipliers, r.multipliers)).toBeLessThan(1e-8));
+		} finally {
+			rmSync(out, { recursive: true, force: true });
+		}
+	}, 120_000);
 });
 
 describe('the cycle of peak current mode', () => {
