@@ -64,6 +64,8 @@ export function fittedDocument(doc: DesignDocument, result: FitResult): DesignDo
 			case 'l': out.plant.inductor.l = p.fitted; break;
 			case 'dcr': out.plant.inductor.dcr = p.fitted; break;
 			case 'vramp': out.modulator.vramp = p.fitted; break;
+			case 'senseGain': out.modulator.senseGain = p.fitted; break;
+			case 'rampSlope': out.modulator.rampSlope = p.fitted; break;
 			case 'delay': out.modulator.delay = p.fitted; break;
 			case 'esr': case 'esl': out.plant.capacitors[p.branch ?? 0][p.name] = p.fitted; break;
 			case 'c': {

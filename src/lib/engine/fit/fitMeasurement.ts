@@ -18,7 +18,7 @@ import type { DesignDocument } from '../contract/designSchema';
 import { buildLoop, type LoopSpec } from '../corners/loopModel';
 import { applyVariation } from '../corners/variation';
 import { onePlusLoop } from '../closedloop/responses';
-import { powerStage } from '../plants/powerStage';
+import { controlledStage } from '../plants/controlledStage';
 import { compileTf, lnMagPhaseAt } from '../tf/evaluate';
 import { isDesignInputError } from '../errors';
 import { levenbergMarquardt, spdInverse, normalEquations, robustCost, type FitLoss } from './levenbergMarquardt';
@@ -55,6 +55,8 @@ export interface FittedParameter {
 	/** The estimate sits on a bound: the part may lie outside it, or another parameter explains the data. */
 	atBound: 'low' | 'high' | null;
 	note: string | null;
+	/** The residual with this parameter alone put back to its typed value (the others fitted): how much of the deviation it explains. */
+	residualIfTyped: ResidualSummary;
 }
 
 export interface ResidualSummary {
@@ -73,6 +75,12 @@ export interface FitResult {
 	fScale: number;
 	parameters: FittedParameter[];
 	residual: { before: ResidualSummary; after: ResidualSummary };
+	/**
+	 * Index into `parameters` of the one that explains most of the deviation: putting it back to
+	 * its typed value raises the cost most, and its 95 % interval excludes the typed value. Null
+	 * when no fitted parameter differs from its typed value beyond its interval.
+	 */
+	explainedBy: number | null;
 	/** Points whose residual exceeds 3·fScale after the fit (the loss treats them as outliers). */
 	outliers: number;
 	iterations: number;
@@ -109,7 +117,8 @@ export function modelLogResponse(spec: LoopSpec, response: FitResponse, freqHz: 
 		}
 		return { lnMag, phase };
 	}
-	const tf = response === 'plant' ? powerStage(spec.stage).gvd : buildLoop(spec).loop;
+	// The plant a bench measures from the control input: Gvd in voltage mode, Gvc with the closed current loop in peak current mode.
+	const tf = response === 'plant' ? controlledStage(spec.stage, spec.modulator).gvd : buildLoop(spec).loop;
 	const c = compileTf(tf);
 	for (let i = 0; i < n; i++) {
 		lnMagPhaseAt(c, 2 * Math.PI * freqHz[i], buf);
@@ -225,6 +234,10 @@ export function fitMeasurement(input: FitInput): FitResult | FitError {
 	for (let i = 0; i < mRes; i++) wss += lm.weights[i] * lm.residuals[i] ** 2;
 	const s2 = wss / Math.max(mRes - p, 1);
 
+	// Each parameter alone back at its typed value, the others as fitted.
+	const typedTheta = (q: ResolvedParameter) => (q.kind === 'delay' ? spec.modulator.delayS * fsw : 0);
+	const ifTyped = params.map((q, k) => summary(residuals(lm.theta.map((t, j) => (j === k ? typedTheta(q) : t)))));
+
 	const parameters: FittedParameter[] = params.map((q, k) => {
 		const fitted = valueAt(q, lm.theta[k], fsw);
 		const sigma = inv ? Math.sqrt(Math.max(inv[k * p + k] * s2, 0)) : NaN;
@@ -253,8 +266,14 @@ export function fitMeasurement(input: FitInput): FitResult | FitError {
 			tolerance: q.tolerance,
 			outsideTolerance: q.tolerance !== null && Math.abs(fitted / q.typed - 1) > q.tolerance,
 			atBound,
-			note
+			note,
+			residualIfTyped: ifTyped[k]
 		};
+	});
+	let explainedBy: number | null = null;
+	parameters.forEach((p, k) => {
+		const excludesTyped = p.interval !== null && (p.typed < p.interval.low || p.typed > p.interval.high);
+		if (excludesTyped && (explainedBy === null || ifTyped[k].cost > ifTyped[explainedBy].cost)) explainedBy = k;
 	});
 
 	let outliers = 0;
@@ -271,6 +290,7 @@ export function fitMeasurement(input: FitInput): FitResult | FitError {
 		fScale: request.fScale,
 		parameters,
 		residual: { before: summary(r0), after: summary(lm.residuals) },
+		explainedBy,
 		outliers,
 		iterations: lm.iterations,
 		evaluations: lm.evaluations,

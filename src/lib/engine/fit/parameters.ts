@@ -38,10 +38,17 @@ export interface ResolvedParameter {
 	tolerance: number | null;
 }
 
-const UNITS: Record<FitParameterName, string> = { l: 'H', dcr: 'Ω', c: 'F', esr: 'Ω', esl: 'H', vramp: 'V', delay: 's' };
+const UNITS: Record<FitParameterName, string> = { l: 'H', dcr: 'Ω', c: 'F', esr: 'Ω', esl: 'H', vramp: 'V', senseGain: 'V/A', rampSlope: 'V/s', delay: 's' };
+const CURRENT_LOOP: readonly FitParameterName[] = ['senseGain', 'rampSlope'];
 
 export const parameterLabel = (name: FitParameterName, branch: number | null, branches: number) =>
-	name === 'delay' ? 'Loop delay' : `${PART_LABELS[name]}${branch !== null && branches > 1 ? ` (branch ${branch + 1})` : ''}`;
+	name === 'delay'
+		? 'Loop delay'
+		: name === 'senseGain'
+			? 'Ri (sense gain)'
+			: name === 'rampSlope'
+				? 'Se (ramp slope)'
+				: `${PART_LABELS[name]}${branch !== null && branches > 1 ? ` (branch ${branch + 1})` : ''}`;
 
 export type ResolveResult = { ok: true; parameters: ResolvedParameter[] } | { ok: false; fields: Record<string, string> };
 
@@ -55,6 +62,15 @@ export function resolveParameters(specs: readonly FitParameterSpec[], spec: Loop
 		const branch = isBranch ? (p.branch ?? 0) : null;
 		if (branch !== null && branch >= branches) {
 			fields[`${at}.branch`] = `the bank has ${branches} branch${branches === 1 ? '' : 'es'} (0…${branches - 1})`;
+			return;
+		}
+		const currentMode = spec.modulator.currentMode !== undefined;
+		if (p.name === 'vramp' && currentMode) {
+			fields[`${at}.name`] = 'peak current mode uses no PWM ramp: fit Ri (senseGain) or Se (rampSlope) instead';
+			return;
+		}
+		if (CURRENT_LOOP.includes(p.name) && !currentMode) {
+			fields[`${at}.name`] = 'exists only in peak current mode (modulator.control "peak-current")';
 			return;
 		}
 		if (plantOnly && (p.name === 'vramp' || p.name === 'delay')) {
@@ -96,7 +112,7 @@ export function resolveParameters(specs: readonly FitParameterSpec[], spec: Loop
 		out.push({
 			name: p.name, branch, label: parameterLabel(p.name, branch, branches), unit: UNITS[p.name], path: documentPath(p.name, branch),
 			typed, kind: 'log', lower: Math.log(range.min), upper: Math.log(range.max), start: 0, boundsFrom,
-			tolerance: doc.tolerances?.[p.name]?.tol ?? null
+			tolerance: (doc.tolerances as Partial<Record<FitParameterName, { tol: number }>> | undefined)?.[p.name]?.tol ?? null
 		});
 	});
 	return Object.keys(fields).length ? { ok: false, fields } : { ok: true, parameters: out };
@@ -108,6 +124,7 @@ function typedValue(spec: LoopSpec, name: FitParameterName, branch: number | nul
 		case 'l': return s.l;
 		case 'dcr': return s.dcr;
 		case 'vramp': return spec.modulator.vramp;
+		case 'senseGain': case 'rampSlope': return spec.modulator.currentMode?.[name] ?? 0;
 		case 'c': case 'esr': case 'esl': return s.capacitors[branch ?? 0][name];
 		case 'delay': return spec.modulator.delayS;
 	}
@@ -118,6 +135,8 @@ export function documentPath(name: FitParameterName, branch: number | null): str
 		case 'l': return 'plant.inductor.l';
 		case 'dcr': return 'plant.inductor.dcr';
 		case 'vramp': return 'modulator.vramp';
+		case 'senseGain': return 'modulator.senseGain';
+		case 'rampSlope': return 'modulator.rampSlope';
 		case 'delay': return 'modulator.delay';
 		default: return `plant.capacitors.${branch ?? 0}.${name}`;
 	}
@@ -132,11 +151,14 @@ export function specAt(spec: LoopSpec, params: readonly ResolvedParameter[], the
 	const n = spec.stage.capacitors.length;
 	const branchFactors = { c: new Array<number>(n).fill(1), esr: new Array<number>(n).fill(1), esl: new Array<number>(n).fill(1) };
 	let delayS = spec.modulator.delayS;
+	const currentMode = spec.modulator.currentMode ? { ...spec.modulator.currentMode } : undefined;
 	params.forEach((p, k) => {
 		if (p.kind === 'delay') delayS = theta[k] / spec.stage.fswHz;
 		else if (p.branch !== null) branchFactors[p.name as 'c' | 'esr' | 'esl'][p.branch] = Math.exp(theta[k]);
-		else factors[p.name as 'l' | 'dcr' | 'vramp'] = Math.exp(theta[k]);
+		else if (p.name === 'senseGain' || p.name === 'rampSlope') {
+			if (currentMode) currentMode[p.name] = p.typed * Math.exp(theta[k]);
+		} else factors[p.name as 'l' | 'dcr' | 'vramp'] = Math.exp(theta[k]);
 	});
 	const moved = applyVariation(spec, { ...base, factors, branchFactors });
-	return { ...moved, modulator: { ...moved.modulator, delayS } };
+	return { ...moved, modulator: { ...moved.modulator, delayS, ...(currentMode ? { currentMode } : {}) } };
 }

@@ -5,8 +5,11 @@
  */
 import { z } from 'zod';
 
-/** Parameters a fit may estimate. c, esr, esl are per capacitor branch (`branch`, 0-based). */
-export const FIT_PARAMETER_NAMES = ['l', 'dcr', 'c', 'esr', 'esl', 'vramp', 'delay'] as const;
+/**
+ * Parameters a fit may estimate. c, esr, esl are per capacitor branch (`branch`, 0-based);
+ * vramp is voltage mode's modulator gain, senseGain (Ri) and rampSlope (Se) peak current mode's.
+ */
+export const FIT_PARAMETER_NAMES = ['l', 'dcr', 'c', 'esr', 'esl', 'vramp', 'senseGain', 'rampSlope', 'delay'] as const;
 export type FitParameterName = (typeof FIT_PARAMETER_NAMES)[number];
 export const BRANCH_PARAMETERS: readonly FitParameterName[] = ['c', 'esr', 'esl'];
 

@@ -3,8 +3,7 @@ import { analyzeValidatedDesign, type AnalysisDetail } from '../analyze';
 import type { ContractError } from '../contract/errors';
 import type { DesignDocument } from '../contract/designSchema';
 import { loopSpecFromDetail } from '../corners/loopModel';
-import type { PartName } from '../corners/variation';
-import { sensitivity, type SensitivityReport } from './sensitivity';
+import { sensitivity, type SensitivityParameter, type SensitivityReport } from './sensitivity';
 
 export * from './sensitivity';
 
@@ -17,7 +16,7 @@ export function designSensitivity(doc: DesignDocument): SensitivityReport | Cont
 
 /** The same from an analysis already made (the review page's and the report's). */
 export function detailSensitivity(detail: AnalysisDetail): SensitivityReport {
-	const tol: Partial<Record<PartName, number>> = {};
-	for (const [name, t] of Object.entries(detail.document.tolerances ?? {})) if (t && t.tol > 0) tol[name as PartName] = t.tol;
+	const tol: Partial<Record<SensitivityParameter, number>> = {};
+	for (const [name, t] of Object.entries(detail.document.tolerances ?? {})) if (t && t.tol > 0) tol[name as SensitivityParameter] = t.tol;
 	return sensitivity(loopSpecFromDetail(detail), tol);
 }

@@ -12,7 +12,15 @@ import { isDesignInputError } from '../errors';
 import { buildLoop, type LoopSpec } from '../corners/loopModel';
 import { applyVariation, PART_LABELS, partsPresent, type PartName } from '../corners/variation';
 
-export type SensitivityParameter = PartName | 'delay';
+/**
+ * Peak current mode adds the current loop's two settings: the sense gain Ri and the compensation
+ * ramp Se (the ramp amplitude of voltage mode is then unused and left out).
+ */
+export const CURRENT_MODE_PARAMETERS = ['senseGain', 'rampSlope'] as const;
+export type CurrentModeParameter = (typeof CURRENT_MODE_PARAMETERS)[number];
+export type SensitivityParameter = PartName | 'delay' | CurrentModeParameter;
+
+const CURRENT_MODE_LABELS: Record<CurrentModeParameter, string> = { senseGain: 'Ri (sense gain)', rampSlope: 'Se (ramp slope)' };
 
 export interface MetricChanges {
 	/** Degrees of phase margin. */
@@ -64,16 +72,26 @@ function figuresOf(spec: LoopSpec): Figures | null {
 /** The spec with one parameter multiplied by `factor`. */
 export function scaledSpec(spec: LoopSpec, parameter: SensitivityParameter, factor: number): LoopSpec {
 	if (parameter === 'delay') return { ...spec, modulator: { ...spec.modulator, delayS: spec.modulator.delayS * factor } };
+	if (parameter === 'senseGain' || parameter === 'rampSlope') {
+		const cm = spec.modulator.currentMode;
+		if (!cm) return spec;
+		return { ...spec, modulator: { ...spec.modulator, currentMode: { ...cm, [parameter]: cm[parameter] * factor } } };
+	}
 	return applyVariation(spec, { factors: { [parameter]: factor } });
 }
 
 export function sensitivityParameters(spec: LoopSpec): SensitivityParameter[] {
-	const out: SensitivityParameter[] = partsPresent(spec);
+	const cm = spec.modulator.currentMode;
+	const out: SensitivityParameter[] = partsPresent(spec).filter((p) => !(cm && p === 'vramp'));
+	if (cm) for (const p of CURRENT_MODE_PARAMETERS) if (cm[p] > 0 && !out.includes(p)) out.push(p);
 	if (spec.modulator.delayS > 0) out.push('delay');
 	return out;
 }
 
-export function sensitivity(spec: LoopSpec, tolerances: Partial<Record<PartName, number>> = {}): SensitivityReport {
+const labelOf = (parameter: SensitivityParameter) =>
+	parameter === 'delay' ? 'Loop delay' : parameter === 'senseGain' || parameter === 'rampSlope' ? CURRENT_MODE_LABELS[parameter] : PART_LABELS[parameter];
+
+export function sensitivity(spec: LoopSpec, tolerances: Partial<Record<SensitivityParameter, number>> = {}): SensitivityReport {
 	const base = figuresOf(spec);
 	const nominal = { phaseMarginDeg: base?.pm ?? null, gainMarginDb: base?.gm ?? null, crossoverHz: base?.fc ?? null };
 	const notes: string[] = [];
@@ -94,10 +112,10 @@ export function sensitivity(spec: LoopSpec, tolerances: Partial<Record<PartName,
 			gainMarginDb: dGm === null ? null : dGm * k,
 			crossoverPct: dFc === null ? null : dFc * k
 		});
-		const tol = parameter === 'delay' ? undefined : tolerances[parameter];
+		const tol = (tolerances as Partial<Record<SensitivityParameter, number>>)[parameter];
 		rows.push({
 			parameter,
-			label: parameter === 'delay' ? 'Loop delay' : PART_LABELS[parameter],
+			label: labelOf(parameter),
 			perTenPercent: scale(LN_TEN_PERCENT),
 			tolerance: tol ?? null,
 			atTolerance: tol ? scale(Math.log(1 + tol)) : null
