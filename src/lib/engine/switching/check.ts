@@ -20,6 +20,8 @@ export const PM_TOLERANCE_DEG = 3;
 export const FC_TOLERANCE = 0.1;
 /** Default injection: the duty cycle moves by this much peak (averaged-model estimate). */
 export const DEFAULT_DUTY_MODULATION = 1e-3;
+/** Points the crossover search may add beside the switching crossover (two passes of two). */
+const CROSSOVER_EXTRA_POINTS = 4;
 
 export interface SwitchingCheckInput {
 	circuit: SwitchingCircuitInput;
@@ -169,7 +171,10 @@ export function switchingCheck(input: SwitchingCheckInput, options: SwitchingChe
 		const nc = c.fswHz / fcAvg;
 		for (const p of [Math.max(3, Math.floor(nc)), Math.max(3, Math.ceil(nc))]) if (!periodsWanted.includes(p)) periodsWanted.push(p);
 	}
-	const total = periodsWanted.length + 1;
+	// Planned: every requested point, the points the crossover search may add beside the switching
+	// crossover (two passes of two at most) and the linearity repeat. The reserve is released once
+	// the search ends, so done/total never moves backwards and reaches 1 only at the end.
+	let total = periodsWanted.length + CROSSOVER_EXTRA_POINTS + 1;
 	const modulation = options.dutyModulation ?? DEFAULT_DUTY_MODULATION;
 	const ctx = { circuit: c, orbit };
 	const amplitudeAt = (freqHz: number) => {
@@ -192,9 +197,13 @@ export function switchingCheck(input: SwitchingCheckInput, options: SwitchingChe
 		const nc = c.fswHz / switching.crossoverHz;
 		const wanted = [Math.max(3, Math.floor(nc)), Math.max(3, Math.ceil(nc))].filter((p) => !points.some((q) => q.periods === p));
 		if (!wanted.length) break;
-		for (const p of wanted) points.push(withAveraged(measureLoopGain(ctx, p, amplitudeAt(c.fswHz / p)), input.averagedLoop));
+		for (const p of wanted) {
+			points.push(withAveraged(measureLoopGain(ctx, p, amplitudeAt(c.fswHz / p)), input.averagedLoop));
+			options.onProgress?.(++done, total);
+		}
 		switching = crossoverOf(points);
 	}
+	total = done + 1;
 	// Linearity: the point nearest the crossover again at half the amplitude.
 	let linearity: SwitchingCheckResult['linearity'] = null;
 	const near = nearest(points, switching.crossoverHz ?? fcAvg ?? c.fswHz / 10);

@@ -51,6 +51,24 @@ describe('switching model of a buck where averaging holds', () => {
 		expect(Math.abs(r.linearity!.deltaDeg)).toBeLessThan(0.05);
 	});
 
+	it('counts every measurement in its progress, the points added beside the crossover and the linearity repeat included', () => {
+		// [derived: one progress call per measurement] Four requested points far from fc (42.6 kHz):
+		// the crossover search adds fsw/11 and fsw/12, so a total of the requested points alone
+		// would reach 100 % before the end.
+		const progress: [number, number][] = [];
+		const r = switchingCheck(input, { freqHz: [4e3, 10e3, 100e3, 150e3], onProgress: (done, total) => progress.push([done, total]) });
+		expect(r.points.length).toBeGreaterThan(4);
+		const measurements = r.points.length + (r.linearity ? 1 : 0);
+		expect(progress.at(-1)).toEqual([measurements, measurements]);
+		expect(progress.map(([done]) => done)).toEqual(Array.from({ length: measurements }, (_, i) => i + 1));
+		for (let i = 0; i < progress.length; i++) {
+			const [done, total] = progress[i];
+			expect(done).toBeLessThanOrEqual(total);
+			if (i > 0) expect(done / total).toBeGreaterThanOrEqual(progress[i - 1][0] / progress[i - 1][1]);
+			if (i < progress.length - 1) expect(done).toBeLessThan(total);
+		}
+	});
+
 	it('has a period-map Jacobian (with the saltation at the turn-off instant) equal to finite differences', () => {
 		// [derived]: the Jacobian is checked against the map itself, column by column.
 		const { orbit, prop } = orbitOf(input);
