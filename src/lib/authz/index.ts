@@ -31,6 +31,7 @@ export const ACTIONS = [
 	'loop.approve',
 	'loop.requestChanges',
 	'loop.comment',
+	'loop.check',
 	'template.read',
 	'template.create',
 	'template.update',
@@ -53,6 +54,7 @@ const DESIGN_WRITE: Action[] = [
 	'loop.save',
 	'loop.requestReview',
 	'loop.comment',
+	'loop.check',
 	'template.create',
 	'template.update',
 	'template.delete',
@@ -60,7 +62,7 @@ const DESIGN_WRITE: Action[] = [
 ];
 
 /** Sign-off: a reviewer reads everything, comments, approves or sends a loop back. */
-const REVIEW: Action[] = ['loop.approve', 'loop.requestChanges', 'loop.comment'];
+const REVIEW: Action[] = ['loop.approve', 'loop.requestChanges', 'loop.comment', 'loop.check'];
 
 /**
  * The matrix as implemented. Owner: everything, including members, roles and deleting a board.

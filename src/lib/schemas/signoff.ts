@@ -8,6 +8,17 @@ export const templateFromLoopSchema = z.object({
 	description: z.string().trim().max(4000).nullable().optional()
 });
 
+/** POST /loops/{id}/switching-check: the frequencies to measure (Hz), or none for the check's defaults. */
+export const switchingCheckRequestSchema = z
+	.object({
+		freqHz: z
+			.array(z.number().finite('must be a number').positive('must be above 0 Hz'))
+			.min(1, 'give at least one frequency')
+			.max(16, 'at most 16 frequencies')
+			.optional()
+	})
+	.strict();
+
 export const templateApplySchema = z.object({
 	railId: z.string().min(1, 'name the rail').max(36),
 	/** false: preview the parts and margins only; true: save them as the rail's next revision. */

@@ -18,7 +18,7 @@ import {
 	workspaceCreateSchema,
 	workspaceUpdateSchema
 } from '../schemas/workspace';
-import { benchFitSchema, benchUploadJsonSchema, designImportSchema, templateApplySchema, templateFromLoopSchema } from '../schemas/signoff';
+import { benchFitSchema, benchUploadJsonSchema, designImportSchema, templateApplySchema, switchingCheckRequestSchema, templateFromLoopSchema } from '../schemas/signoff';
 import { passwordChangeSchema, profileSchema, tokenSignInSchema } from '../schemas/auth';
 import { ROLES, can, type Action } from '../authz';
 
@@ -84,6 +84,15 @@ const OPERATIONS: Operation[] = [
 	{ method: 'post', path: '/loops/{id}/comments', summary: 'Add a comment', action: 'loop.comment', body: commentSchema, success: 201 },
 	{ method: 'get', path: '/loops/{id}/report', summary: 'Review view: the stored verdict and its figures, the worst corners, the spec, parts, operating point, closed loop and steps, plot data, review trail, comments, requests and the differences (parameters and verdict) to the previous and the last approved revision', action: 'loop.read', success: 200 },
 	{ method: 'get', path: '/loops/{id}/exports/{format}', summary: 'Download the revision: csv (sweep), verdict (the stored verdict as CSV), svg or png (Bode plot; ?corners=1, ?corner=N, ?theme=dark, ?width=), spice (ngspice netlist; ?batch=1), json (design document with the built parts and the stored verdict), pdf (sign-off report)', action: 'loop.read', success: 200 },
+	{ method: 'get', path: '/loops/{id}/switching-check', summary: 'The switching check kept with the revision (`switchingCheck`: engine version, time, frequencies and the result: PM and fc on the switched circuit beside the averaged ones, the caution and its usual causes), or null', action: 'loop.read', success: 200 },
+	{
+		method: 'post',
+		path: '/loops/{id}/switching-check',
+		summary: 'Run the switching check of the stored design in the analysis pool and keep it with the revision (a kept check of the current engine and the same frequencies is answered as it is, `reused`); 400 names a frequency outside fsw/2000 … fsw/2; 422 when the design cannot be checked or the check goes over the budget',
+		action: 'loop.check',
+		body: switchingCheckRequestSchema,
+		success: 200
+	},
 	{ method: 'post', path: '/loops/{id}/template', summary: "Save the revision's compensator strategy as a template scaled to the plant (fc / fsw, zeros / f0, poles / fsw, series)", action: 'template.create', body: templateFromLoopSchema, success: 201 },
 	{ method: 'get', path: '/reviews', summary: "The caller's review queue: revisions they were asked to sign off, then the others waiting in review", action: 'loop.read', workspaceQuery: true, success: 200 },
 	{ method: 'post', path: '/rails/{id}/import', summary: 'Import a design JSON file as the next revision (400 invalid-design with fields `document.<path>`; 409 on a stale base)', action: 'loop.save', body: designImportSchema, success: 201 },

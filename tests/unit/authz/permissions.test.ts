@@ -30,6 +30,8 @@ const expected: Record<Action, string> = {
 	'loop.approve': 'owner reviewer',
 	'loop.requestChanges': 'owner reviewer',
 	'loop.comment': 'owner engineer reviewer',
+	// [project rule] running the switching check and keeping it with a revision is part of designing and of reviewing.
+	'loop.check': 'owner engineer reviewer',
 	'template.read': 'owner engineer reviewer viewer',
 	'template.create': 'owner engineer',
 	'template.update': 'owner engineer',

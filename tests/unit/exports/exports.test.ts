@@ -10,6 +10,8 @@ import { Resvg } from '@resvg/resvg-js';
 import { designSensitivity, type SensitivityReport } from '$lib/engine/sensitivity';
 import { designDocumentSchema } from '$lib/engine/contract/designSchema';
 import { sensitivityCells } from '$lib/verdict/sensitivityText';
+import { switchingCheckOfDesign } from '$lib/engine/pipeline/switchingCircuit';
+import { switchingFigureRows } from '$lib/verdict/switchingText';
 import { describe, expect, it } from 'vitest';
 import { parseBenchFile } from '$lib/bench';
 import { analyzeDesign, type AnalysisResponse } from '$lib/engine';
@@ -185,6 +187,24 @@ describe('buildSignoffPdf', { timeout: 60_000 }, () => {
 		expect(text).toContain('Root-sum-square');
 		// The largest row, as the review page's table prints it (verdict/sensitivityText.ts).
 		for (const cell of sensitivityCells(report.rows[0]).slice(0, 2)) expect(text).toContain(cell);
+	});
+
+	it('prints the switching check kept with the revision (caution, PM and fc beside the averaged ones), or says it was not run', async () => {
+		// The light-load boost of reference/switching, where ngspice's switching transient sides with the lower PM.
+		const boost = JSON.parse(readFileSync(path.resolve('reference/switching/cases/boost-5v-12v-light.json'), 'utf8'));
+		const result = switchingCheckOfDesign(boost);
+		if ('error' in result) throw new Error(result.error.message);
+		expect(result.status).toBe('differs');
+		const kept = { engineVersion: '0', computedAt: '2026-01-02T03:04:05Z', requestedBy: null, freqHz: null, result };
+		const pdf = await buildSignoffPdf({ rail: { name: 'S' }, revision: { label: 'r1' }, document: specDoc as never, response: buck, verification, switchingCheck: kept });
+		const text = flat((await pdfText(pdf)).text);
+		expect(text).toContain('Switching check');
+		expect(text).toContain('The switching model differs from the averaged one');
+		expect(text).toContain('Usual causes');
+		for (const cell of switchingFigureRows(result).flat()) expect(text).toContain(cell);
+		expect(text).toContain('run it again for current figures');
+		const without = flat((await pdfText(await buildSignoffPdf({ rail: { name: 'S' }, revision: { label: 'r1' }, document: specDoc as never, response: buck, verification }))).text);
+		expect(without).toContain('Not run for this revision');
 	});
 
 	it('an en dash and Ω survive in the PDF, and every verdict row is one line (failed before: "1 k ohm?1 M ohm", rows wrapped)', async () => {

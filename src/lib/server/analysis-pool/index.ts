@@ -57,6 +57,11 @@ export async function verify(owner: string, document: unknown) {
 	return (await pool()).run(owner, { name: 'verify', input: { document } }, document);
 }
 
+/** The switching check of a design (services/switching-check.ts keeps it with a revision). */
+export async function switchingCheck(owner: string, document: unknown, freqHz?: number[]) {
+	return (await pool()).run(owner, { name: 'switchingCheck', input: { document, freqHz } }, document);
+}
+
 /** A fit of a design to a bench measurement (services/bench.ts fit); over budget answers name the design's fields. */
 export async function fit(owner: string, input: FitDesignInput) {
 	return (await pool()).run(owner, { name: 'fit', input }, input.document);

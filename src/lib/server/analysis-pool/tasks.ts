@@ -9,6 +9,7 @@ import { analyzeStored, cornerTraces, stepResponses } from '../services/loop-ana
 import { fitDesign, fittedDocument, type FitDesignInput } from '../../engine/fit';
 import { designDocumentSchema } from '../../engine/contract/designSchema';
 import { detailSensitivity } from '../../engine/sensitivity';
+import { switchingCheckOfDesign } from '../../engine/pipeline/switchingCircuit';
 
 export interface StoredRequest {
 	design: unknown;
@@ -56,6 +57,10 @@ const tasks = {
 		// fitDesign accepted the document, so this parse succeeds; it fills the defaults the analysis used.
 		const document = designDocumentSchema.parse(input.document);
 		return { fit: result, document: fittedDocument(document, result) };
+	},
+	/** The switching check of a design document (engine/switching; the frequencies asked for, or its defaults). */
+	switchingCheck(input: { document: unknown; freqHz?: number[] }) {
+		return switchingCheckOfDesign(input.document, input.freqHz ? { freqHz: input.freqHz } : {});
 	},
 	/** The verdict of a design document (saves, template use and re-verification). */
 	verify(input: { document: unknown }) {

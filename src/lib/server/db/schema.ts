@@ -18,6 +18,7 @@ import {
 import { organization, user } from './auth-schema';
 import type { Verification } from '../../engine/verify/types';
 import type { VerdictHeadline } from '../../verdict/figures';
+import type { StoredSwitchingCheck } from '../../verdict/switchingText';
 import type { MarginTargets, RailTolerances, VerdictFlag } from '../services/types';
 
 export * from './auth-schema';
@@ -140,6 +141,12 @@ export const loopRevision = mysqlTable(
 				),
 				{ mode: 'stored' }
 			),
+		/**
+		 * The switching check of `design` (engine/switching: PM and fc measured on the switched
+		 * circuit beside the averaged ones), run in the analysis pool when a member asks for it and
+		 * kept with the revision with its own engine version; null until then.
+		 */
+		switchingCheck: json('switching_check').$type<StoredSwitchingCheck | null>(),
 		/** ENGINE_VERSION that computed `verification`; `npm run reverify` recomputes older ones. */
 		engineVersion: varchar('engine_version', { length: 32 }),
 		message: varchar('message', { length: 500 }).notNull(),

@@ -22,6 +22,16 @@ import { modulatorText } from '../../text/controlMode';
 import { cornerListText } from '../../verdict/cornerList';
 import { SENSITIVITY_HEADER, sensitivityCells, sensitivityTotals } from '../../verdict/sensitivityText';
 import type { SensitivityReport } from '../../engine/sensitivity';
+import { ENGINE_VERSION } from '../../engine/version';
+import {
+	SWITCHING_HEADER,
+	storedCheckText,
+	switchingFigureRows,
+	switchingLinearityText,
+	switchingOrbitText,
+	switchingVerdictText,
+	type StoredSwitchingCheck
+} from '../../verdict/switchingText';
 
 export const REPORT_CAUTION =
 	'Small-signal estimate; confirm margins and transients on hardware; above 60 V DC or at mains follow the applicable safety standards and licensed practice.';
@@ -57,6 +67,8 @@ export interface SignoffReportInput {
 	/** The ranked sensitivities of the margins to every part (engine/sensitivity). */
 	sensitivity?: SensitivityReport | null;
 	review?: ReviewEntry[];
+	/** The switching check kept with the revision (services/switching-check.ts), or null when none was run. */
+	switchingCheck?: StoredSwitchingCheck | null;
 	/** A plot image to use instead of rendering one from the response. */
 	plotPng?: Buffer;
 	generatedAt?: Date;
@@ -201,6 +213,25 @@ export function buildSignoffPdf(input: SignoffReportInput, options: PdfOptions =
 		table(doc, [...SENSITIVITY_HEADER], [w - 400, 50, 80, 80, 90, 100], rows);
 		doc.moveDown(0.6);
 	}
+
+	// The switching model beside the averaged one, when a check was kept with the revision.
+	heading(doc, 'Switching check');
+	const kept = input.switchingCheck;
+	if (kept) {
+		const r = kept.result;
+		const verdict = switchingVerdictText(r);
+		doc.fontSize(9).fillColor(verdict.tone === 'pass' ? STATUS_COLOUR.pass : STATUS_COLOUR.caution).text(useFontFor(doc, 'prose', verdict.text), { width: w });
+		doc.moveDown(0.2);
+		if (r.status !== 'not-run') table(doc, [...SWITCHING_HEADER], [110, 110, 110, w - 330], switchingFigureRows(r).map((cells) => ({ cells })));
+		doc.moveDown(0.2);
+		for (const line of [switchingOrbitText(r), ...r.notes, switchingLinearityText(r)]) {
+			if (line) doc.fontSize(8).fillColor(MUTED).text(useFontFor(doc, 'prose', line), { width: w });
+		}
+		doc.font('Helvetica').fontSize(8).fillColor(MUTED).text(storedCheckText(kept, ENGINE_VERSION, dateText(kept.computedAt)), { width: w });
+	} else {
+		doc.font('Helvetica').fontSize(9).fillColor(MUTED).text('Not run for this revision: the margins above are from the averaged model only. Run it from the review page to keep it with the revision.', { width: w });
+	}
+	doc.moveDown(0.6);
 
 	// Every warning the engine raised, at any corner.
 	heading(doc, 'Engine warnings');

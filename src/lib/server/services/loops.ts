@@ -53,7 +53,7 @@ export const verdictColumn = sql<Verification | null>`JSON_REMOVE(${loopRevision
 	typeof v === 'string' ? (JSON.parse(v) as Verification) : ((v ?? null) as Verification | null)
 );
 
-export type LoopSummary = Omit<LoopRevision, 'design' | 'verification'> & { authorName: string | null; verification: Verification | null };
+export type LoopSummary = Omit<LoopRevision, 'design' | 'verification' | 'switchingCheck'> & { authorName: string | null; verification: Verification | null };
 
 export async function list(db: Database, railId: string, page: PageQuery): Promise<Page<LoopSummary>> {
 	const [items, [{ total }]] = await Promise.all([
@@ -72,7 +72,7 @@ export async function list(db: Database, railId: string, page: PageQuery): Promi
 
 export async function get(db: Database, id: string) {
 	const [row] = await db
-		.select({ ...summaryColumns, design: loopRevision.design, verification: loopRevision.verification })
+		.select({ ...summaryColumns, design: loopRevision.design, verification: loopRevision.verification, switchingCheck: loopRevision.switchingCheck })
 		.from(loopRevision)
 		.leftJoin(user, eq(user.id, loopRevision.authorId))
 		.where(eq(loopRevision.id, id))
@@ -148,6 +148,7 @@ export async function save(
 			schemaVersion: SCHEMA_VERSION,
 			design,
 			verification,
+			switchingCheck: null,
 			engineVersion: verification.engineVersion,
 			message: input.message,
 			status: 'draft',

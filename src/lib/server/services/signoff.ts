@@ -93,6 +93,8 @@ export async function reviewRecord(db: Database, loop: Loop) {
 		verification: v ? { ...v, corners: { ...v.corners, list: undefined } } : null,
 		figures: v ? verdictFigures(v) : null,
 		corners: v ? cornerRows(v) : [],
+		/** The switching check kept with the revision (run on request, services/switching-check.ts), or null. */
+		switchingCheck: loop.switchingCheck ?? null,
 		spec: { targets: v?.targets ?? null, corners: doc.corners ?? null, tolerances: doc.tolerances ?? null, spread: doc.spread ?? null },
 		comments,
 		requests,
@@ -146,7 +148,8 @@ export async function reportPdf(db: Database, loop: Loop, owner: string): Promis
 	const revision = { label: `r${loop.revision}`, author: loop.authorName ?? undefined, createdAt: loop.createdAt, status: loop.status };
 	const review = history.map(({ at, who, action, note, freqHz }) => ({ at, who, action, note, freqHz }));
 	// Everything the report prints besides the (immutable) design: a repeated download is the kept file.
-	const key = exportKey({ pdf: loop.id, railText, revision, verification: loop.verification, review });
+	const switchingCheck = loop.switchingCheck ?? null;
+	const key = exportKey({ pdf: loop.id, railText, revision, verification: loop.verification, review, switchingCheck });
 	return cachedExport<Buffer, { error: { code: string; message: string; fields?: Record<string, string> } }>(key, async () => {
 		const detail = await analyses.stored(owner, { design: loop.design, verification: loop.verification, sensitivity: true });
 		if ('error' in detail) return detail;
@@ -158,6 +161,7 @@ export async function reportPdf(db: Database, loop: Loop, owner: string): Promis
 			response: detail.response,
 			verification: loop.verification,
 			cornerTraces: detail.cornerTraces,
+			switchingCheck,
 			review
 		});
 	});

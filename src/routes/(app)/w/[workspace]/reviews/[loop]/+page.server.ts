@@ -38,6 +38,7 @@ export const load: PageServerLoad = async (event) => {
 		me: access.caller.userId,
 		canDecide: can(access.role, 'loop.approve') && !isAuthor && loop.status === 'in-review',
 		isAuthor,
-		canComment: can(access.role, 'loop.comment')
+		canComment: can(access.role, 'loop.comment'),
+		canCheck: can(access.role, 'loop.check')
 	};
 };

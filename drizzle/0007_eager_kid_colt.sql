@@ -1,0 +1,1 @@
+ALTER TABLE `loop_revision` ADD `switching_check` json;

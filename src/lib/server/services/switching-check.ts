@@ -1,0 +1,60 @@
+// The switching check kept with a revision: run on the stored design in the analysis pool (the
+// caller's slots, its time and memory budget), then written beside the stored verdict with its
+// engine version. A revision whose kept check is from the current engine and the same
+// frequencies answers that check without running again, so repeating the request costs nothing.
+import { eq } from 'drizzle-orm';
+import type { Database } from '../db';
+import { loopRevision } from '../db/schema';
+import { ENGINE_VERSION } from '../../engine/version';
+import type { StoredSwitchingCheck } from '../../verdict/switchingText';
+import * as analyses from '../analysis-pool';
+import { ApiError } from '../http/errors';
+import * as audit from './audit';
+import type { Actor } from './types';
+import type { Loop } from './signoff';
+
+/** The measurable span: fsw/2000 (2000 switching periods per injection period) … fsw/2. */
+export const MAX_PERIODS_PER_POINT = 2000;
+
+function checkFrequencies(freqHz: number[] | undefined, fswHz: number): number[] | null {
+	if (!freqHz) return null;
+	const fields: Record<string, string> = {};
+	freqHz.forEach((f, i) => {
+		if (f > fswHz / 2) fields[`freqHz.${i}`] = `must be at most fsw/2 (${fswHz / 2} Hz)`;
+		else if (f < fswHz / MAX_PERIODS_PER_POINT) fields[`freqHz.${i}`] = `must be at least fsw/${MAX_PERIODS_PER_POINT} (${fswHz / MAX_PERIODS_PER_POINT} Hz)`;
+	});
+	if (Object.keys(fields).length) throw new ApiError(400, 'invalid-request', 'a frequency is outside what the switching check can measure', fields);
+	return [...freqHz].sort((a, b) => a - b);
+}
+
+const sameList = (a: number[] | null, b: number[] | null) => (a === null || b === null ? a === b : a.length === b.length && a.every((x, i) => x === b[i]));
+
+/** Runs (or reuses) the switching check of `loop`'s stored design and keeps it with the revision. */
+export async function run(db: Database, actor: Actor, loop: Loop, request: { freqHz?: number[] }): Promise<{ check: StoredSwitchingCheck; reused: boolean }> {
+	const design = loop.design as { plant?: { fsw?: unknown } };
+	const fsw = typeof design.plant?.fsw === 'number' ? design.plant.fsw : NaN;
+	const freqHz = checkFrequencies(request.freqHz, fsw);
+	const kept = loop.switchingCheck;
+	if (kept && kept.engineVersion === ENGINE_VERSION && sameList(kept.freqHz, freqHz)) return { check: kept, reused: true };
+	const result = await analyses.switchingCheck(actor.userId, loop.design, freqHz ?? undefined);
+	if ('error' in result) throw new ApiError(422, result.error.code, `the stored design cannot be checked: ${result.error.message}`, result.error.fields);
+	const check: StoredSwitchingCheck = { engineVersion: ENGINE_VERSION, computedAt: new Date().toISOString(), requestedBy: actor.userId, freqHz, result };
+	await db.transaction(async (tx) => {
+		await tx.update(loopRevision).set({ switchingCheck: check }).where(eq(loopRevision.id, loop.id));
+		await audit.record(tx, {
+			workspaceId: loop.workspaceId,
+			actor,
+			action: 'loop.switching-check',
+			entityType: 'loop',
+			entityId: loop.id,
+			after: {
+				revision: loop.revision,
+				status: result.status,
+				phaseMarginDeg: result.switching.phaseMarginDeg,
+				crossoverHz: result.switching.crossoverHz,
+				engineVersion: ENGINE_VERSION
+			}
+		});
+	});
+	return { check, reused: false };
+}
