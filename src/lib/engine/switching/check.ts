@@ -142,6 +142,11 @@ export function switchingCheck(input: SwitchingCheckInput, options: SwitchingChe
 	if (input.delayS > 0) return notRun(input, `The loop delay (${formatEng(input.delayS, 's')}) is not in the switching model.`);
 	const { orbit, prop } = orbitOf(input);
 	if (!orbit.converged) return notRun(input, 'The switching model found no periodic steady state (the shooting did not converge).');
+	// A fixed point with the switch off (or on) for whole periods is no regulating orbit: the shooting
+	// left the region where the comparator trips (a control gain far outside practice, e.g. a tiny Ri).
+	if (orbit.cycle.tOff <= 0 || orbit.cycle.tOff >= prop.ts) {
+		return notRun(input, `The switching model found no regulating steady state: the switch stays ${orbit.cycle.tOff <= 0 ? 'off' : 'on'} for whole periods.`);
+	}
 	const reading = readMultipliers(orbit.multipliers);
 	const slopes = comparatorSlopes(prop, orbit);
 	const orbitReport = {

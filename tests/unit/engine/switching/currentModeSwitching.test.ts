@@ -236,3 +236,13 @@ describe('the cycle of peak current mode', () => {
 		expect(Math.abs(free.tOff - orbit.cycle.tOff)).toBeLessThan(1e-15);
 	});
 });
+
+describe('peak current mode outside practice', () => {
+	it('a sense gain of 1 µV/A without a ramp (practice: about 0.01–1 V/A [common practice]) is not run, with the reason in words', () => {
+		const doc = read<Doc>('cases', 'buck-d066-mc17.json');
+		const r = switchingCheck(inputOf({ ...doc, modulator: { ...doc.modulator, senseGain: 1e-6, rampSlope: 0 } }));
+		expect(r.status).toBe('not-run');
+		expect(r.reason).toMatch(/no regulating steady state/);
+		expect(JSON.stringify(r)).not.toMatch(/NaN|Infinity/);
+	});
+});
