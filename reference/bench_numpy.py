@@ -46,11 +46,19 @@ def compensator(doc: dict, s: np.ndarray) -> np.ndarray:
     return zf / zi
 
 
-def analyse(doc: dict) -> dict:
+def sweep(doc: dict) -> np.ndarray:
     sw = doc["sweep"]
-    f = np.logspace(np.log10(sw["startHz"]), np.log10(sw["stopHz"]), POINTS)
+    return np.logspace(np.log10(sw["startHz"]), np.log10(sw["stopHz"]), POINTS)
+
+
+def analyse(doc: dict) -> dict:
+    f = sweep(doc)
     s = 2j * np.pi * f
-    t = compensator(doc, s) * plant_gvd(doc["plant"], s) / doc["modulator"]["vramp"]
+    return margins(f, compensator(doc, s) * plant_gvd(doc["plant"], s) / doc["modulator"]["vramp"])
+
+
+def margins(f: np.ndarray, t: np.ndarray) -> dict:
+    """Governing crossover, phase margin and gain margin of a sampled loop gain t(f)."""
     mag = 20 * np.log10(np.abs(t))
     ph = np.degrees(np.unwrap(np.angle(t)))
     lf = np.log10(f)
@@ -68,7 +76,7 @@ def analyse(doc: dict) -> dict:
     return {"crossoverHz": worst[0], "phaseMarginDeg": worst[1], "gainMarginDb": min(gms, key=abs) if gms else None}
 
 
-def main():
+def main(analyse=analyse):
     designs = json.load(open(sys.argv[1]))["designs"]
     # Wall time and this process's CPU time: on a shared machine the CPU time is what the
     # analysis itself costs; both are reported.
