@@ -244,10 +244,12 @@ function run(d: DesignDocument, options: AnalyzeOptions): AnalysisDetail {
 	if (extra.corners) response.corners = extra.corners;
 	if (extra.inputFilter) {
 		response.inputFilter = extra.inputFilter;
-		if (mod.currentMode) {
+		// Checked against the switching simulation (reference/currentmode/out/input-impedance.json):
+		// the buck's ZD holds to 0.5 dB / 5° up to fsw/10, the boost's phase departs by about 13° at fsw/20.
+		if (mod.currentMode && p.topology === 'boost') {
 			extra.warnings.push({
-				code: 'input-filter-current-mode-approximate',
-				message: "The input-filter check uses the stage's voltage-mode input impedance ZD; with peak current mode ZD differs (ZN does not), so treat the filter's effect on the loop as indicative."
+				code: 'input-filter-current-mode-boost',
+				message: `The input-filter check uses the boost's input impedance ZD with the current loop closed; against a switching simulation its magnitude holds within 2 dB up to fsw/5 but its phase departs by about 13° at fsw/20 (${formatEng(p.fsw / 20, 'Hz')}) and more above, so treat the filter's effect on the loop there as indicative.`
 			});
 		}
 	}

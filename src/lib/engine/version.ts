@@ -7,5 +7,8 @@
  * plausibility warnings (contract/plausibility.ts) join the stored warnings.
  * 4 = corners in DCM of a diode-emulation or diode-rectified stage are analysed with the DCM averaged
  * model (plants/dcmModel.ts) and count in the margins, instead of being left out.
+ * 5 = peak current mode: the ramp Vpp is no longer a (meaningless) tolerance corner there, Ri and Se
+ * are (corners/variation.ts); the input-filter check uses ZD with the control voltage held
+ * (plants/currentMode.ts) instead of the voltage-mode ZD.
  */
-export const ENGINE_VERSION = '4';
+export const ENGINE_VERSION = '5';

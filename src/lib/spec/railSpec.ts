@@ -18,7 +18,8 @@ export interface PartToleranceSpec {
 /**
  * Usual tolerances of the parts a rail does not set itself [common practice: power inductors
  * ±20 %, ceramic banks ±20 %, ESR wide, DCR ±10 %, RDS(on) over temperature ±30 %, 1 % resistors,
- * 5 % C0G network capacitors, ramp ±5 %]. L and C are normal (3σ at the limit: a part's spread
+ * 5 % C0G network capacitors, ramp ±5 %; peak current mode: the sense gain Ri ±10 % (sense resistor
+ * and current-sense amplifier gain together), the compensation ramp Se ±20 %]. L and C are normal (3σ at the limit: a part's spread
  * inside its rating); the rest uniform in ±tol.
  */
 export const DEFAULT_PART_TOLERANCES: Record<PartName, PartToleranceSpec> = {
@@ -36,7 +37,9 @@ export const DEFAULT_PART_TOLERANCES: Record<PartName, PartToleranceSpec> = {
 	c3: { tol: 0.05, dist: 'uniform', sigmas: 3 },
 	gm: { tol: 0.2, dist: 'uniform', sigmas: 3 },
 	ro: { tol: 0.2, dist: 'uniform', sigmas: 3 },
-	vramp: { tol: 0.05, dist: 'uniform', sigmas: 3 }
+	vramp: { tol: 0.05, dist: 'uniform', sigmas: 3 },
+	senseGain: { tol: 0.1, dist: 'uniform', sigmas: 3 },
+	rampSlope: { tol: 0.2, dist: 'uniform', sigmas: 3 }
 };
 
 /**

@@ -1,7 +1,8 @@
 /**
  * One variant of a loop: another input voltage or load, and multipliers on part values.
  * Part names follow the design document (plant: l, dcr, rdsOn, c, esr, esl; compensator: r1,
- * r2, r3, c1, c2, c3, gm, ro; modulator: vramp). `c`, `esr`, `esl` scale every capacitor
+ * r2, r3, c1, c2, c3, gm, ro; modulator: vramp in voltage mode, senseGain Ri and rampSlope Se in
+ * peak current mode). `c`, `esr`, `esl` scale every capacitor
  * branch, or each branch separately through `branchFactors`. Rb stays as built: a tolerance
  * on R1 moves Gc; the output voltage is taken as nominal (the small-signal model's point).
  */
@@ -11,7 +12,7 @@ import { dcrAt, rdsOnAt, REFERENCE_TEMPERATURE_C, temperatureClass } from '../pl
 
 export const PLANT_PARTS = ['l', 'dcr', 'rdsOn', 'c', 'esr', 'esl'] as const;
 export const COMPENSATOR_PARTS = ['r1', 'r2', 'r3', 'c1', 'c2', 'c3', 'gm', 'ro'] as const;
-export const MODULATOR_PARTS = ['vramp'] as const;
+export const MODULATOR_PARTS = ['vramp', 'senseGain', 'rampSlope'] as const;
 export const PART_NAMES = [...PLANT_PARTS, ...COMPENSATOR_PARTS, ...MODULATOR_PARTS] as const;
 export type PartName = (typeof PART_NAMES)[number];
 
@@ -31,7 +32,9 @@ export const PART_LABELS: Record<PartName, string> = {
 	c3: 'C3',
 	gm: 'gm',
 	ro: 'Ro',
-	vramp: 'Ramp Vpp'
+	vramp: 'Ramp Vpp',
+	senseGain: 'Ri',
+	rampSlope: 'Se'
 };
 
 export interface Variation {
@@ -47,7 +50,9 @@ export interface Variation {
 
 /** Parts a spec actually has (a Type II has no r3; an ideal OTA no ro; dcr = 0 has nothing to vary). */
 export function partsPresent(spec: LoopSpec): PartName[] {
-	const out: PartName[] = ['l', 'c', 'vramp'];
+	const cm = spec.modulator.currentMode;
+	// The modulator's parts by control method: the ramp in voltage mode; Ri and (when there is one) Se in peak current mode.
+	const out: PartName[] = ['l', 'c', ...(cm ? (['senseGain', ...(cm.rampSlope > 0 ? ['rampSlope' as const] : [])] as const) : (['vramp'] as const))];
 	if (spec.stage.dcr > 0) out.push('dcr');
 	if (spec.stage.rdsOn > 0) out.push('rdsOn');
 	if (spec.stage.capacitors.some((b) => b.esr > 0)) out.push('esr');
@@ -87,7 +92,13 @@ export function applyVariation(spec: LoopSpec, v: Variation): LoopSpec {
 			rdsOn: rdsOnAt(s.rdsOn, th?.rdsOnTempco, t) * f('rdsOn'),
 			capacitors
 		},
-		modulator: { ...spec.modulator, vramp: spec.modulator.vramp * f('vramp') },
+		modulator: {
+			...spec.modulator,
+			vramp: spec.modulator.vramp * f('vramp'),
+			...(spec.modulator.currentMode
+				? { currentMode: { senseGain: spec.modulator.currentMode.senseGain * f('senseGain'), rampSlope: spec.modulator.currentMode.rampSlope * f('rampSlope') } }
+				: {})
+		},
 		parts: parts as unknown as NetworkParts
 	};
 }

@@ -104,8 +104,9 @@ const tf = (gain: number, zeros: Root[], poles: Root[]): FactoredTf => ({ gain, 
 
 /**
  * The averaged stage with the peak-current loop closed: `gvd` is the control-voltage→output
- * response Gvc (the comparator's input to vout), `gvg` and `zo` the line and output responses
- * with the current loop closed. ZD and ZN stay the voltage-mode stage's (see docs/formulas.md §14.5).
+ * response Gvc (the comparator's input to vout), `gvg`, `zo` and `zd` the line, output and input
+ * responses with the current loop closed (ZD with vc held). ZN, the input impedance with the
+ * output nulled, does not depend on the control method and stays the stage's (docs/formulas.md §14.6).
  */
 export function currentModeStage(input: PowerStageInput, cm: CurrentModeInput): CurrentModePlant {
 	const asTyped = powerStage(input);
@@ -150,6 +151,7 @@ export function currentModeStage(input: PowerStageInput, cm: CurrentModeInput): 
 	if (boost) lineNum = polyAdd(lineNum, polyScale(polyMul(he, rq), Fm * Ri * IL));
 	const gvg = withPoles(lineNum, P, poles);
 	const zo = withPoles(polyAdd(Z, polyScale(polyMul(he, rq), Fm * Ri * vsw)), P, poles);
+	const zd = currentModeZd({ boost, D, IL, R, Fm, Ri, kf, kr, delta, qrs, rq, E, B, he, P }, poles);
 
 	const lowestPole = Math.min(...poles.map((p) => (p.kind === 'real' ? Math.abs(p.omega) : p.omega0)));
 	const currentMode: CurrentModeFeatures = { ...f, lowFrequencyPoleHz: lowestPole / (2 * Math.PI) };
@@ -158,7 +160,33 @@ export function currentModeStage(input: PowerStageInput, cm: CurrentModeInput): 
 		message: `Outside the model: the inductor current runs discontinuous below ${formatEng(op.criticalLoadCurrent, 'A')} (this load: ${formatEng(input.iout, 'A')}), and the peak current-mode model here is for CCM only; this corner is left out of the margins.`
 	};
 	const warnings = [...(dcm ? [outside] : vm.warnings), ...currentModeWarnings(currentMode, D, input.fswHz)];
-	return { ...vm, operatingPoint: op, gvd: gvc, gvg, zo, warnings, currentMode };
+	return { ...vm, operatingPoint: op, gvd: gvc, gvg, zo, zd, warnings, currentMode };
+}
+
+/**
+ * ZD with the current loop closed: the stage's input impedance v̂g/îg with the control voltage
+ * held (v̂c = 0), the "D" of Middlebrook's extra-element form, whose control input here is vc
+ * [derived, docs/formulas.md §14.6]. With îL = (E·d̂ + F·v̂g)/Δ, v̂ = (A·d̂ + B·v̂g)/Δ and the
+ * comparator's law, Δ cancels (B·E − A·F as in §14.3):
+ *   îL/v̂g = (F + Fm·kf·E + [boost] Fm·kr·IL·R·Q)/P,   d̂/v̂g = Fm·(kf·Δ + kr·B − Ri·He·F)/P,
+ * with F = D·(Q + R·S) (buck) or Q + R·S (boost); îg = D·îL + IL·d̂ (buck) or îL (boost).
+ * Without the current loop (Fm → 0) it is the voltage-mode ZD of stageModel.ts.
+ */
+function currentModeZd(
+	x: { boost: boolean; D: number; IL: number; R: number; Fm: number; Ri: number; kf: number; kr: number; delta: Poly; qrs: Poly; rq: Poly; E: Poly; B: Poly; he: Poly; P: Poly },
+	poles: Root[]
+): FactoredTf {
+	const F = x.boost ? x.qrs : polyScale(x.qrs, x.D);
+	let currentNum = polyAdd(F, polyScale(x.E, x.Fm * x.kf));
+	if (x.boost) currentNum = polyAdd(currentNum, polyScale(x.rq, x.Fm * x.kr * x.IL));
+	let admittanceNum = currentNum;
+	if (!x.boost) {
+		const dutyNum = polyAdd(polyAdd(polyScale(x.delta, x.kf), polyScale(x.B, x.kr)), polyScale(polyMul(x.he, F), -x.Ri));
+		admittanceNum = polyAdd(polyScale(currentNum, x.D), polyScale(dutyNum, x.IL * x.Fm));
+	}
+	// ZD = P/admittanceNum: P's roots (already known) are its zeros.
+	const y = fromPolynomials(admittanceNum, [1]);
+	return { gain: x.P[0] / y.gain, originPower: -y.originPower, zeros: poles, poles: y.zeros };
 }
 
 /** num/P with P's factors already known (only the numerator is factored here). */
