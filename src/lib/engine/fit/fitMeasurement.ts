@@ -78,7 +78,8 @@ export interface FitResult {
 	/**
 	 * Index into `parameters` of the one that explains most of the deviation: putting it back to
 	 * its typed value raises the cost most, and its 95 % interval excludes the typed value. Null
-	 * when no fitted parameter differs from its typed value beyond its interval.
+	 * when no fitted parameter differs from its typed value beyond its interval, or when the fit
+	 * removed less than half of the cost (the ticked values do not explain the deviation).
 	 */
 	explainedBy: number | null;
 	/** Points whose residual exceeds 3·fScale after the fit (the loss treats them as outliers). */
@@ -270,11 +271,17 @@ export function fitMeasurement(input: FitInput): FitResult | FitError {
 			residualIfTyped: ifTyped[k]
 		};
 	});
+	// Named only when the fit removed at least half of the cost: otherwise the ticked values do not
+	// explain the deviation, whichever of them moved.
+	const after = summary(lm.residuals);
+	const before = summary(r0);
 	let explainedBy: number | null = null;
-	parameters.forEach((p, k) => {
-		const excludesTyped = p.interval !== null && (p.typed < p.interval.low || p.typed > p.interval.high);
-		if (excludesTyped && (explainedBy === null || ifTyped[k].cost > ifTyped[explainedBy].cost)) explainedBy = k;
-	});
+	if (after.cost <= 0.5 * before.cost) {
+		parameters.forEach((p, k) => {
+			const excludesTyped = p.interval !== null && (p.typed < p.interval.low || p.typed > p.interval.high);
+			if (excludesTyped && (explainedBy === null || ifTyped[k].cost > ifTyped[explainedBy].cost)) explainedBy = k;
+		});
+	}
 
 	let outliers = 0;
 	for (let i = 0; i < pts; i++) if (Math.hypot(lm.residuals[2 * i], lm.residuals[2 * i + 1]) > 3 * request.fScale) outliers++;
@@ -289,7 +296,7 @@ export function fitMeasurement(input: FitInput): FitResult | FitError {
 		loss: request.loss,
 		fScale: request.fScale,
 		parameters,
-		residual: { before: summary(r0), after: summary(lm.residuals) },
+		residual: { before, after },
 		explainedBy,
 		outliers,
 		iterations: lm.iterations,
