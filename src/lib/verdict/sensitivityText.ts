@@ -29,3 +29,12 @@ export function sensitivityTotals(report: SensitivityReport): { label: string; c
 	});
 	return [row('All at their worst (linearised)', report.totals.worst, '−'), row('Root-sum-square', report.totals.rss, '±')];
 }
+
+/** One sentence for people and screen readers: the part that moves PM most, at its tolerance and per +10 %. */
+export function sensitivitySummary(report: SensitivityReport): string | null {
+	const top = report.rows[0];
+	if (!top || top.perTenPercent.phaseMarginDeg === null) return null;
+	const tol = top.atTolerance?.phaseMarginDeg;
+	const atTol = tol === null || tol === undefined ? '' : `${signed(formatDeg(tol), tol)} at its ±${formatPercent(top.tolerance)} tolerance, `;
+	return `${top.label} moves the phase margin most: ${atTol}${signed(formatDeg(top.perTenPercent.phaseMarginDeg), top.perTenPercent.phaseMarginDeg)} per +10 %.`;
+}
