@@ -62,3 +62,23 @@ test('the demo bench file: upload, fit, the parasitic named with its interval, s
 	expect(magnitudes).toEqual([...magnitudes].sort((a, b) => b - a));
 	await page.screenshot({ path: 'test-results/bench-fit-review.png', fullPage: true });
 });
+
+test('the design screen ranks the sensitivities beside the corners once the input settles, in both themes', async ({ page }) => {
+	await page.setViewportSize({ width: 1280, height: 1000 });
+	await page.goto('/try');
+	await expect(page.getByTestId('bode-plot')).toBeVisible({ timeout: 30_000 });
+	await page.getByTestId('tab-corners').click();
+	const panel = page.getByTestId('design-sensitivity');
+	await expect(panel).toHaveAttribute('data-state', 'final', { timeout: 30_000 });
+	await expect(panel.getByTestId('sensitivity-summary')).toContainText('moves the phase margin most');
+	// The same ranked table as the review page: largest phase-margin change first.
+	const rows = panel.getByTestId('sensitivity-table').locator('tbody tr');
+	expect(await rows.count()).toBeGreaterThanOrEqual(6);
+	const first = (await rows.first().locator('th').textContent())!.trim();
+	await expect(panel.getByTestId('sensitivity-summary')).toContainText(first);
+	for (const theme of ['light', 'dark']) {
+		await page.evaluate((t) => (document.documentElement.dataset.theme = t), theme);
+		await panel.scrollIntoViewIfNeeded();
+		await page.screenshot({ path: `test-results/design-sensitivity-${theme}.png`, fullPage: true });
+	}
+});
