@@ -42,13 +42,7 @@ const UNITS: Record<FitParameterName, string> = { l: 'H', dcr: 'Ω', c: 'F', esr
 const CURRENT_LOOP: readonly FitParameterName[] = ['senseGain', 'rampSlope'];
 
 export const parameterLabel = (name: FitParameterName, branch: number | null, branches: number) =>
-	name === 'delay'
-		? 'Loop delay'
-		: name === 'senseGain'
-			? 'Ri (sense gain)'
-			: name === 'rampSlope'
-				? 'Se (ramp slope)'
-				: `${PART_LABELS[name]}${branch !== null && branches > 1 ? ` (branch ${branch + 1})` : ''}`;
+	name === 'delay' ? 'Loop delay' : `${PART_LABELS[name]}${branch !== null && branches > 1 ? ` (branch ${branch + 1})` : ''}`;
 
 export type ResolveResult = { ok: true; parameters: ResolvedParameter[] } | { ok: false; fields: Record<string, string> };
 
@@ -112,7 +106,7 @@ export function resolveParameters(specs: readonly FitParameterSpec[], spec: Loop
 		out.push({
 			name: p.name, branch, label: parameterLabel(p.name, branch, branches), unit: UNITS[p.name], path: documentPath(p.name, branch),
 			typed, kind: 'log', lower: Math.log(range.min), upper: Math.log(range.max), start: 0, boundsFrom,
-			tolerance: (doc.tolerances as Partial<Record<FitParameterName, { tol: number }>> | undefined)?.[p.name]?.tol ?? null
+			tolerance: doc.tolerances?.[p.name]?.tol ?? null
 		});
 	});
 	return Object.keys(fields).length ? { ok: false, fields } : { ok: true, parameters: out };
@@ -151,14 +145,11 @@ export function specAt(spec: LoopSpec, params: readonly ResolvedParameter[], the
 	const n = spec.stage.capacitors.length;
 	const branchFactors = { c: new Array<number>(n).fill(1), esr: new Array<number>(n).fill(1), esl: new Array<number>(n).fill(1) };
 	let delayS = spec.modulator.delayS;
-	const currentMode = spec.modulator.currentMode ? { ...spec.modulator.currentMode } : undefined;
 	params.forEach((p, k) => {
 		if (p.kind === 'delay') delayS = theta[k] / spec.stage.fswHz;
 		else if (p.branch !== null) branchFactors[p.name as 'c' | 'esr' | 'esl'][p.branch] = Math.exp(theta[k]);
-		else if (p.name === 'senseGain' || p.name === 'rampSlope') {
-			if (currentMode) currentMode[p.name] = p.typed * Math.exp(theta[k]);
-		} else factors[p.name as 'l' | 'dcr' | 'vramp'] = Math.exp(theta[k]);
+		else factors[p.name as 'l' | 'dcr' | 'vramp' | 'senseGain' | 'rampSlope'] = Math.exp(theta[k]);
 	});
 	const moved = applyVariation(spec, { ...base, factors, branchFactors });
-	return { ...moved, modulator: { ...moved.modulator, delayS, ...(currentMode ? { currentMode } : {}) } };
+	return { ...moved, modulator: { ...moved.modulator, delayS } };
 }

@@ -12,15 +12,8 @@ import { isDesignInputError } from '../errors';
 import { buildLoop, type LoopSpec } from '../corners/loopModel';
 import { applyVariation, PART_LABELS, partsPresent, type PartName } from '../corners/variation';
 
-/**
- * Peak current mode adds the current loop's two settings: the sense gain Ri and the compensation
- * ramp Se (the ramp amplitude of voltage mode is then unused and left out).
- */
-export const CURRENT_MODE_PARAMETERS = ['senseGain', 'rampSlope'] as const;
-export type CurrentModeParameter = (typeof CURRENT_MODE_PARAMETERS)[number];
-export type SensitivityParameter = PartName | 'delay' | CurrentModeParameter;
-
-const CURRENT_MODE_LABELS: Record<CurrentModeParameter, string> = { senseGain: 'Ri (sense gain)', rampSlope: 'Se (ramp slope)' };
+/** Parts (corners/variation.ts: in peak current mode Ri and Se in place of the ramp) and the loop delay. */
+export type SensitivityParameter = PartName | 'delay';
 
 export interface MetricChanges {
 	/** Degrees of phase margin. */
@@ -72,24 +65,16 @@ function figuresOf(spec: LoopSpec): Figures | null {
 /** The spec with one parameter multiplied by `factor`. */
 export function scaledSpec(spec: LoopSpec, parameter: SensitivityParameter, factor: number): LoopSpec {
 	if (parameter === 'delay') return { ...spec, modulator: { ...spec.modulator, delayS: spec.modulator.delayS * factor } };
-	if (parameter === 'senseGain' || parameter === 'rampSlope') {
-		const cm = spec.modulator.currentMode;
-		if (!cm) return spec;
-		return { ...spec, modulator: { ...spec.modulator, currentMode: { ...cm, [parameter]: cm[parameter] * factor } } };
-	}
 	return applyVariation(spec, { factors: { [parameter]: factor } });
 }
 
 export function sensitivityParameters(spec: LoopSpec): SensitivityParameter[] {
-	const cm = spec.modulator.currentMode;
-	const out: SensitivityParameter[] = partsPresent(spec).filter((p) => !(cm && p === 'vramp'));
-	if (cm) for (const p of CURRENT_MODE_PARAMETERS) if (cm[p] > 0 && !out.includes(p)) out.push(p);
+	const out: SensitivityParameter[] = partsPresent(spec);
 	if (spec.modulator.delayS > 0) out.push('delay');
 	return out;
 }
 
-const labelOf = (parameter: SensitivityParameter) =>
-	parameter === 'delay' ? 'Loop delay' : parameter === 'senseGain' || parameter === 'rampSlope' ? CURRENT_MODE_LABELS[parameter] : PART_LABELS[parameter];
+const labelOf = (parameter: SensitivityParameter) => (parameter === 'delay' ? 'Loop delay' : PART_LABELS[parameter]);
 
 export function sensitivity(spec: LoopSpec, tolerances: Partial<Record<SensitivityParameter, number>> = {}): SensitivityReport {
 	const base = figuresOf(spec);

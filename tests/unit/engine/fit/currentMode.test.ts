@@ -29,7 +29,7 @@ describe('fit on a peak current-mode design, against a switching simulation', ()
 			typed.modulator.senseGain *= 1.4;
 			const r = fit(name, typed, [{ name: 'senseGain' }]);
 			const p = r.parameters[0];
-			expect(p.label).toBe('Ri (sense gain)');
+			expect(p.label).toBe('Ri');
 			expect(p.typed).toBeCloseTo(1.4 * truth.modulator.senseGain, 12);
 			// Within 2 % of the circuit's Ri [published: reference/currentmode switching simulation, 0.26 dB model agreement to fsw/5].
 			expect(Math.abs(p.fitted / truth.modulator.senseGain - 1)).toBeLessThan(0.02);
