@@ -147,6 +147,32 @@ describe('review requests and sign-off', () => {
 		expect(report.diffs).toEqual({ previous: null, approved: null });
 	});
 
+	it('answers the review page its two halves apart: the database record with the caller role, and the drawing', async () => {
+		const rail = await newRail();
+		const r1 = await saveLoop('engineer', rail.id, null);
+		const whole = (await team.as.viewer.get(`/api/v1/loops/${r1.id}/report`)).body;
+		const record = await team.as.viewer.get(`/api/v1/loops/${r1.id}/report?part=record`);
+		expect(record.status).toBe(200);
+		expect(record.body.role).toBe('viewer');
+		expect(record.body.loop).toMatchObject({ id: r1.id, workspaceId: team.workspaceId, revision: 1 });
+		expect(record.body.verification).toEqual(whole.verification);
+		expect(record.body.corners).toEqual(whole.corners);
+		// The record never carries the analysis pool's part.
+		expect(record.body).not.toHaveProperty('plot');
+		expect(record.body).not.toHaveProperty('steps');
+		const drawing = await team.as.viewer.get(`/api/v1/loops/${r1.id}/report?part=drawing`);
+		expect(drawing.status).toBe(200);
+		expect(drawing.body.analysisError).toBeNull();
+		expect(drawing.body.plot.freqHz).toEqual(whole.plot.freqHz);
+		expect(drawing.body.steps.loadStep.figures).toEqual(whole.steps.loadStep.figures);
+		expect(drawing.body).not.toHaveProperty('trail');
+		const bad = await team.as.viewer.get(`/api/v1/loops/${r1.id}/report?part=everything`);
+		expect(bad.status).toBe(400);
+		expect(bad.body.error.fields.part).toBe('part is record or drawing');
+		// Another workspace's caller learns nothing, whatever the part.
+		expect((await team.outsider.get(`/api/v1/loops/${r1.id}/report?part=record`)).status).toBe(404);
+	});
+
 	it('r2 after r1 was sent back is compared with r1 (parameters and verdict), and with the last approved revision once there is one', async () => {
 		const { engineer, reviewer } = team.as;
 		const rail = await newRail();

@@ -238,3 +238,21 @@ export interface HomeData {
 	activity: (HomePlace & { kind: 'revision' | 'review-requested' | 'approved' | 'changes-requested'; at: string; actorName: string | null; reviewerName: string | null; message: string | null })[];
 	limit: number;
 }
+
+/** A server value as it arrives in JSON: dates become ISO strings, undefined members drop out of the type's certainty. */
+type Json<T> = T extends Date ? string : T extends (infer U)[] ? Json<U>[] : T extends object ? { [K in keyof T]: Json<T[K]> } : T;
+
+/** GET /api/v1/loops/{id}/report?part=record: the review page's database part (services/signoff.reviewRecord) with the caller's role. */
+export type ReviewRecord = Json<Awaited<ReturnType<typeof import('$lib/server/services/signoff').reviewRecord>>> & { role: string | null };
+/** GET /api/v1/loops/{id}/report?part=drawing: the stored design drawn again in the analysis pool, or `analysisError`; or the API's refusal of the request in the same shape. */
+export type ReviewDrawing = Json<Awaited<ReturnType<typeof import('$lib/server/services/signoff').reviewDrawing>>> | ReviewDrawingRefused;
+export interface ReviewDrawingRefused {
+	analysisError: { code: string; message: string };
+	plot: null;
+	operatingPoint: null;
+	modulator: null;
+	network: null;
+	closedLoop: null;
+	steps: null;
+	sensitivity: null;
+}

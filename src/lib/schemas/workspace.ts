@@ -91,6 +91,9 @@ export const loopReviewSchema = z
 		if (v.reviewerIds && v.action !== 'request-review') ctx.addIssue({ code: 'custom', path: ['reviewerIds'], message: 'only with request-review' });
 	});
 
+/** GET /api/v1/loops/{id}/report?part=: the database part of the review (`record`), the drawing from the analysis pool (`drawing`), or both (absent). */
+export const reportQuerySchema = z.object({ part: z.enum(['record', 'drawing'], { message: 'part is record or drawing' }).optional() });
+
 export const commentSchema = z.object({
 	body: z.string().trim().min(1, 'write something').max(5000),
 	/** Pins the comment to a frequency on the plot, Hz. */

@@ -86,7 +86,7 @@ export async function reviewRecord(db: Database, loop: Loop) {
 	const v = loop.verification;
 	const doc = loop.design as { corners?: unknown; tolerances?: unknown; spread?: unknown };
 	const common = {
-		loop: { id: loop.id, revision: loop.revision, status: loop.status, message: loop.message, authorId: loop.authorId, authorName: loop.authorName, createdAt: loop.createdAt, templateId: loop.templateId },
+		loop: { id: loop.id, workspaceId: loop.workspaceId, revision: loop.revision, status: loop.status, message: loop.message, authorId: loop.authorId, authorName: loop.authorName, createdAt: loop.createdAt, templateId: loop.templateId },
 		rail: rail ? { id: rail.id, name: rail.name, projectId: rail.projectId, topology: rail.topology, fsw: rail.fsw, vout: rail.vout, verdictFlag: rail.verdictFlag } : null,
 		board,
 		/** The stored verdict without its per-corner list (the corner table below carries the rows that matter). */
