@@ -9,7 +9,8 @@ import { analyzeDesignDetailed, frequencyResponse, logGrid, type AnalysisDetail 
 import { loopSpecFromDetail } from '../../src/lib/engine/corners/loopModel';
 import { servedApp } from './support/app';
 import { buckDesign } from './support/designs';
-import { buildTeam, railBody, testDb, type Team } from './support/fixtures';
+import { boardWithRails } from './support/board';
+import { buildTeam, testDb, type Team } from './support/fixtures';
 
 const app = servedApp();
 const { db, pool } = testDb();
@@ -40,12 +41,10 @@ function measuredCsv(): string {
 
 beforeAll(async () => {
 	team = await buildTeam(app.origin, db);
-	const projectId = (await team.as.owner.post(`/api/v1/projects?workspace=${team.workspaceId}`, { name: 'Fit board' })).body.id;
-	railId = (await team.as.owner.post(`/api/v1/projects/${projectId}/rails`, railBody('FIT_A'))).body.id;
-	otherRailId = (await team.as.owner.post(`/api/v1/projects/${projectId}/rails`, railBody('FIT_B'))).body.id;
-	const saved = await team.as.engineer.post(`/api/v1/rails/${railId}/loops`, { baseRevision: null, design: buckDesign(), message: 'first cut' });
-	expect(saved.status, JSON.stringify(saved.body)).toBe(201);
-	loopId = saved.body.id;
+	const board = await boardWithRails(team, 'Fit board', { FIT_A: [{ message: 'first cut' }], FIT_B: [] });
+	railId = board.railIds.FIT_A;
+	otherRailId = board.railIds.FIT_B;
+	loopId = board.saved.FIT_A[0].id;
 	const csv = measuredCsv();
 	const up = await team.as.engineer.post(`/api/v1/rails/${railId}/bench`, { fileName: 'board-a.csv', text: csv, metadata: { vin: 12, iout: 2 } });
 	expect(up.status, JSON.stringify(up.body)).toBe(201);

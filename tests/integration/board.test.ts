@@ -9,34 +9,21 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { loopRevision } from '../../src/lib/server/db/schema';
 import { servedApp } from './support/app';
 import { Client } from './support/client';
-import { buckDesign } from './support/designs';
-import { buildTeam, railBody, testDb, type Team } from './support/fixtures';
+import { boardWithRails, type SeededBoard } from './support/board';
+import { buildTeam, testDb, type Team } from './support/fixtures';
 
 const app = servedApp();
 const { db, pool } = testDb();
 let team: Team;
 let projectId: string;
-const railIds: Record<string, string> = {};
-const saved: Record<string, { id: string; revision: number }[]> = {};
+let railIds: SeededBoard['railIds'];
+let saved: SeededBoard['saved'];
 
 beforeAll(async () => {
 	team = await buildTeam(app.origin, db);
-	projectId = (await team.as.owner.post(`/api/v1/projects?workspace=${team.workspaceId}`, { name: 'Board in one request' })).body.id;
-	for (const name of ['B_TWO', 'A_ONE', 'C_NONE']) {
-		const reply = await team.as.engineer.post(`/api/v1/projects/${projectId}/rails`, railBody(name));
-		expect(reply.status).toBe(201);
-		railIds[name] = reply.body.id;
-		saved[name] = [];
-	}
-	const save = async (name: string, crossoverHz: number) => {
-		const base = saved[name].length || null;
-		const reply = await team.as.engineer.post(`/api/v1/rails/${railIds[name]}/loops`, { baseRevision: base, design: buckDesign({ crossoverHz }), message: `fc ${crossoverHz}` });
-		expect(reply.status, JSON.stringify(reply.body)).toBe(201);
-		saved[name].push(reply.body);
-	};
-	await save('B_TWO', 20e3);
-	await save('B_TWO', 45e3);
-	await save('A_ONE', 30e3);
+	// B_TWO has two revisions, A_ONE one, C_NONE none.
+	const board = await boardWithRails(team, 'Board in one request', { B_TWO: [{ crossoverHz: 20e3 }, { crossoverHz: 45e3 }], A_ONE: [{ crossoverHz: 30e3 }], C_NONE: [] });
+	({ projectId, railIds, saved } = board);
 });
 afterAll(async () => {
 	await pool.end();

@@ -10,8 +10,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { ROLES, can } from '../../src/lib/authz';
 import { servedApp } from './support/app';
 import { Client } from './support/client';
-import { buckDesign } from './support/designs';
-import { buildTeam, railBody, testDb, type Team } from './support/fixtures';
+import { boardWithRails, type SeededBoard } from './support/board';
+import { buildTeam, testDb, type Team } from './support/fixtures';
 
 const app = servedApp();
 const { pool, db } = testDb();
@@ -19,18 +19,15 @@ let team: Team;
 let projectId: string;
 let railId: string;
 let emptyRailId: string;
-const saved: { id: string; revision: number }[] = [];
+let saved: SeededBoard['saved'][string];
 
 beforeAll(async () => {
 	team = await buildTeam(app.origin, db);
-	projectId = (await team.as.owner.post(`/api/v1/projects?workspace=${team.workspaceId}`, { name: 'Screen board' })).body.id;
-	railId = (await team.as.engineer.post(`/api/v1/projects/${projectId}/rails`, railBody('SCREEN_RAIL'))).body.id;
-	emptyRailId = (await team.as.engineer.post(`/api/v1/projects/${projectId}/rails`, railBody('EMPTY_RAIL'))).body.id;
-	for (const crossoverHz of [20e3, 35e3]) {
-		const reply = await team.as.engineer.post(`/api/v1/rails/${railId}/loops`, { baseRevision: saved.at(-1)?.revision ?? null, design: buckDesign({ crossoverHz }), message: `fc ${crossoverHz}` });
-		expect(reply.status, JSON.stringify(reply.body)).toBe(201);
-		saved.push(reply.body);
-	}
+	const board = await boardWithRails(team, 'Screen board', { SCREEN_RAIL: [{ crossoverHz: 20e3 }, { crossoverHz: 35e3 }], EMPTY_RAIL: [] });
+	({ projectId } = board);
+	railId = board.railIds.SCREEN_RAIL;
+	emptyRailId = board.railIds.EMPTY_RAIL;
+	saved = board.saved.SCREEN_RAIL;
 	const asked = await team.as.engineer.post(`/api/v1/loops/${saved[1].id}/review`, { action: 'request-review', reviewerIds: [team.as.reviewer.userId] });
 	expect(asked.status, JSON.stringify(asked.body)).toBe(200);
 	const bench = await team.as.engineer.post(`/api/v1/rails/${railId}/bench`, {
