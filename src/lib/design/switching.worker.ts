@@ -1,8 +1,9 @@
 /**
  * Switching-check worker: the switching model of one design (engine switching/, through
- * switchingCheckOfDesign), with a progress message after each measured frequency.
+ * switchingCheckOfDesign), with a progress message after each measured frequency, then the load
+ * step on the switched circuit beside the averaged one.
  */
-import { switchingCheckOfDesign } from '$lib/engine/pipeline/switchingCircuit';
+import { switchingCheckOfDesign, switchingLoadStepOfDesign } from '$lib/engine/pipeline/switchingCircuit';
 import type { FromWorker, ToWorker } from './switchingProtocol';
 
 // Typed by hand: the project's TypeScript lib is the DOM's, not the worker's.
@@ -15,7 +16,12 @@ ctx.onmessage = (e: MessageEvent<ToWorker>) => {
 	try {
 		const r = switchingCheckOfDesign(document, { onProgress: (done, total) => post({ type: 'progress', runId, done, total }) });
 		if ('error' in r) post({ type: 'error', runId, message: r.error.message });
-		else post({ type: 'result', runId, result: r, elapsedMs: performance.now() - t0 });
+		else {
+			post({ type: 'result', runId, result: r, elapsedMs: performance.now() - t0 });
+			// The load step after the result, so the margins show first.
+			const step = switchingLoadStepOfDesign(document);
+			post({ type: 'step', runId, step: 'error' in step ? { reason: step.error.message } : step });
+		}
 	} catch (err) {
 		post({ type: 'error', runId, message: err instanceof Error ? err.message : String(err) });
 	}

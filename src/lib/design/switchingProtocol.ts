@@ -5,10 +5,13 @@
  * points of its own, and a fresh worker costs a few milliseconds).
  */
 import type { SwitchingCheckResult } from '$lib/engine/switching/check';
+import type { SwitchingStepComparison } from '$lib/engine/pipeline/switchingCircuit';
 
 export type ToWorker = { type: 'start'; runId: number; document: unknown };
 
 export type FromWorker =
 	| { type: 'progress'; runId: number; done: number; total: number }
 	| { type: 'result'; runId: number; result: SwitchingCheckResult; elapsedMs: number }
-	| { type: 'error'; runId: number; message: string };
+	| { type: 'error'; runId: number; message: string }
+	/** After the result: the load step on the switched circuit beside the averaged one, or why there is none. */
+	| { type: 'step'; runId: number; step: SwitchingStepComparison | { reason: string } };

@@ -8,6 +8,7 @@ import type { ContractError } from '../contract/errors';
 import type { SwitchingCircuitInput } from '../switching/circuit';
 import { switchingCheck, type SwitchingCheckInput, type SwitchingCheckOptions, type SwitchingCheckResult } from '../switching/check';
 import type { NetworkParts } from '../synthesis/networks';
+import { switchingLoadStep, type SwitchingLoadStep } from '../switching/loadStep';
 import { rampAmplitude } from '../plants/modulator';
 import { modulatorInputOf, stageInputOf } from './documentModel';
 import { outputNetwork } from '../plants/capacitorBank';
@@ -65,6 +66,40 @@ export function switchingCheckOfDesign(doc: unknown, options: SwitchingCheckOpti
 	const detail = analyzeDesignDetailed(doc, { includeResponse: false, closedLoop: false, sections: false });
 	if ('error' in detail) return detail;
 	return switchingCheck(switchingCheckInputOf(detail), options);
+}
+
+/** The load step on the switching model beside the averaged one, for the same step and duration. */
+export interface SwitchingStepComparison {
+	/** The averaged model's deviation (closed loop, −Zo,cl·ΔI with the document's edge), decimated. */
+	averaged: { timeS: number[]; value: number[]; riseTimeS: number };
+	/** The switched circuit's deviation at every clock edge, or why there is none. */
+	switching: SwitchingLoadStep | { reason: string };
+	/** True when the switched run stopped at MAX_SWITCHED_STEP_PERIODS before the averaged duration. */
+	truncated: boolean;
+}
+
+/** The switched run of a step covers at most this many periods (about a second of CPU). */
+export const MAX_SWITCHED_STEP_PERIODS = 1000;
+
+/**
+ * The document's load step (loadStep.step, default half the load; the averaged duration) on the
+ * averaged model and on the switched circuit, started from its periodic steady state.
+ */
+export function switchingLoadStepOfDesign(doc: unknown): SwitchingStepComparison | ContractError | { reason: string } {
+	const detail = analyzeDesignDetailed(doc, { includeResponse: false, closedLoop: true, sections: false });
+	if ('error' in detail) return detail;
+	const ls = detail.response.closedLoop?.loadStep;
+	if (!ls) return { reason: 'The averaged model has no load step for this design (an unstable closed loop has none).' };
+	const input = switchingCheckInputOf(detail);
+	const reach = input.outsideReach ?? (input.delayS > 0 ? 'The loop delay is not in the switching model.' : null);
+	const periods = Math.ceil(ls.durationS * input.circuit.fswHz);
+	const truncated = periods > MAX_SWITCHED_STEP_PERIODS;
+	const durationS = Math.min(ls.durationS, MAX_SWITCHED_STEP_PERIODS / input.circuit.fswHz);
+	return {
+		averaged: { timeS: ls.waveform.timeS, value: ls.waveform.value, riseTimeS: ls.riseTimeS },
+		switching: reach ? { reason: reach } : switchingLoadStep(input, ls.step, durationS),
+		truncated
+	};
 }
 
 /** Designs the synchronous-CCM switching model does not cover. */

@@ -140,7 +140,14 @@ export function switchingCheck(input: SwitchingCheckInput, options: SwitchingChe
 	const c = input.circuit;
 	if (input.outsideReach) return notRun(input, input.outsideReach);
 	if (input.delayS > 0) return notRun(input, `The loop delay (${formatEng(input.delayS, 's')}) is not in the switching model.`);
-	const { orbit, prop } = orbitOf(input);
+	let found: ReturnType<typeof orbitOf>;
+	try {
+		found = orbitOf(input);
+	} catch (error) {
+		// A singular Newton step or an eigenvalue iteration that does not settle: said, never thrown.
+		return notRun(input, `The switching model could not be solved for this design (${error instanceof Error ? error.message : String(error)}).`);
+	}
+	const { orbit, prop } = found;
 	if (!orbit.converged) return notRun(input, 'The switching model found no periodic steady state (the shooting did not converge).');
 	// A fixed point with the switch off (or on) for whole periods is no regulating orbit: the shooting
 	// left the region where the comparator trips (a control gain far outside practice, e.g. a tiny Ri).

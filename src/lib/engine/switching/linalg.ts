@@ -86,3 +86,10 @@ export function luSolve({ n, lu, pivot }: Lu, b: Float64Array): Float64Array {
 	}
 	return x;
 }
+
+/** aᵀ·x over the length of a. */
+export function dot(a: Float64Array, x: Float64Array): number {
+	let s = 0;
+	for (let i = 0; i < a.length; i++) s += a[i] * x[i];
+	return s;
+}
