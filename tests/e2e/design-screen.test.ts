@@ -22,6 +22,48 @@ test('the sandbox shows the plot, the verdict and the parts', async ({ page }) =
 	await page.screenshot({ path: 'test-results/design-dark.png', fullPage: true });
 });
 
+/** The canvas layer of the thin traces: how many it draws, and its drawn pixels (count, a checksum of where, mean colour). */
+async function faintLayer(page: Page, layer: 'loop' | 'plant') {
+	return page.locator(`[data-testid="design-screen"] [data-testid="faint-traces"][data-layer="${layer}"]`).evaluate((el) => {
+		const c = el as HTMLCanvasElement;
+		const px = c.getContext('2d')!.getImageData(0, 0, c.width, c.height).data;
+		let n = 0;
+		let hash = 0;
+		const sum = [0, 0, 0];
+		for (let i = 0; i < px.length; i += 4) {
+			if (px[i + 3] === 0) continue;
+			n++;
+			hash = (hash + px[i + 3] * ((i >> 2) % 9973)) % 1e9;
+			for (let k = 0; k < 3; k++) sum[k] += px[i + k];
+		}
+		return { count: Number(c.dataset.count), painted: n, hash, rgb: sum.map((v) => (n ? v / n : 0)), cssWidth: c.getBoundingClientRect().width, width: c.width };
+	});
+}
+
+test('the operating cases are drawn thin on the canvas layers, in the theme’s colours, and follow a keystroke', async ({ page }) => {
+	await openSandbox(page);
+	// 3 Vin × 3 Iout cases [the demo's corner set]: 8 besides the nominal, loop and plant.
+	const loop = await faintLayer(page, 'loop');
+	const plant = await faintLayer(page, 'plant');
+	expect(loop.count).toBe(8);
+	expect(plant.count).toBe(8);
+	expect(loop.painted).toBeGreaterThan(2000);
+	expect(plant.painted).toBeGreaterThan(2000);
+	expect(loop.width).toBe(Math.round(loop.cssWidth));
+	// The nominal stays an SVG path; the other cases are not paths any more.
+	await expect(page.locator('[data-testid="mag-panel"] path[data-kind="loop"]')).toHaveCount(1);
+	await page.getByTestId('field-l').fill('2.2u');
+	await expect(page.getByTestId('note-l')).toContainText('2.2 µH');
+	await expect.poll(async () => (await faintLayer(page, 'loop')).hash).not.toBe(loop.hash);
+	// The dark theme redraws in its own, lighter colours.
+	const light = await faintLayer(page, 'loop');
+	await page.getByTestId('theme-toggle').click();
+	await expect.poll(async () => {
+		const dark = await faintLayer(page, 'loop');
+		return dark.rgb.reduce((a, b) => a + b) > light.rgb.reduce((a, b) => a + b) + 60;
+	}).toBe(true);
+});
+
 test('typing a value in engineering notation updates the plot and the verdict', async ({ page }) => {
 	await openSandbox(page);
 	const chipBefore = await page.getByTestId('fc-chip').textContent();
@@ -95,7 +137,7 @@ test('dragging a zero moves the loop, and release hands it to the full analysis'
 test('one drag frame: recompute of 9 corners × 400 points plus redraw (printed, not asserted)', async ({ page }) => {
 	await openSandbox(page);
 	const shape = await page.evaluate(() => ({
-		corners: document.querySelectorAll('path[data-kind="loop"][data-quantity="mag"]').length,
+		corners: 1 + Number(document.querySelector('[data-testid="faint-traces"][data-layer="loop"]')?.getAttribute('data-count') ?? 0),
 		points: (document.querySelector('path[data-trace="loop:vin-nom_iout-nom"][data-quantity="mag"]')?.getAttribute('d')?.match(/[ML]/g) ?? []).length
 	}));
 	await page.evaluate(() => ((window as unknown as { __loopwrightFrames: unknown[] }).__loopwrightFrames.length = 0));

@@ -13,12 +13,15 @@ export interface TraceStyle {
 	phaseClass: string;
 	/** SVG stroke-dasharray; '' = solid. */
 	dash: string;
+	/** The palette's custom property of the same colours, for the canvas (src/app.css). */
+	magColour: string;
+	phaseColour: string;
 }
 
 export const TRACE_STYLE: Record<TraceKind, TraceStyle> = {
-	loop: { label: 'Loop gain T', magClass: 'stroke-mag', phaseClass: 'stroke-phase', dash: '' },
-	plant: { label: plantTraceLabel('voltage'), magClass: 'stroke-mag', phaseClass: 'stroke-phase', dash: '7 4' },
-	compensator: { label: 'Network Gc', magClass: 'stroke-comp', phaseClass: 'stroke-comp', dash: '10 3 2 3' }
+	loop: { label: 'Loop gain T', magClass: 'stroke-mag', phaseClass: 'stroke-phase', dash: '', magColour: '--lw-mag', phaseColour: '--lw-phase' },
+	plant: { label: plantTraceLabel('voltage'), magClass: 'stroke-mag', phaseClass: 'stroke-phase', dash: '7 4', magColour: '--lw-mag', phaseColour: '--lw-phase' },
+	compensator: { label: 'Network Gc', magClass: 'stroke-comp', phaseClass: 'stroke-comp', dash: '10 3 2 3', magColour: '--lw-comp', phaseColour: '--lw-comp' }
 };
 
 /** A kind's name for people; the plant's follows the control method (`long`: with its input and output in words). */
