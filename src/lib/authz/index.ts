@@ -42,6 +42,38 @@ export const ACTIONS = [
 ] as const;
 export type Action = (typeof ACTIONS)[number];
 
+/** Each action in the words an error message or a hint uses ("may not approve a loop"). */
+export const ACTION_WORDS: Readonly<Record<Action, string>> = {
+	'workspace.read': 'open this workspace',
+	'workspace.update': 'change the workspace settings',
+	'workspace.delete': 'delete the workspace',
+	'member.read': 'see the members',
+	'member.invite': 'invite members',
+	'member.updateRole': "change members' roles",
+	'member.remove': 'remove members',
+	'project.read': 'open boards',
+	'project.create': 'add boards',
+	'project.update': 'edit boards',
+	'project.delete': 'delete boards',
+	'rail.read': 'open rails',
+	'rail.create': 'add rails',
+	'rail.update': 'edit rails',
+	'rail.delete': 'delete rails',
+	'loop.read': 'open loop revisions',
+	'loop.save': 'save loop revisions',
+	'loop.requestReview': 'ask for a review',
+	'loop.approve': 'approve a loop',
+	'loop.requestChanges': 'send a loop back for changes',
+	'loop.comment': 'comment on a loop',
+	'template.read': 'see templates',
+	'template.create': 'save templates',
+	'template.update': 'edit templates',
+	'template.delete': 'delete templates',
+	'bench.upload': 'upload bench data',
+	'audit.read': 'read the audit log',
+	'token.manage': 'manage API tokens and the workspace administration'
+};
+
 const READ: Action[] = ACTIONS.filter((a) => a.endsWith('.read'));
 
 /** Design work: everything an engineer edits (projects, rails, loops, templates, bench data). */

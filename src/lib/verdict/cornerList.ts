@@ -5,10 +5,30 @@
  * The design screen, the stored verdict and the PDF print this text.
  */
 
-/** "Vin nom, Iout nom" of a corner label (its first two parts); the whole label when it has fewer. */
+/** The leading words of a corner label that name its operating point: Vin, Iout and temperature. */
+const OPERATING_WORD = /^(Vin|Iout|T) /;
+
+/** Splits a corner label into its operating point ("Vin max, Iout min, T hot") and its part tolerances ("L −20 %", …). */
+export function splitCornerLabel(label: string): { operating: string; parts: string[] } {
+	const words = label.split(', ');
+	let n = 0;
+	while (n < words.length && OPERATING_WORD.test(words[n])) n++;
+	if (n === 0) return { operating: label, parts: [] };
+	return { operating: words.slice(0, n).join(', '), parts: words.slice(n) };
+}
+
+/** "Vin nom, Iout nom" of a corner label (with T when the corner names one); the whole label when it names no operating point. */
 export function operatingPointOf(label: string): string {
-	const parts = label.split(', ');
-	return parts.length > 2 ? parts.slice(0, 2).join(', ') : label;
+	return splitCornerLabel(label).operating;
+}
+
+/**
+ * A verdict row's reason for a table that already shows the row's corner beside it: the corner's
+ * words, which can run to a dozen part tolerances, are replaced by "the corner shown".
+ */
+export function reasonBesideCorner(reason: string, corner: string | null): string {
+	if (!corner || corner.length < 12) return reason;
+	return reason.split(corner).join('the corner shown');
 }
 
 export function cornerListText(labels: readonly string[], options: { total?: number; maxGroups?: number } = {}): string {
@@ -29,4 +49,10 @@ export function cornerListText(labels: readonly string[], options: { total?: num
 	const shown = phrases.slice(0, maxGroups);
 	const rest = phrases.length - shown.length;
 	return shown.join('; ') + (rest > 0 ? `; and ${rest} more operating point${rest === 1 ? '' : 's'}` : '');
+}
+
+/** The sentence that follows a warning's own message: "At Vin min, Iout min (28 tolerance cases)." ('' when no corner is named). */
+export function warningWhereText(corners: readonly string[], total?: number): string {
+	const list = cornerListText(corners, { total });
+	return list ? `At ${list}.` : '';
 }

@@ -89,13 +89,13 @@ export function loopWarnings(loop: LoopCheck, target: { crossoverHz?: number; ph
 	if (target?.phaseMarginDeg !== undefined && loop.phaseMarginDeg < target.phaseMarginDeg - 1) {
 		out.push({
 			code: 'pm-below-target',
-			message: `Achieved phase margin ${deg(loop.phaseMarginDeg)} at ${fmtHz(loop.crossoverHz)} is below the target ${deg(target.phaseMarginDeg)}.`
+			message: `Achieved phase margin ${deg(loop.phaseMarginDeg)} at ${fmtHz(loop.crossoverHz)} is below the ${deg(target.phaseMarginDeg)} the network was placed for (rounded parts or a placement limit).`
 		});
 	}
 	if (target?.crossoverHz !== undefined && Math.abs(Math.log(loop.crossoverHz / target.crossoverHz)) > Math.log(1.1)) {
 		out.push({
 			code: 'crossover-off-target',
-			message: `Achieved crossover ${fmtHz(loop.crossoverHz)} is more than 10% away from the target ${fmtHz(target.crossoverHz)}.`
+			message: `Achieved crossover ${fmtHz(loop.crossoverHz)} is more than 10 % away from the ${fmtHz(target.crossoverHz)} the network was placed for.`
 		});
 	}
 	return out;

@@ -19,7 +19,7 @@ import { PALETTES } from './theme';
 import { formatDateTime } from '../../text/dates';
 import { loopStatusText } from '../../text/status';
 import { modulatorText } from '../../text/controlMode';
-import { cornerListText } from '../../verdict/cornerList';
+import { warningWhereText } from '../../verdict/cornerList';
 import { SENSITIVITY_HEADER, sensitivityCells, sensitivityTotals } from '../../verdict/sensitivityText';
 import type { SensitivityReport } from '../../engine/sensitivity';
 import { ENGINE_VERSION } from '../../engine/version';
@@ -235,7 +235,7 @@ export function buildSignoffPdf(input: SignoffReportInput, options: PdfOptions =
 
 	// Every warning the engine raised, at any corner.
 	heading(doc, 'Engine warnings');
-	const warnings = v ? v.warnings.map((wn) => `${wn.message}${wn.corners.length ? ` (at ${cornerListText(wn.corners, { total: v.corners.count })})` : ''}`) : input.response.warnings.map((wn) => wn.message);
+	const warnings = v ? v.warnings.map((wn) => `${wn.message} ${warningWhereText(wn.corners, v.corners.count)}`.trim()) : input.response.warnings.map((wn) => wn.message);
 	if (warnings.length) for (const text of warnings) doc.fontSize(8.5).fillColor(INK).text(useFontFor(doc, 'mono', `- ${text}`), { width: w });
 	else doc.font('Helvetica').fontSize(9).fillColor(MUTED).text('None at any corner.');
 	doc.moveDown(0.6);

@@ -2,6 +2,7 @@
 // route handlers throw ApiError; the `endpoint()` wrapper turns it into the response.
 import { json } from '@sveltejs/kit';
 import type { z } from 'zod';
+import { ACTION_WORDS, type Action } from '../../authz';
 import { zodFields as engineZodFields } from '../../engine/contract/errors';
 
 export type FieldErrors = Record<string, string>;
@@ -20,8 +21,9 @@ export class ApiError extends Error {
 }
 
 export const unauthorized = () => new ApiError(401, 'unauthorized', 'sign in or send an API token');
-export const forbidden = (action: string) =>
-	new ApiError(403, 'forbidden', `your role in this workspace may not ${action}`);
+/** 403 in words ("may not approve a loop"), with the action's code kept for API clients. */
+export const forbidden = (action: Action) =>
+	new ApiError(403, 'forbidden', `your role in this workspace may not ${ACTION_WORDS[action]}`, undefined, { action });
 export const notFound = (what = 'resource') => new ApiError(404, 'not-found', `${what} not found`);
 
 /** Flattens zod issues to `{ "plant.inductor.l": "message" }`, first message per path: the engine's one helper, "(body)" for a whole-body rule. */
