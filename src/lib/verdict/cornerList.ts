@@ -56,3 +56,17 @@ export function warningWhereText(corners: readonly string[], total?: number): st
 	const list = cornerListText(corners, { total });
 	return list ? `At ${list}.` : '';
 }
+
+/** "Vin max, Iout min with 12 part tolerances": a corner's name short enough for a sentence on screen. */
+export function shortCornerText(label: string): string {
+	const { operating, parts } = splitCornerLabel(label);
+	if (parts.length <= 1) return label;
+	return `${operating} with ${parts.length} part tolerances`;
+}
+
+/** A sentence (a verdict summary) with each named corner shortened; the stored text keeps the full names. */
+export function withShortCorners(text: string, corners: readonly (string | null)[]): string {
+	let out = text;
+	for (const c of new Set(corners)) if (c && c.length >= 12) out = out.split(c).join(shortCornerText(c));
+	return out;
+}

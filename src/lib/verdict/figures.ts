@@ -7,6 +7,7 @@
 import type { Verification, VerdictRow, VerdictStatus } from '../engine/verify/types';
 import { verdictValueText } from '../engine/verify/text';
 import { formatEng } from '../units/format';
+import { withShortCorners } from './cornerList';
 
 export interface VerdictFigures {
 	status: VerdictStatus;
@@ -48,7 +49,8 @@ export function verdictFigures(v: VerdictHeadline): VerdictFigures {
 	};
 	return {
 		status: v.status,
-		summary: v.summary,
+		// On screen the summary names its corner briefly; the full names are in the rows below it.
+		summary: withShortCorners(v.summary, v.rows.map((r) => r.corner)),
 		pm: text('pm'),
 		pmCorner: w.phaseMarginDeg?.corner ?? null,
 		gm: text('gm'),

@@ -51,6 +51,14 @@ describe('railHealth', () => {
 		expect(h.summary).toBe(v.summary);
 	});
 
+	it('names a corner with many part tolerances briefly in the summary; the rows keep its full name', () => {
+		const corner = 'Vin max, Iout min, L −20 %, DCR −10 %, C −30 %, ESR +50 %';
+		const v = stored({ summary: `Worst PM 41.9° at ${corner} is below the 50.0° target.`, rows: [{ metric: 'pm', status: 'fail', value: 41.9, target: '≥ 50°', corner, reason: 'r' }] });
+		const h = railHealth(loop(v));
+		expect(h.summary).toBe('Worst PM 41.9° at Vin max, Iout min with 4 part tolerances is below the 50.0° target.');
+		expect(v.rows[0].corner).toBe(corner);
+	});
+
 	it('never re-judges: a stored pass stays pass even with a PM that today’s default would fail', () => {
 		const v = stored({ status: 'pass', summary: 'meets every target', rows: [{ metric: 'pm', status: 'pass', value: 31, target: '≥ 30°', corner: 'nominal', reason: 'ok' }], worst: { ...stored().worst, phaseMarginDeg: { value: 31, corner: 'nominal' } } });
 		const h = railHealth(loop(v));

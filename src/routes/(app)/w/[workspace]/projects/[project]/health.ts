@@ -52,7 +52,7 @@ export function railHealth(loop: BoardLoop | null): RailHealth {
 		gm: judged(row('gm'), v.worst.gainMarginDb?.value ?? null, f.gm, f.gmCorner),
 		yield: judged(row('yield'), v.spread?.yield ?? null, f.yield, null),
 		overall: v.status,
-		summary: v.summary,
+		summary: f.summary,
 		figures: f
 	};
 }
