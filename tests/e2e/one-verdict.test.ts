@@ -26,7 +26,7 @@ test('the worst PM, GM, fc, yield and verdict of a saved revision read the same 
 	await expect(page.getByTestId('fc-chip')).toBeVisible();
 	await page.getByLabel('What changed').fill('First cut');
 	await page.getByTestId('save-button').click();
-	await expect(page.getByTestId('save-note')).toContainText('Saved as r1');
+	await expect(page.getByTestId('save-note')).toContainText('Saved as r1', { timeout: 30_000 });
 	// The live verdict of the document the screen saved (verifyDesign in the browser), once final.
 	const panel = page.locator('[data-testid="verdict"][data-state="final"]');
 	await expect(panel).toBeVisible({ timeout: 60_000 });
@@ -85,4 +85,17 @@ test('the worst PM, GM, fc, yield and verdict of a saved revision read the same 
 	expect(text).toContain(verdictLine({ ...verdictFigures(stored), ...design }));
 	expect(text).toContain(`Worst case over ${stored.corners.count} corners: PM ${api.pm} · GM ${api.gm} · fc ${api.fc} · yield ${api.yield} · ${api.status}`);
 	expect(text).toContain('Small-signal estimate; confirm margins and transients on hardware');
+
+	// Reopening the rail shows the saved network, not a re-placement: same parts, same verdict.
+	await page.goto(`/w/${owner.workspaceId}/projects/${project.id}/rails/${rail.id}`);
+	const reopened = page.locator('[data-testid="verdict"][data-state="final"]');
+	await expect(reopened).toBeVisible({ timeout: 60_000 });
+	const again: Shown = {
+		pm: (await reopened.getByTestId('verdict-pm-value').textContent())!.trim(),
+		gm: (await reopened.getByTestId('verdict-gm-value').textContent())!.trim(),
+		fc: (await reopened.getByTestId('verdict-fc-value').textContent())!.trim(),
+		yield: (await reopened.getByTestId('verdict-yield-value').textContent())!.trim(),
+		status: (await reopened.getAttribute('data-status')) as Shown['status']
+	};
+	expect(again).toEqual(api);
 });

@@ -662,6 +662,8 @@ export function formFromDocument(doc: DocLike, rail: RailSummary | null, gmTarge
 	const parts = Object.fromEntries(PART_NAMES.map((k) => [k, f(c.parts?.[k], PART_FIELDS[k].unit)])) as Record<PartName, string>;
 	const n = KIND_CORNERS[c.kind];
 	const pad = (list: number[] | undefined) => Array.from({ length: Math.max(n, 2) }, (_, i) => (list?.[i] !== undefined ? toField(list[i], 'Hz') : ''));
+	const placedPm = t?.phaseMarginDeg;
+	const pmTarget = doc.targets?.phaseMarginDeg ?? placedPm ?? rail?.effectiveMarginTargets?.phaseMarginDeg ?? 50;
 	return {
 		name: doc.name ?? rail?.name ?? '',
 		topology: p.topology,
@@ -691,7 +693,10 @@ export function formFromDocument(doc: DocLike, rail: RailSummary | null, gmTarge
 		vref: f(doc.feedback.vref, 'V'),
 		r1: f(doc.feedback.r1, 'Ω'),
 		fcTarget: f(t?.crossoverHz ?? p.fsw / 10, 'Hz'),
-		pmTarget: String(doc.targets?.phaseMarginDeg ?? t?.phaseMarginDeg ?? rail?.effectiveMarginTargets?.phaseMarginDeg ?? 50),
+		pmTarget: String(pmTarget),
+		// The saved placement may have aimed above the verdict's target (the starter's headroom):
+		// keep that aim, or reopening a revision would re-place a different network.
+		pmHeadroomDeg: placedPm !== undefined && (t?.method === 'k-factor' || t?.method === 'features') ? placedPm - pmTarget : undefined,
 		gmTarget: String(doc.targets?.gainMarginDb ?? rail?.effectiveMarginTargets?.gainMarginDb ?? gmTarget),
 		maxCrossoverFraction: doc.targets?.maxCrossoverFraction ?? rail?.effectiveMarginTargets?.maxCrossoverFraction ?? DEFAULT_MARGIN_TARGETS.maxCrossoverFraction,
 		tolerances: toleranceRowsFromDocument(doc.tolerances),

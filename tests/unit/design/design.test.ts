@@ -153,3 +153,22 @@ describe('capacitor derating fields', () => {
 		expect(bad.errors['capacitors.0.biasC']).toMatch(/capacitance at that voltage/);
 	});
 });
+
+describe('reopening a saved revision', () => {
+	// A revision saved with a placement aimed above the verdict's PM target (the starter adds
+	// headroom for the tolerance corners) must reopen as the same network: the form keeps the aim.
+	it('keeps the placement PM when it differs from the verdict target, so the same parts come back', async () => {
+		const { formFromDocument } = await import('$lib/design/form');
+		type Doc = { compensator: Record<string, unknown> & { target?: unknown }; targets?: unknown };
+		const saved = readForm(demoForm()).document as unknown as Doc;
+		const doc: Doc = { ...saved, targets: { phaseMarginDeg: 50, gainMarginDb: 8 }, compensator: { ...saved.compensator, target: { method: 'k-factor', crossoverHz: 30e3, phaseMarginDeg: 60 } } };
+		const reopened = readForm(formFromDocument(doc as never, null));
+		expect(reopened.errors).toEqual({});
+		const back = reopened.document as unknown as Doc;
+		expect(back.compensator.target).toMatchObject({ method: 'k-factor', crossoverHz: 30e3, phaseMarginDeg: 60 });
+		expect(back.targets).toMatchObject({ phaseMarginDeg: 50 });
+		// A document without separate verdict targets places for what it says.
+		const plain = { ...doc, targets: undefined };
+		expect((readForm(formFromDocument(plain as never, null)).document as unknown as Doc).compensator.target).toMatchObject({ phaseMarginDeg: 60 });
+	});
+});
