@@ -65,6 +65,7 @@ export const ACTION_WORDS: Readonly<Record<Action, string>> = {
 	'loop.approve': 'approve a loop',
 	'loop.requestChanges': 'send a loop back for changes',
 	'loop.comment': 'comment on a loop',
+	'loop.check': 'run a switching check on a revision',
 	'template.read': 'see templates',
 	'template.create': 'save templates',
 	'template.update': 'edit templates',
