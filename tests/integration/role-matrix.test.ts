@@ -178,6 +178,9 @@ const cases: RouteCase[] = [
 	},
 	{ method: 'GET', route: '/api/v1/loops/[id]/review', action: 'loop.read', prepare: async () => ({ path: `/api/v1/loops/${loopId}/review` }) },
 	{ method: 'GET', route: '/api/v1/loops/[id]/report', action: 'loop.read', prepare: async () => ({ path: `/api/v1/loops/${loopId}/report` }) },
+	{ method: 'GET', route: '/api/v1/loops/[id]/switching-check', action: 'loop.read', prepare: async () => ({ path: `/api/v1/loops/${loopId}/switching-check` }) },
+	// One frequency (fsw/10 of the 500 kHz test buck) keeps the run short; repeats are answered from storage.
+	{ method: 'POST', route: '/api/v1/loops/[id]/switching-check', action: 'loop.check', prepare: async () => ({ path: `/api/v1/loops/${loopId}/switching-check`, body: { freqHz: [50_000] } }) },
 	{ method: 'GET', route: '/api/v1/loops/[id]/exports/[format]', action: 'loop.read', prepare: async () => ({ path: `/api/v1/loops/${loopId}/exports/json` }) },
 	{ method: 'POST', route: '/api/v1/loops/[id]/template', action: 'template.create', prepare: async () => ({ path: `/api/v1/loops/${loopId}/template`, body: { name: unique('from-loop') } }) },
 	{ method: 'GET', route: '/api/v1/reviews', action: 'loop.read', prepare: async () => ({ path: `/api/v1/reviews?workspace=${ws()}` }) },
