@@ -5,7 +5,9 @@
 // interaction beside its budget and the ratio p95/budget, with the machine's load average, and
 // writes .tmp/bench-ui.json. Options: --no-build (reuse build/), --samples N (keystrokes and drag
 // steps per screen, default 40), --rounds N (tab cycles, board→rail clicks; default 10),
-// --only a,b (sections: sandbox, rails, board, server, scale; default all).
+// --only a,b (sections: sandbox, rails, board, server, scale; default all; the 200-rail workspace
+// is seeded only when the scale section runs), --reuse-db (keep the bench database of an earlier
+// run instead of a fresh one: faster while iterating, never for the figures you publish).
 //
 // Method (in the page, installed before any page script runs):
 //  - The input is real: Playwright sends it through CDP (Input.dispatchKeyEvent / MouseEvent), so
@@ -452,11 +454,13 @@ async function latestLoopId(page: Page, railId: string): Promise<string | null> 
 
 // ---------------------------------------------------------------------------------------------
 
-function prepareDatabase() {
+function prepareDatabase(reuse: boolean) {
 	sh('bash scripts/db-up.sh');
-	// A fresh database of its own, so the figures never depend on what earlier runs left behind.
+	// A fresh database of its own, so the figures never depend on what earlier runs left behind
+	// (unless --reuse-db asks to keep it: migrations and both seeds are idempotent).
+	const drop = reuse ? '' : `DROP DATABASE IF EXISTS \\\`${DB}\\\`; `;
 	sh(
-		`source scripts/env.sh && "$(command -v mariadb || echo /usr/bin/mariadb)" --no-defaults --protocol=socket --socket="$DB_SOCKET" -uroot -e "DROP DATABASE IF EXISTS \\\`${DB}\\\`; CREATE DATABASE \\\`${DB}\\\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci; GRANT ALL PRIVILEGES ON \\\`${DB}\\\`.* TO '$DB_USER'@'127.0.0.1', '$DB_USER'@'localhost';"`
+		`source scripts/env.sh && "$(command -v mariadb || echo /usr/bin/mariadb)" --no-defaults --protocol=socket --socket="$DB_SOCKET" -uroot -e "${drop}CREATE DATABASE IF NOT EXISTS \\\`${DB}\\\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci; GRANT ALL PRIVILEGES ON \\\`${DB}\\\`.* TO '$DB_USER'@'127.0.0.1', '$DB_USER'@'localhost';"`
 	);
 	sh(`npx tsx scripts/migrate.ts ${DB}`, { DB_NAME: DB });
 	sh('npx tsx scripts/seed.ts', { DB_NAME: DB });
@@ -469,9 +473,11 @@ async function main() {
 	if (mailer) process.on('exit', () => mailer.child.kill('SIGTERM'));
 	if (!flag('--no-build')) log('building');
 	prepareBuild(BUILD_DIR, { build: !flag('--no-build'), env: { BETTER_AUTH_SECRET: SECRET } });
-	prepareDatabase();
-	log('seeding the 200-rail "Scale test" workspace');
-	sh('npx tsx scripts/seed.ts --scale', { DB_NAME: DB });
+	prepareDatabase(flag('--reuse-db'));
+	if (section('scale')) {
+		log('seeding the 200-rail "Scale test" workspace');
+		sh('npx tsx scripts/seed.ts --scale', { DB_NAME: DB });
+	}
 
 	let server: Server | null = null;
 	let browser: Browser | null = null;
