@@ -22,6 +22,7 @@ import { switchedSystem } from '$lib/engine/switching/circuit';
 import { Propagator } from '$lib/engine/switching/cycle';
 import { measureLoopGain } from '$lib/engine/switching/measure';
 import { readMultipliers } from '$lib/engine/switching/steadyState';
+import { expectJacobianMatchesMap } from './periodMapCheck';
 
 const DIR = path.resolve('reference/currentmode');
 const read = <T>(...parts: string[]) => JSON.parse(readFileSync(path.join(DIR, ...parts), 'utf8')) as T;
@@ -192,20 +193,7 @@ describe('the cycle of peak current mode', () => {
 	it('has a period-map Jacobian (saltation with the sensed-current row) equal to finite differences', () => {
 		// [derived]: the Jacobian is checked against the map itself, column by column.
 		const { orbit, prop } = orbitOf(input);
-		const nc = prop.sys.nc;
-		for (let j = 0; j < nc; j++) {
-			const step = 1e-6 * Math.max(1e-3, Math.abs(orbit.x0[j]));
-			const plus = Float64Array.from(orbit.x0);
-			const minus = Float64Array.from(orbit.x0);
-			plus[j] += step;
-			minus[j] -= step;
-			const a = prop.cycle(plus).x1;
-			const b = prop.cycle(minus).x1;
-			for (let i = 0; i < nc; i++) {
-				const fd = (a[i] - b[i]) / (2 * step);
-				expect(Math.abs(orbit.monodromy[i * nc + j] - fd), `∂x${i}/∂x${j}`).toBeLessThan(1e-5 * Math.max(1, Math.abs(fd)));
-			}
-		}
+		expectJacobianMatchesMap((x) => prop.cycle(x).x1, orbit.x0, orbit.monodromy, 1e-5);
 	});
 
 	it("a maximum duty below the comparator's turn-off ends the on interval by the clock, without saltation", () => {
@@ -217,18 +205,7 @@ describe('the cycle of peak current mode', () => {
 		expect(r.forced).toBe(true);
 		expect(r.tOff).toBeCloseTo(maxDuty / input.circuit.fswHz, 15);
 		// [derived] the clock-ended interval: the map's derivative is the plain product of the flows
-		const nc = sys.nc;
-		const jac = prop.jacobian(r);
-		for (let j = 0; j < nc; j++) {
-			const step = 1e-6 * Math.max(1e-3, Math.abs(orbit.x0[j]));
-			const plus = Float64Array.from(orbit.x0);
-			plus[j] += step;
-			const a = prop.cycle(plus).x1;
-			for (let i = 0; i < nc; i++) {
-				const fd = (a[i] - r.x1[i]) / step;
-				expect(Math.abs(jac[i * nc + j] - fd), `∂x${i}/∂x${j}`).toBeLessThan(1e-4 * Math.max(1, Math.abs(fd)));
-			}
-		}
+		expectJacobianMatchesMap((x) => prop.cycle(x).x1, orbit.x0, prop.jacobian(r), 1e-4);
 		// A maximum duty above the turn-off changes nothing.
 		const loose = new Propagator(switchedSystem({ ...input.circuit, currentMode: { ...input.circuit.currentMode!, maxDuty: 0.9 } }, { omega: 0, amplitude: 0 }), input.circuit.fswHz);
 		const free = loose.cycle(orbit.x0);

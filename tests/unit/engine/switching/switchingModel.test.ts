@@ -11,6 +11,7 @@ import { analyzeDesignDetailed } from '$lib/engine/analyze';
 import { switchingCheckInputOf } from '$lib/engine/pipeline/switchingCircuit';
 import { orbitOf, switchingCheck } from '$lib/engine/switching/check';
 import { readMultipliers } from '$lib/engine/switching/steadyState';
+import { expectJacobianMatchesMap } from './periodMapCheck';
 
 const caseDoc = (name: string) =>
 	JSON.parse(readFileSync(path.resolve('reference/switching/cases', `${name}.json`), 'utf8')) as Record<string, unknown>;
@@ -72,21 +73,7 @@ describe('switching model of a buck where averaging holds', () => {
 	it('has a period-map Jacobian (with the saltation at the turn-off instant) equal to finite differences', () => {
 		// [derived]: the Jacobian is checked against the map itself, column by column.
 		const { orbit, prop } = orbitOf(input);
-		const nc = prop.sys.nc;
-		for (let j = 0; j < nc; j++) {
-			const step = 1e-6 * Math.max(1e-3, Math.abs(orbit.x0[j]));
-			const plus = Float64Array.from(orbit.x0);
-			const minus = Float64Array.from(orbit.x0);
-			plus[j] += step;
-			minus[j] -= step;
-			const a = prop.cycle(plus).x1;
-			const b = prop.cycle(minus).x1;
-			for (let i = 0; i < nc; i++) {
-				const fd = (a[i] - b[i]) / (2 * step);
-				const m = orbit.monodromy[i * nc + j];
-				expect(Math.abs(fd - m), `∂x${i}/∂x${j}`).toBeLessThan(1e-4 * Math.max(1, Math.abs(m)));
-			}
-		}
+		expectJacobianMatchesMap((x) => prop.cycle(x).x1, orbit.x0, orbit.monodromy, 1e-4);
 	});
 });
 
