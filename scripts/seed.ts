@@ -21,6 +21,7 @@ import { gateway, sensorNode, type RailSeed } from './demo-rails';
 import { DEMO_BENCH, demoBenchText } from './demo-bench';
 import * as bench from '../src/lib/server/services/bench';
 import { seedScale } from './seed-scale';
+import { spreadDemoHistory } from './demo-history';
 
 const MARK = 'demo-v1';
 const WORKSPACE = { name: 'Kestrel Fieldworks', slug: 'kestrel-fieldworks' };
@@ -137,6 +138,18 @@ async function demoBench() {
 	console.log(`[seed] bench file ${DEMO_BENCH.fileName} attached to ${DEMO_BENCH.rail} (${DEMO_BENCH.path})`);
 }
 
+/** The demo's seeded times moved onto past working days (./demo-history.ts), once: its own mark. */
+async function demoHistory() {
+	const mark = 'demo-history-v1';
+	const [done] = await db.select().from(seedMark).where(eq(seedMark.name, mark)).limit(1);
+	if (done) return;
+	const [workspace] = await db.select().from(organization).where(eq(organization.slug, WORKSPACE.slug)).limit(1);
+	if (!workspace) return;
+	const moved = await spreadDemoHistory(pool, workspace.id);
+	await db.insert(seedMark).values({ name: mark, appliedAt: new Date() });
+	console.log(`[seed] demo history spread over past working days (${moved} times)`);
+}
+
 /** The scale workspace repeats the demo rails with each one's latest design as its base. */
 async function scale() {
 	const people = await demoPeople();
@@ -148,6 +161,7 @@ async function scale() {
 try {
 	await main();
 	await demoBench();
+	await demoHistory();
 	if (process.argv.includes('--scale')) await scale();
 } catch (error) {
 	console.error('[seed] failed:', error);
