@@ -80,3 +80,14 @@ export function templateControlMismatch(templateControl: string | null | undefin
 		`cannot lift back, so the loop would have little or no phase margin. Save a template from a voltage-mode rail (Type III is the usual network).`
 	);
 }
+
+/**
+ * A note beside the compensator choice when it does not suit the control method: with the
+ * current loop closed the plant has one low-frequency pole, so a Type III's second zero has no
+ * LC double pole to cancel. Null when the choice is the usual one (the form keeps the choice:
+ * a Type III can still be placed on purpose, e.g. to cancel an output-filter pole).
+ */
+export function networkNoteForControl(control: ControlMode, kind: string): string | null {
+	if (control !== 'peak-current' || kind !== 'type3') return null;
+	return 'Peak current mode: the plant has one low-frequency pole, so a Type II is the usual network; a Type III’s second zero has no LC double pole to cancel.';
+}

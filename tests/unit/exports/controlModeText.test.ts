@@ -9,7 +9,7 @@ import { analyzeDesign, verifyDesign, type AnalysisResponse } from '$lib/engine'
 import { spiceNetlist } from '$lib/engine/spice/netlist';
 import type { Verification } from '$lib/engine/verify/types';
 import { buildSignoffPdf, plotFromResponse, renderBodeSvg } from '$lib/server/exports';
-import { modulatorText, plantTraceLabel, templateControlMismatch } from '$lib/text/controlMode';
+import { modulatorText, networkNoteForControl, plantTraceLabel, templateControlMismatch } from '$lib/text/controlMode';
 import { flat, pdfText } from '../../support/pdfText';
 
 // 12 V → 5 V, 2 A buck at 500 kHz under peak current mode (invented values, a plausible point-of-load stage).
@@ -89,5 +89,14 @@ describe('control-method words', () => {
 		expect(templateControlMismatch('peak-current', 'peak-current', 'R')).toBeNull();
 		expect(templateControlMismatch(undefined, 'peak-current', 'R')).toMatch(/placed for voltage mode and R uses peak current mode.*LC double pole.*single low-frequency pole/);
 		expect(templateControlMismatch('peak-current', undefined, 'R')).toMatch(/placed for peak current mode and R uses voltage mode/);
+	});
+});
+
+describe('the note beside the compensator choice', () => {
+	// Type II is the usual network under peak current mode, Type III under voltage mode with an LC double pole [common practice].
+	it('speaks only for a Type III under peak current mode', () => {
+		expect(networkNoteForControl('peak-current', 'type3')).toMatch(/Type II is the usual network.*LC double pole/);
+		for (const kind of ['type1', 'type2', 'type2-ota']) expect(networkNoteForControl('peak-current', kind)).toBeNull();
+		for (const kind of ['type1', 'type2', 'type3']) expect(networkNoteForControl('voltage', kind)).toBeNull();
 	});
 });
