@@ -3,36 +3,13 @@
 // the control method in words), and templates that carry their control method: one placed for
 // voltage mode does not fit a current-mode rail (and the reverse), and the answer says why.
 import './support/env';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { servedApp } from './support/app';
+import { describe, expect, it } from 'vitest';
+import { teamWithBoard } from './support/board';
 import { buckDesign, currentModeBoostDesign, currentModeBuckDesign } from './support/designs';
-import { buildTeam, railBody, testDb, type Team } from './support/fixtures';
 
-const app = servedApp();
-const { db, pool } = testDb();
-let team: Team;
-let projectId: string;
-
-beforeAll(async () => {
-	team = await buildTeam(app.origin, db);
-	projectId = (await team.as.owner.post(`/api/v1/projects?workspace=${team.workspaceId}`, { name: 'Current-mode board' })).body.id;
-});
-afterAll(async () => {
-	await pool.end();
-});
-
-let railCount = 0;
-async function newRail(overrides: Record<string, unknown> = {}) {
-	const name = `CM_${++railCount}_${Math.random().toString(36).slice(2, 6).toUpperCase()}`;
-	const reply = await team.as.owner.post(`/api/v1/projects/${projectId}/rails`, { ...railBody(name), ...overrides });
-	expect(reply.status, JSON.stringify(reply.body)).toBe(201);
-	return reply.body as { id: string; name: string };
-}
-async function saveLoop(railId: string, design: unknown) {
-	const reply = await team.as.engineer.post(`/api/v1/rails/${railId}/loops`, { baseRevision: null, design, message: 'current mode' });
-	expect(reply.status, JSON.stringify(reply.body)).toBe(201);
-	return reply.body as { id: string; revision: number };
-}
+const board = teamWithBoard('Current-mode board');
+const newRail = (overrides: Record<string, unknown> = {}) => board.newRail('CM', overrides);
+const saveLoop = (railId: string, design: unknown) => board.save(railId, design, { message: 'current mode' });
 const BOOST_RAIL = { topology: 'boost', vout: 24, vinNom: 12, vinMin: 9, vinMax: 16, ioutNom: 1, ioutMin: 0.5, ioutMax: 1.5 };
 
 describe('peak current-mode loops through the API', { timeout: 120_000 }, () => {
@@ -42,14 +19,14 @@ describe('peak current-mode loops through the API', { timeout: 120_000 }, () => 
 	] as const)('a %s is saved, verified with a current-loop row, and its report names the control method with mc and Qp', async (topology, rail, design, vin, vout) => {
 		const r = await newRail(rail);
 		const saved = await saveLoop(r.id, design);
-		const stored = (await team.as.viewer.get(`/api/v1/loops/${saved.id}`)).body;
+		const stored = (await board.team.as.viewer.get(`/api/v1/loops/${saved.id}`)).body;
 		expect(stored.design.modulator).toMatchObject({ control: 'peak-current', senseGain: design.modulator.senseGain, rampSlope: design.modulator.rampSlope });
 		const row = stored.verification.rows.find((x: { metric: string }) => x.metric === 'current-loop');
 		expect(row, JSON.stringify(stored.verification.rows.map((x: { metric: string }) => x.metric))).toBeDefined();
 		// The ramp is above (Sf − Sn)/2 at every input voltage of the rail: no subharmonic oscillation.
 		expect(row.status).not.toBe('fail');
 
-		const report = (await team.as.viewer.get(`/api/v1/loops/${saved.id}/report`)).body;
+		const report = (await board.team.as.viewer.get(`/api/v1/loops/${saved.id}/report`)).body;
 		const cm = report.modulator.currentMode;
 		expect(report.modulator.control).toBe('peak-current');
 		// Sn = Ri·m1 with the on-time slope m1 = (Vg − V)/L (buck) or Vg/L (boost), mc = 1 + Se/Sn,
@@ -72,7 +49,7 @@ describe('peak current-mode loops through the API', { timeout: 120_000 }, () => 
 
 describe('templates carry the control method', { timeout: 120_000 }, () => {
 	it('a voltage-mode network refuses a current-mode rail and the reverse, saying why; same method applies; search finds the method', async () => {
-		const { engineer, viewer } = team.as;
+		const { engineer, viewer } = board.team.as;
 		const vmRail = await newRail();
 		const vmLoop = await saveLoop(vmRail.id, buckDesign());
 		const cmRail = await newRail();
@@ -105,7 +82,7 @@ describe('templates carry the control method', { timeout: 120_000 }, () => {
 		expect(Math.abs(fits.body.metrics.crossoverHz / 30_000 - 1)).toBeLessThan(0.1);
 		expect(fits.body.design.modulator).toMatchObject({ control: 'peak-current', senseGain: 0.15 });
 
-		const found = await viewer.get(`/api/v1/templates?workspace=${team.workspaceId}&q=${encodeURIComponent('peak current')}`);
+		const found = await viewer.get(`/api/v1/templates?workspace=${board.team.workspaceId}&q=${encodeURIComponent('peak current')}`);
 		const names = found.body.items.map((t: { name: string }) => t.name);
 		expect(names).toContain(cmTpl.body.name);
 		expect(names).not.toContain(vmTpl.body.name);

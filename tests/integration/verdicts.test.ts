@@ -5,44 +5,23 @@
 import './support/env';
 import { randomUUID } from 'node:crypto';
 import { eq } from 'drizzle-orm';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { loopRevision } from '../../src/lib/server/db/schema';
 import { reverify } from '../../src/lib/server/services/verdicts';
 import { ENGINE_VERSION } from '../../src/lib/engine/version';
-import { servedApp } from './support/app';
+import { teamWithBoard } from './support/board';
 import { buckDesign } from './support/designs';
-import { buildTeam, railBody, testDb, type Team } from './support/fixtures';
 
-const app = servedApp();
-const { db, pool } = testDb();
-let team: Team;
-let projectId: string;
-
-beforeAll(async () => {
-	team = await buildTeam(app.origin, db);
-	projectId = (await team.as.owner.post(`/api/v1/projects?workspace=${team.workspaceId}`, { name: 'Verdict board' })).body.id;
-});
-afterAll(async () => {
-	await pool.end();
-});
-
-let n = 0;
-async function newRail() {
-	const reply = await team.as.owner.post(`/api/v1/projects/${projectId}/rails`, railBody(`VD_${++n}_${randomUUID().slice(0, 4).toUpperCase()}`));
-	expect(reply.status).toBe(201);
-	return reply.body.id as string;
-}
-async function save(railId: string, base: number | null, design: unknown = buckDesign(), message = 'cut') {
-	const reply = await team.as.engineer.post(`/api/v1/rails/${railId}/loops`, { baseRevision: base, design, message });
-	expect(reply.status, JSON.stringify(reply.body)).toBe(201);
-	return reply.body as { id: string; revision: number; verification: { status: string; engineVersion: string; rows: { metric: string; status: string }[] } };
-}
+const board = teamWithBoard('Verdict board');
+const { db } = board;
+const newRail = async () => (await board.newRail('VD')).id;
+const save = (railId: string, base: number | null, design: unknown = buckDesign(), message = 'cut') => board.save(railId, design, { base, message });
 
 describe('re-verification', () => {
 	it('fills a row saved before verdicts were stored: the rail’s spec sections, then the verdict', async () => {
 		const railId = await newRail();
 		const id = randomUUID();
-		await db.insert(loopRevision).values({ id, workspaceId: team.workspaceId, railId, revision: 1, schemaVersion: 1, design: buckDesign(), message: 'legacy', status: 'approved', authorId: team.as.engineer.userId, createdAt: new Date() });
+		await db.insert(loopRevision).values({ id, workspaceId: board.team.workspaceId, railId, revision: 1, schemaVersion: 1, design: buckDesign(), message: 'legacy', status: 'approved', authorId: board.team.as.engineer.userId, createdAt: new Date() });
 		const entries = await reverify(db);
 		const mine = entries.find((e) => e.railId === railId)!;
 		expect(mine).toMatchObject({ revision: 1, before: null, specFilled: true, flagged: false, error: null });
@@ -63,20 +42,20 @@ describe('re-verification', () => {
 		await db.update(loopRevision).set({ verification: old as never, engineVersion: 'old' }).where(eq(loopRevision.id, r1.id));
 		const entry = (await reverify(db)).find((e) => e.railId === railId)!;
 		expect(entry).toMatchObject({ flagged: true, before: { status: old.status, engineVersion: 'old' }, after: { status: r1.verification.status, engineVersion: ENGINE_VERSION } });
-		const rail = (await team.as.viewer.get(`/api/v1/rails/${railId}`)).body;
+		const rail = (await board.team.as.viewer.get(`/api/v1/rails/${railId}`)).body;
 		expect(rail.verdictFlag).toMatchObject({ cause: 'engine', revision: 1, before: { status: old.status }, after: { status: r1.verification.status } });
 		// A viewer may not clear it; an engineer may.
-		expect((await team.as.viewer.delete(`/api/v1/rails/${railId}/verdict-flag`)).status).toBe(403);
-		const cleared = await team.as.engineer.delete(`/api/v1/rails/${railId}/verdict-flag`);
+		expect((await board.team.as.viewer.delete(`/api/v1/rails/${railId}/verdict-flag`)).status).toBe(403);
+		const cleared = await board.team.as.engineer.delete(`/api/v1/rails/${railId}/verdict-flag`);
 		expect(cleared.status).toBe(200);
 		expect(cleared.body.verdictFlag).toBeNull();
 
 		// Flag again, then a new revision clears it: the new revision has a verdict of its own.
 		await db.update(loopRevision).set({ verification: old as never, engineVersion: 'old' }).where(eq(loopRevision.id, r1.id));
 		await reverify(db);
-		expect((await team.as.viewer.get(`/api/v1/rails/${railId}`)).body.verdictFlag).not.toBeNull();
+		expect((await board.team.as.viewer.get(`/api/v1/rails/${railId}`)).body.verdictFlag).not.toBeNull();
 		await save(railId, 1);
-		expect((await team.as.viewer.get(`/api/v1/rails/${railId}`)).body.verdictFlag).toBeNull();
+		expect((await board.team.as.viewer.get(`/api/v1/rails/${railId}`)).body.verdictFlag).toBeNull();
 	});
 
 	it('an unchanged verdict and an older revision never flag', async () => {
@@ -88,7 +67,7 @@ describe('re-verification', () => {
 		const entries = (await reverify(db)).filter((e) => e.railId === railId);
 		expect(entries).toHaveLength(1);
 		expect(entries[0]).toMatchObject({ revision: 1, flagged: false });
-		expect((await team.as.viewer.get(`/api/v1/rails/${railId}`)).body.verdictFlag).toBeNull();
+		expect((await board.team.as.viewer.get(`/api/v1/rails/${railId}`)).body.verdictFlag).toBeNull();
 	});
 });
 
@@ -96,32 +75,32 @@ describe('template change', () => {
 	it('re-verifies every rail using the template with the new strategy and flags the ones whose verdict changes', async () => {
 		const railId = await newRail();
 		await save(railId, null);
-		const tpl = await team.as.engineer.post(`/api/v1/templates?workspace=${team.workspaceId}`, {
+		const tpl = await board.team.as.engineer.post(`/api/v1/templates?workspace=${board.team.workspaceId}`, {
 			name: `fsw/12.5 ${randomUUID().slice(0, 6)}`,
 			topology: 'buck',
 			compensator: { kind: 'type3', target: { method: 'k-factor', crossoverFraction: 0.08, phaseMarginDeg: 60 }, series: { resistors: 'E96', capacitors: 'E12' } }
 		});
 		expect(tpl.status, JSON.stringify(tpl.body)).toBe(201);
-		const applied = await team.as.engineer.post(`/api/v1/templates/${tpl.body.id}/apply`, { railId, save: true });
+		const applied = await board.team.as.engineer.post(`/api/v1/templates/${tpl.body.id}/apply`, { railId, save: true });
 		expect(applied.status, JSON.stringify(applied.body)).toBe(201);
-		const stored = (await team.as.viewer.get(`/api/v1/loops/${applied.body.saved.id}`)).body.verification;
+		const stored = (await board.team.as.viewer.get(`/api/v1/loops/${applied.body.saved.id}`)).body.verification;
 		expect(stored.rows.find((r: { metric: string }) => r.metric === 'fc').status).toBe('pass');
 
 		// A renamed template changes no network: nothing to re-verify.
-		const renamed = await team.as.engineer.patch(`/api/v1/templates/${tpl.body.id}`, { name: `${tpl.body.name} (renamed)`, baseUpdatedAt: tpl.body.updatedAt });
+		const renamed = await board.team.as.engineer.patch(`/api/v1/templates/${tpl.body.id}`, { name: `${tpl.body.name} (renamed)`, baseUpdatedAt: tpl.body.updatedAt });
 		expect(renamed.body.reverified).toEqual([]);
 
 		// Crossover at 0.45 × fsw: above the 0.2 × fsw target [common practice: fc ≤ fsw/5], so the fc row cannot stay pass.
-		const changed = await team.as.engineer.patch(`/api/v1/templates/${tpl.body.id}`, {
+		const changed = await board.team.as.engineer.patch(`/api/v1/templates/${tpl.body.id}`, {
 			baseUpdatedAt: renamed.body.updatedAt,
 			compensator: { kind: 'type3', target: { method: 'k-factor', crossoverFraction: 0.45, phaseMarginDeg: 60 }, series: { resistors: 'E96', capacitors: 'E12' } }
 		});
 		expect(changed.status, JSON.stringify(changed.body)).toBe(200);
 		expect(changed.body.reverified).toEqual([expect.objectContaining({ railId, revision: 2, flagged: true })]);
-		const rail = (await team.as.viewer.get(`/api/v1/rails/${railId}`)).body;
+		const rail = (await board.team.as.viewer.get(`/api/v1/rails/${railId}`)).body;
 		expect(rail.verdictFlag).toMatchObject({ cause: 'template', revision: 2, template: { id: tpl.body.id } });
 		expect(rail.verdictFlag.after.rows.fc).not.toBe('pass');
 		// The stored revision itself is untouched: adopting the change is a new revision.
-		expect((await team.as.viewer.get(`/api/v1/loops/${applied.body.saved.id}`)).body.verification).toEqual(stored);
+		expect((await board.team.as.viewer.get(`/api/v1/loops/${applied.body.saved.id}`)).body.verification).toEqual(stored);
 	});
 });

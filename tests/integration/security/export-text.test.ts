@@ -3,36 +3,22 @@
 // a revision message or a comment, GET …/exports/pdf, svg and png answer 200 with a well-formed file.
 import '../support/env';
 import fc from 'fast-check';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { servedApp } from '../support/app';
+import { describe, expect, it } from 'vitest';
+import { teamWithBoard } from '../support/board';
 import { buckDesign } from '../support/designs';
-import { buildTeam, railBody, testDb, type Team } from '../support/fixtures';
 import { pdfProblems, pngProblems, svgProblems } from '../../unit/exports/fileChecks';
 import { propertyParams, propertyTimeout } from '../../unit/property/runs';
 import { hostileUserText } from '../../unit/property/userText';
 
-const app = servedApp();
-const { db, pool } = testDb();
-let team: Team;
-let projectId: string;
-
-beforeAll(async () => {
-	team = await buildTeam(app.origin, db);
-	projectId = (await team.as.owner.post(`/api/v1/projects?workspace=${team.workspaceId}`, { name: 'Export text board' })).body.id;
-});
-afterAll(async () => {
-	await pool.end();
-});
+const board = teamWithBoard('Export text board');
 
 async function download(path: string) {
-	const response = await fetch(app.origin + path, { headers: { cookie: team.as.engineer.cookie } });
+	const response = await fetch(board.origin + path, { headers: { cookie: board.team.as.engineer.cookie } });
 	return { status: response.status, type: response.headers.get('content-type') ?? '', bytes: Buffer.from(await response.arrayBuffer()) };
 }
 
 /** Fields the API trims and requires non-empty: a leading letter keeps every generated text valid. */
 const field = (text: string, max: number) => `x ${text}`.slice(0, max);
-
-let rails = 0;
 
 describe('exports of a revision whose every text field holds what a user typed', () => {
 	it(
@@ -40,14 +26,11 @@ describe('exports of a revision whose every text field holds what a user typed',
 		async () => {
 			await fc.assert(
 				fc.asyncProperty(fc.record({ author: hostileUserText(), board: hostileUserText(), notes: hostileUserText(120), message: hostileUserText(120), comment: hostileUserText(120) }), async (t) => {
-					const engineer = team.as.engineer;
+					const engineer = board.team.as.engineer;
 					expect((await engineer.post('/api/auth/update-user', { name: field(t.author, 100) })).status).toBe(200);
-					expect((await team.as.owner.patch(`/api/v1/projects/${projectId}`, { name: field(t.board, 120) })).status).toBe(200);
-					const rail = await team.as.owner.post(`/api/v1/projects/${projectId}/rails`, { ...railBody(`TXT_${++rails}`), notes: t.notes });
-					expect(rail.status, JSON.stringify(rail.body)).toBe(201);
-					const saved = await engineer.post(`/api/v1/rails/${rail.body.id}/loops`, { baseRevision: null, design: buckDesign(), message: field(t.message, 500) });
-					expect(saved.status, JSON.stringify(saved.body)).toBe(201);
-					const loopId = saved.body.id as string;
+					expect((await board.team.as.owner.patch(`/api/v1/projects/${board.projectId}`, { name: field(t.board, 120) })).status).toBe(200);
+					const rail = await board.newRail('TXT', { notes: t.notes });
+					const loopId = (await board.save(rail.id, buckDesign(), { message: field(t.message, 500) })).id;
 					expect((await engineer.post(`/api/v1/loops/${loopId}/comments`, { body: field(t.comment, 5000), freqHz: 40_000 })).status).toBe(201);
 
 					const pdf = await download(`/api/v1/loops/${loopId}/exports/pdf`);
@@ -68,10 +51,9 @@ describe('exports of a revision whose every text field holds what a user typed',
 	);
 
 	it('the message from the report, `fc 40k -> 60k`, and its cousins', async () => {
-		const rail = await team.as.owner.post(`/api/v1/projects/${projectId}/rails`, railBody(`TXT_LIG_${++rails}`));
-		const saved = await team.as.engineer.post(`/api/v1/rails/${rail.body.id}/loops`, { baseRevision: null, design: buckDesign(), message: 'fc 40k -> 60k, >= || ... :: /* <>' });
-		expect(saved.status).toBe(201);
-		const pdf = await download(`/api/v1/loops/${saved.body.id}/exports/pdf`);
+		const rail = await board.newRail('TXT_LIG');
+		const saved = await board.save(rail.id, buckDesign(), { message: 'fc 40k -> 60k, >= || ... :: /* <>' });
+		const pdf = await download(`/api/v1/loops/${saved.id}/exports/pdf`);
 		expect(pdf.status).toBe(200);
 		expect(pdfProblems(pdf.bytes)).toEqual([]);
 	});
