@@ -1,7 +1,7 @@
 // The switching check kept with a revision, through the API against MariaDB: who may run it
 // (owner, engineer, reviewer; a viewer reads it; another workspace sees 404), the request's
 // validation naming the field, the stored result equal to the engine's own run of the stored
-// design, a repeat answered from the kept check, and the review report carrying it.
+// design, a repeat answered from the kept check, and the review report and signed-off JSON carrying it.
 import './support/env';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { designDocumentSchema } from '../../src/lib/engine/contract/designSchema';
@@ -34,6 +34,9 @@ describe('switching check kept with a revision', () => {
 		const read = await team.as.viewer.get(`/api/v1/loops/${loopId}/switching-check`);
 		expect(read.status).toBe(200);
 		expect(read.body.switchingCheck).toBeNull();
+		const exported = await team.as.viewer.get(`/api/v1/loops/${loopId}/exports/json`);
+		expect(exported.status).toBe(200);
+		expect(exported.body.signoff.switchingCheck).toBeNull();
 		const refused = await team.as.viewer.post(`/api/v1/loops/${loopId}/switching-check`, {});
 		expect(refused.status).toBe(403);
 		const stranger = await team.outsider.post(`/api/v1/loops/${loopId}/switching-check`, {});
@@ -82,5 +85,8 @@ describe('switching check kept with a revision', () => {
 		const report = await team.as.viewer.get(`/api/v1/loops/${loopId}/report`);
 		expect(report.status).toBe(200);
 		expect(report.body.switchingCheck).toEqual(kept);
+		// The signed-off JSON carries the kept check beside the verdict.
+		const exported = await team.as.viewer.get(`/api/v1/loops/${loopId}/exports/json`);
+		expect(exported.body.signoff.switchingCheck).toEqual(kept);
 	});
 });

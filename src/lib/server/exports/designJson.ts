@@ -4,6 +4,7 @@
  */
 import { contractError, designDocumentSchema, SCHEMA_VERSION, zodFields, type ContractError, type DesignDocument } from '$lib/engine';
 import type { Verification } from '$lib/engine/verify/types';
+import type { StoredSwitchingCheck } from '$lib/verdict/switchingText';
 
 /** Largest accepted design file, bytes of text (a design document is a few kB). */
 export const DESIGN_JSON_MAX_CHARS = 1024 * 1024;
@@ -46,12 +47,13 @@ const BUILT_PART_KEYS = ['r2', 'r3', 'c1', 'c2', 'c3', 'gm', 'ro'] as const;
  * The signed-off file of a revision: its document (spec sections included) with the network
  * fixed to the parts as built (rounded where a series was set), so importing it reproduces the
  * built network whatever placement does later, plus a `signoff` record of how it was placed, the
- * parts (ideal, rounded, series) and the stored verdict. The engine ignores `signoff` on import.
+ * parts (ideal, rounded, series), the stored verdict and the switching check kept with the
+ * revision (null when none was run). The engine ignores `signoff` on import.
  */
 export function exportSignedOffJson(
 	doc: unknown,
 	verification: Verification | null,
-	meta: { rail: string | null; revision: number; status: string }
+	meta: { rail: string | null; revision: number; status: string; switchingCheck?: StoredSwitchingCheck | null }
 ): { ok: true; json: string } | ({ ok: false } & ContractError) {
 	const parsed = designDocumentSchema.safeParse(doc);
 	if (!parsed.success) return { ok: false, ...contractError(zodFields(parsed.error)) };
@@ -69,7 +71,8 @@ export function exportSignedOffJson(
 			placement: { target: d.compensator.target ?? null, series: d.compensator.series ?? null },
 			parts: verification?.parts ?? null,
 			engineVersion: verification?.engineVersion ?? null,
-			verification
+			verification,
+			switchingCheck: meta.switchingCheck ?? null
 		}
 	};
 	return { ok: true, json: JSON.stringify(out, null, 2) + '\n' };

@@ -66,7 +66,7 @@ export const GET: RequestHandler = endpoint(async (event) => {
 		return file(verdictCsv(row.verification), 'verdict', `${base}-verdict`, false);
 	}
 	if (format === 'json') {
-		const out = exportSignedOffJson(row.design, row.verification, { rail: rail?.name ?? null, revision: row.revision, status: row.status });
+		const out = exportSignedOffJson(row.design, row.verification, { rail: rail?.name ?? null, revision: row.revision, status: row.status, switchingCheck: row.switchingCheck });
 		if (!out.ok) throw new ApiError(422, out.error.code, out.error.message, out.error.fields);
 		return file(out.json, 'json', base, false);
 	}
