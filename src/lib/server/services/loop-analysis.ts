@@ -106,10 +106,13 @@ export interface VerdictChange {
 	after: { status: string | null; value: number | null; corner: string | null };
 }
 
+/** The part of a verdict a comparison reads (a stored verdict's headline carries it). */
+type DiffedVerdict = Pick<Verification, 'status' | 'rows'>;
+
 /** Row-by-row differences between two stored verdicts (status, worst value or its corner). */
-export function verdictDiff(before: Verification | null, after: Verification | null): VerdictChange[] {
+export function verdictDiff(before: DiffedVerdict | null, after: DiffedVerdict | null): VerdictChange[] {
 	const out: VerdictChange[] = [];
-	const side = (v: Verification | null, metric: string) => {
+	const side = (v: DiffedVerdict | null, metric: string) => {
 		if (!v) return { status: null, value: null, corner: null };
 		if (metric === 'verdict') return { status: v.status, value: null, corner: null };
 		const r = v.rows.find((x) => x.metric === metric);

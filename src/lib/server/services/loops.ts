@@ -84,10 +84,22 @@ function brief(r: Pick<LoopRevision, 'id' | 'revision' | 'status' | 'message' | 
 	return { id: r.id, revision: r.revision, status: r.status, message: r.message, createdAt: r.createdAt, authorId: r.authorId };
 }
 
+/**
+ * What a "what changed" comparison reads of an earlier revision: its design and its verdict's
+ * headline (status and rows, all verdictDiff compares), never the whole ~80 kB verdict.
+ */
+export const diffBaseColumns = {
+	id: loopRevision.id,
+	revision: loopRevision.revision,
+	status: loopRevision.status,
+	design: loopRevision.design,
+	verification: loopRevision.verdictHeadline
+};
+
 /** The rail's revision just before `revision` (whatever its status), for "what changed". */
-export async function previous(db: Database, railId: string, revision: number): Promise<LoopRevision | null> {
+export async function previous(db: Database, railId: string, revision: number) {
 	const [row] = await db
-		.select()
+		.select(diffBaseColumns)
 		.from(loopRevision)
 		.where(and(eq(loopRevision.railId, railId), lt(loopRevision.revision, revision)))
 		.orderBy(desc(loopRevision.revision))

@@ -191,10 +191,10 @@ export async function queue(db: Database, workspaceId: string, userId: string) {
 	};
 }
 
-/** The newest approved revision of the rail older than `beforeRevision` (the diff's base). */
+/** The newest approved revision of the rail older than `beforeRevision` (the diff's base: loops.diffBaseColumns). */
 export async function lastApproved(db: Database, railId: string, beforeRevision: number) {
 	const [row] = await db
-		.select()
+		.select(loops.diffBaseColumns)
 		.from(loopRevision)
 		.where(and(eq(loopRevision.railId, railId), eq(loopRevision.status, 'approved'), lt(loopRevision.revision, beforeRevision)))
 		.orderBy(desc(loopRevision.revision))

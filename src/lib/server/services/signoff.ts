@@ -26,7 +26,7 @@ export async function context(db: Database, loop: Loop) {
 }
 
 /** The revision's changes against an earlier one: parameters of the document and rows of the verdict. */
-function diffAgainst(base: Pick<loops.LoopRevision, 'id' | 'revision' | 'status' | 'design' | 'verification'> | null, loop: Loop) {
+function diffAgainst(base: Awaited<ReturnType<typeof loops.previous>>, loop: Loop) {
 	if (!base) return null;
 	return {
 		baseRevision: base.revision,
