@@ -2,38 +2,16 @@
 // records what it was sent and lets the test answer as the worker would.
 import { describe, expect, it } from 'vitest';
 import { progressWorker } from '../../../src/lib/design/progressWorker';
+import { fakeWorkers } from './fakeWorker';
 
 type To = { type: 'start'; runId: number; n: number } | { type: 'cancel'; runId: number };
 type From = { type: 'progress'; runId: number; done: number; total: number } | { type: 'result'; runId: number; value: number } | { type: 'error'; runId: number; message: string };
 
-class FakeWorker {
-	sent: To[] = [];
-	terminated = false;
-	onmessage: ((e: MessageEvent<From>) => void) | null = null;
-	onerror: ((e: ErrorEvent) => void) | null = null;
-	postMessage(m: To) {
-		this.sent.push(m);
-	}
-	terminate() {
-		this.terminated = true;
-	}
-	answer(m: From) {
-		this.onmessage?.({ data: m } as MessageEvent<From>);
-	}
-	die(message: string) {
-		this.onerror?.({ message } as ErrorEvent);
-	}
-}
-
 function harness() {
-	const made: FakeWorker[] = [];
+	const { made, spawn } = fakeWorkers<To, From>();
 	const log: string[] = [];
 	const runner = progressWorker<To, From>(
-		() => {
-			const w = new FakeWorker();
-			made.push(w);
-			return w as unknown as Worker;
-		},
+		spawn,
 		{ progress: (d, t) => log.push(`progress ${d}/${t}`), result: (m) => log.push(`result ${m.value}`), error: (m) => log.push(`error ${m}`) },
 		'the worker stopped'
 	);
