@@ -20,6 +20,7 @@ import scipy
 HERE = os.path.dirname(os.path.abspath(__file__))
 sys.path.insert(0, HERE)
 from simulate import Converter  # noqa: E402
+from generate import load_case, write_json  # noqa: E402
 
 CASES = ["buck-d028-mc13", "buck-d066-mc17", "buck-d052-mc11", "boost-d058-rhp", "buck-polymer-fc-fsw10"]
 SUBHARMONIC_CASE = "buck-d052-mc11"
@@ -93,9 +94,9 @@ def main():
     args = ap.parse_args()
     result = {"cases": {}, "subharmonic": []}
     for name in CASES:
-        doc = json.load(open(os.path.join(HERE, "cases", f"{name}.json")))
+        doc = load_case(name)
         result["cases"][name] = record(doc)
-    doc = json.load(open(os.path.join(HERE, "cases", f"{SUBHARMONIC_CASE}.json")))
+    doc = load_case(SUBHARMONIC_CASE)
     sub = json.load(open(os.path.join(HERE, "out", "subharmonic.json")))
     for run in sub["runs"]:
         result["subharmonic"].append({"boundaryFactor": run["rampSlope"] / sub["boundary"], **record(doc, se=run["rampSlope"])})
@@ -103,9 +104,7 @@ def main():
     result["method"] = "Newton on the simulated one-period map, central differences (step 1e-6 relative), eigenvalues by numpy.linalg.eigvals"
     result["generator"] = {"script": "reference/currentmode/floquet.py", "python": platform.python_version(), "numpy": np.__version__, "scipy": scipy.__version__}
     os.makedirs(args.out, exist_ok=True)
-    with open(os.path.join(args.out, "floquet.json"), "w") as f:
-        json.dump(result, f, indent=1)
-        f.write("\n")
+    write_json(args.out, "floquet.json", result)
 
 
 if __name__ == "__main__":

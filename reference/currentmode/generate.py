@@ -35,16 +35,47 @@ def injection_amplitude(doc):
     return 0.003 * doc["plant"]["vout"]
 
 
+def load_case(name):
+    """The design document of cases/<name>.json."""
+    with open(os.path.join(HERE, "cases", f"{name}.json")) as f:
+        return json.load(f)
+
+
+def window_periods(frac):
+    """The measuring window for fsw·frac: whole periods of both the sine and the clock, at least
+    MIN_WINDOW switching periods."""
+    q = frac.denominator
+    return q * max(1, -(-MIN_WINDOW // q))
+
+
+def point(freq, value, value_prev, window):
+    """One measured point: the response's dB and degrees, its window, and how far it still moved
+    from the same window one window earlier."""
+    return {
+        "freqHz": freq,
+        "magDb": 20 * np.log10(abs(value)),
+        "phaseDeg": float(np.degrees(np.angle(value))),
+        "windowPeriods": window,
+        "settleDeltaDb": abs(20 * np.log10(abs(value) / abs(value_prev))),
+        "settleDeltaDeg": abs(float(np.degrees(np.angle(value / value_prev)))),
+    }
+
+
+def write_json(out_dir, filename, result):
+    with open(os.path.join(out_dir, filename), "w") as f:
+        json.dump(result, f, indent=1)
+        f.write("\n")
+
+
 def measure(doc, z, guess, frac):
     fsw = doc["plant"]["fsw"]
-    q = frac.denominator
-    window = q * max(1, -(-MIN_WINDOW // q))
+    window = window_periods(frac)
     T, T_prev = loop_gain(doc, z, float(frac) * fsw, window, INJECTION_SETTLE, injection_amplitude(doc), guess)
     return T, T_prev, window
 
 
 def run_case(name, fractions=None, freqs=None):
-    doc = json.load(open(os.path.join(HERE, "cases", f"{name}.json")))
+    doc = load_case(name)
     fsw = doc["plant"]["fsw"]
     if freqs:
         fractions = [Fraction(f / fsw).limit_denominator(1000) for f in freqs]
@@ -53,15 +84,7 @@ def run_case(name, fractions=None, freqs=None):
     rows = []
     for frac in fractions or FRACTIONS:
         T, T_prev, window = measure(doc, z, guess, frac)
-        rows.append({
-            "freqHz": float(frac) * fsw,
-            "magDb": 20 * np.log10(abs(T)),
-            "phaseDeg": float(np.degrees(np.angle(T))),
-            "windowPeriods": window,
-            # the same window one window earlier: how far the measurement still moves
-            "settleDeltaDb": abs(20 * np.log10(abs(T) / abs(T_prev))),
-            "settleDeltaDeg": abs(float(np.degrees(np.angle(T / T_prev)))),
-        })
+        rows.append(point(float(frac) * fsw, T, T_prev, window))
     return {
         "case": name,
         "simulatedDuty": float(duties[-1]),
@@ -81,7 +104,7 @@ def subharmonic(out_dir):
     Without a ramp a valley-current error grows by Sf/Sn ≈ 1.1 per cycle (sign alternating) until
     the duty hits its limits: long and short cycles alternate (period two, the fsw/2 subharmonic).
     (At D ≈ 0.67, Sf/Sn ≈ 1.9, the same circuit runs irregularly rather than in a clean period two.)"""
-    doc = json.load(open(os.path.join(HERE, "cases", "buck-d052-mc11.json")))
+    doc = load_case("buck-d052-mc11")
     p = doc["plant"]
     ri = doc["modulator"]["senseGain"]
     # the sensed slopes of the simulated circuit in steady state: the inductor sees the switch and
@@ -104,9 +127,7 @@ def subharmonic(out_dir):
             "alternatingSteps": float(np.mean(steps[1:] * steps[:-1] < 0)) if np.any(steps != 0) else 0.0,
             "largestStep": float(np.max(np.abs(steps))),
         })
-    with open(os.path.join(out_dir, "subharmonic.json"), "w") as f:
-        json.dump(result, f, indent=1)
-        f.write("\n")
+    write_json(out_dir, "subharmonic.json", result)
 
 
 def generator_info():
@@ -127,10 +148,7 @@ def main():
         return
     names = [args.case] if args.case else sorted(f[:-5] for f in os.listdir(os.path.join(HERE, "cases")))
     for name in names:
-        res = run_case(name, freqs=args.freq)
-        with open(os.path.join(args.out, f"{name}.json"), "w") as f:
-            json.dump(res, f, indent=1)
-            f.write("\n")
+        write_json(args.out, f"{name}.json", run_case(name, freqs=args.freq))
         print(name, "done", file=sys.stderr)
     if not args.case:
         subharmonic(args.out)

@@ -11,7 +11,6 @@ switch is on for a buck, iL for a boost) is Fourier-integrated over whole period
 and the clock, exactly interval by interval: ZD = V̂g/Îg. Nothing here uses an averaged model.
 """
 import argparse
-import json
 import os
 import sys
 from fractions import Fraction
@@ -22,7 +21,7 @@ from scipy.linalg import expm
 HERE = os.path.dirname(os.path.abspath(__file__))
 sys.path.insert(0, HERE)
 from simulate import GL_W, GL_X, Converter, settle  # noqa: E402
-from generate import SETTLE_PERIODS, INJECTION_SETTLE, MIN_WINDOW, generator_info  # noqa: E402
+from generate import SETTLE_PERIODS, INJECTION_SETTLE, generator_info, load_case, point, window_periods, write_json  # noqa: E402
 
 CASES = ["buck-d028-mc13", "buck-d066-mc17", "boost-d058-rhp"]
 FRACTIONS = [Fraction(1, 200), Fraction(1, 50), Fraction(1, 20), Fraction(1, 10), Fraction(1, 5)]
@@ -82,14 +81,13 @@ class HeldControl(Converter):
 
 
 def run_case(name):
-    doc = json.load(open(os.path.join(HERE, "cases", f"{name}.json")))
+    doc = load_case(name)
     fsw = doc["plant"]["fsw"]
     conv, z_ss, duties, guess = settle(doc, SETTLE_PERIODS)
     vc = conv.vref - z_ss[conv.iC2]
     rows = []
     for frac in FRACTIONS:
-        q = frac.denominator
-        window = q * max(1, -(-MIN_WINDOW // q))
+        window = window_periods(frac)
         c = HeldControl(doc, vc, LINE_AMPLITUDE * doc["plant"]["vin"], float(frac) * fsw)
         z = z_ss.copy()
         z[c.iS], z[c.iCo] = 0.0, 1.0
@@ -97,14 +95,7 @@ def run_case(name):
         # the phase reference is the clock edge at t = 0 of this run: start the sine there
         _, zd_prev, g1 = c.run_line(z, INJECTION_SETTLE + window, window, guess)
         _, zd, _ = c.run_line(z, periods, window, guess)
-        rows.append({
-            "freqHz": float(frac) * fsw,
-            "magDb": 20 * np.log10(abs(zd)),
-            "phaseDeg": float(np.degrees(np.angle(zd))),
-            "windowPeriods": window,
-            "settleDeltaDb": abs(20 * np.log10(abs(zd) / abs(zd_prev))),
-            "settleDeltaDeg": abs(float(np.degrees(np.angle(zd / zd_prev)))),
-        })
+        rows.append(point(float(frac) * fsw, zd, zd_prev, window))
         print(name, float(frac), rows[-1]["magDb"], rows[-1]["phaseDeg"], file=sys.stderr)
     return {"case": name, "simulatedDuty": float(duties[-1]), "heldControlVoltage": float(vc),
             "lineAmplitudeV": LINE_AMPLITUDE * doc["plant"]["vin"], "points": rows}
@@ -116,10 +107,7 @@ def main():
     args = ap.parse_args()
     info = generator_info()
     info["script"] = "reference/currentmode/input_impedance.py"
-    result = {"cases": [run_case(n) for n in CASES], "generator": info}
-    with open(os.path.join(args.out, "input-impedance.json"), "w") as f:
-        json.dump(result, f, indent=1)
-        f.write("\n")
+    write_json(args.out, "input-impedance.json", {"cases": [run_case(n) for n in CASES], "generator": info})
 
 
 if __name__ == "__main__":
