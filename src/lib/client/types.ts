@@ -68,9 +68,12 @@ export interface LoopSummary {
 	createdAt: string;
 }
 
-/** The latest revision of a rail on the board: its summary and the stored verdict's headline. */
-export type BoardLoop = Omit<LoopSummary, 'verification'> & { verification: VerdictHeadline | null };
-export type BoardRail = Rail & { latest: BoardLoop | null };
+/** The latest revision of a rail on the board: its review status and the stored verdict's headline (services/board.ts). */
+export type BoardLoop = Pick<LoopSummary, 'id' | 'revision' | 'status'> & { verification: VerdictHeadline | null };
+/** A rail on the board: what the table shows and the rail form edits (no spec sections, tolerances or targets). */
+export type BoardRail = Pick<Rail, 'id' | 'name' | 'topology' | 'vout' | 'vinNom' | 'vinMin' | 'vinMax' | 'ioutNom' | 'ioutMin' | 'ioutMax' | 'fsw' | 'notes' | 'verdictFlag' | 'latestRevision'> & {
+	latest: BoardLoop | null;
+};
 
 /** GET /api/v1/projects/{id}/board: the board-health page in one answer. */
 export interface Board {

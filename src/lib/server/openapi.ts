@@ -54,7 +54,7 @@ const OPERATIONS: Operation[] = [
 	{ method: 'delete', path: '/projects/{id}', summary: 'Delete a project with its rails and loops', action: 'project.delete', success: 204 },
 	{ method: 'get', path: '/projects/{id}/rails', summary: "The board's rails with corners, targets in force and latest revision", action: 'rail.read', paged: true, success: 200 },
 	{ method: 'post', path: '/projects/{id}/rails', summary: 'Add a rail', action: 'rail.create', body: railCreateSchema, success: 201 },
-	{ method: 'get', path: '/projects/{id}/board', summary: 'The board-health table in one answer: the board, your role, the workspace targets and every rail (up to 1000) with its latest revision and stored verdict headline', action: 'rail.read', success: 200 },
+	{ method: 'get', path: '/projects/{id}/board', summary: 'The board-health table in one answer: the board, your role, the workspace targets and every rail (up to 1000) with what the table shows: name, topology, operating point, notes, verdict flag, and its latest revision (id, number, review status, stored verdict headline)', action: 'rail.read', success: 200 },
 	{ method: 'get', path: '/rails', summary: "Every rail of the workspace with its board's name, by board then rail (up to 1000 per page)", action: 'rail.read', workspaceQuery: true, paged: true, success: 200 },
 	{ method: 'get', path: '/rails/{id}', summary: 'One rail', action: 'rail.read', success: 200 },
 	{ method: 'get', path: '/rails/{id}/screen', summary: "The rail design screen in one answer: the rail, your role, the latest revision's design (no stored verdict), its revisions (up to 200), the latest revision's review requests and candidates, and the bench files", action: ['rail.read', 'loop.read'], success: 200 },
