@@ -233,8 +233,9 @@ function printTable(load: { start: number[]; end: number[] }) {
 // Interactions.
 
 /** The plot's magnitude panel: what a keystroke or a drag step must repaint. */
-const PLOT_ROOT = '[data-testid="design-screen"] [data-testid="mag-panel"]';
-const LOOP_TRACE = '[data-testid="design-screen"] [data-testid="mag-panel"] path[data-trace^="loop:"]';
+// Scoped to the Loop tab's panel: the Corners panel, once opened, keeps a Bode plot of its own.
+const PLOT_ROOT = '[data-testid="design-screen"] #panel-loop [data-testid="mag-panel"]';
+const LOOP_TRACE = '[data-testid="design-screen"] #panel-loop [data-testid="mag-panel"] path[data-trace^="loop:"]';
 
 async function openDesign(page: Page, url: string) {
 	await page.goto(url);

@@ -170,7 +170,8 @@ test('typed key by key, the deferred sections settle on the same figures as the 
 		await page.getByTestId('tab-corners').click();
 		const worst = await page.getByTestId('worst-pm').textContent();
 		await page.getByTestId('tab-loop').click();
-		const chip = await page.getByTestId('fc-chip').textContent();
+		// The Corners panel, once opened, stays mounted with its own plot: read the loop plot's chip.
+		const chip = await page.locator('#panel-loop').getByTestId('fc-chip').textContent();
 		return { verdict, sensitivity, zout, worst, chip };
 	};
 	await openSandbox(page);
