@@ -37,6 +37,21 @@ export const PART_LABELS: Record<PartName, string> = {
 	rampSlope: 'Se'
 };
 
+/**
+ * What a modulator part's short name stands for, where a person choosing it may not know the
+ * symbol (the fit's choices): "Ri (sense gain)".
+ */
+export const PART_MEANINGS: Partial<Record<PartName, string>> = { vramp: 'modulator gain', senseGain: 'sense gain', rampSlope: 'ramp slope' };
+
+/**
+ * How a part, or the loop delay that the fit and the sensitivities vary beside the parts, is named
+ * to people; one capacitor branch of a bank of several is numbered: "C (branch 2)".
+ */
+export function partLabel(name: PartName | 'delay', branch: number | null = null, branches = 1): string {
+	const base = name === 'delay' ? 'Loop delay' : PART_LABELS[name];
+	return branch !== null && branches > 1 ? `${base} (branch ${branch + 1})` : base;
+}
+
 export interface Variation {
 	vin?: number;
 	iout?: number;

@@ -7,7 +7,7 @@
 import type { DesignDocument } from '../contract/designSchema';
 import { MAX_DELAY_PERIODS } from '../contract/designSchema';
 import type { LoopSpec } from '../corners/loopModel';
-import { applyVariation, PART_LABELS, type Variation } from '../corners/variation';
+import { applyVariation, partLabel, type Variation } from '../corners/variation';
 import { BRANCH_PARAMETERS, type FitParameterName, type FitParameterSpec } from './schema';
 
 /**
@@ -40,9 +40,6 @@ export interface ResolvedParameter {
 
 const UNITS: Record<FitParameterName, string> = { l: 'H', dcr: 'Ω', c: 'F', esr: 'Ω', esl: 'H', vramp: 'V', senseGain: 'V/A', rampSlope: 'V/s', delay: 's' };
 const CURRENT_LOOP: readonly FitParameterName[] = ['senseGain', 'rampSlope'];
-
-export const parameterLabel = (name: FitParameterName, branch: number | null, branches: number) =>
-	name === 'delay' ? 'Loop delay' : `${PART_LABELS[name]}${branch !== null && branches > 1 ? ` (branch ${branch + 1})` : ''}`;
 
 export type ResolveResult = { ok: true; parameters: ResolvedParameter[] } | { ok: false; fields: Record<string, string> };
 
@@ -80,7 +77,7 @@ export function resolveParameters(specs: readonly FitParameterSpec[], spec: Loop
 				return;
 			}
 			out.push({
-				name: 'delay', branch: null, label: parameterLabel('delay', null, branches), unit: 's', path: 'modulator.delay',
+				name: 'delay', branch: null, label: partLabel('delay', null, branches), unit: 's', path: 'modulator.delay',
 				typed: spec.modulator.delayS, kind: 'delay',
 				lower: lowS * fsw, upper: highS * fsw, start: Math.min(Math.max(spec.modulator.delayS * fsw, lowS * fsw), highS * fsw),
 				boundsFrom: p.min !== undefined || p.max !== undefined ? 'request' : 'default',
@@ -90,7 +87,7 @@ export function resolveParameters(specs: readonly FitParameterSpec[], spec: Loop
 		}
 		const typed = typedValue(spec, p.name, branch);
 		if (!(typed > 0)) {
-			fields[`${at}.name`] = `${parameterLabel(p.name, branch, branches)} is 0 in the design: type a first estimate before fitting it`;
+			fields[`${at}.name`] = `${partLabel(p.name, branch, branches)} is 0 in the design: type a first estimate before fitting it`;
 			return;
 		}
 		let range: { min: number; max: number } = DEFAULT_FACTOR_RANGE;
@@ -104,7 +101,7 @@ export function resolveParameters(specs: readonly FitParameterSpec[], spec: Loop
 			return;
 		}
 		out.push({
-			name: p.name, branch, label: parameterLabel(p.name, branch, branches), unit: UNITS[p.name], path: documentPath(p.name, branch),
+			name: p.name, branch, label: partLabel(p.name, branch, branches), unit: UNITS[p.name], path: documentPath(p.name, branch),
 			typed, kind: 'log', lower: Math.log(range.min), upper: Math.log(range.max), start: 0, boundsFrom,
 			tolerance: doc.tolerances?.[p.name]?.tol ?? null
 		});

@@ -10,7 +10,7 @@
 import { loopMetrics } from '../analysis/margins';
 import { isDesignInputError } from '../errors';
 import { buildLoop, type LoopSpec } from '../corners/loopModel';
-import { applyVariation, PART_LABELS, partsPresent, type PartName } from '../corners/variation';
+import { applyVariation, partLabel, partsPresent, type PartName } from '../corners/variation';
 
 /** Parts (corners/variation.ts: in peak current mode Ri and Se in place of the ramp) and the loop delay. */
 export type SensitivityParameter = PartName | 'delay';
@@ -74,8 +74,6 @@ export function sensitivityParameters(spec: LoopSpec): SensitivityParameter[] {
 	return out;
 }
 
-const labelOf = (parameter: SensitivityParameter) => (parameter === 'delay' ? 'Loop delay' : PART_LABELS[parameter]);
-
 export function sensitivity(spec: LoopSpec, tolerances: Partial<Record<SensitivityParameter, number>> = {}): SensitivityReport {
 	const base = figuresOf(spec);
 	const nominal = { phaseMarginDeg: base?.pm ?? null, gainMarginDb: base?.gm ?? null, crossoverHz: base?.fc ?? null };
@@ -100,7 +98,7 @@ export function sensitivity(spec: LoopSpec, tolerances: Partial<Record<Sensitivi
 		const tol = (tolerances as Partial<Record<SensitivityParameter, number>>)[parameter];
 		rows.push({
 			parameter,
-			label: labelOf(parameter),
+			label: partLabel(parameter),
 			perTenPercent: scale(LN_TEN_PERCENT),
 			tolerance: tol ?? null,
 			atTolerance: tol ? scale(Math.log(1 + tol)) : null

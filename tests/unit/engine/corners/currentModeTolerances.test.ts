@@ -6,7 +6,10 @@
 import { describe, expect, it } from 'vitest';
 import { analyzeDesignDetailed, isContractError, verifyDesign, type Verification } from '../../../../src/lib/engine';
 import { loopSpecFromDetail, buildLoop } from '../../../../src/lib/engine/corners/loopModel';
-import { applyVariation, partsPresent } from '../../../../src/lib/engine/corners/variation';
+import { applyVariation, partLabel, partsPresent } from '../../../../src/lib/engine/corners/variation';
+import { designDocumentSchema } from '../../../../src/lib/engine/contract/designSchema';
+import { resolveParameters } from '../../../../src/lib/engine/fit/parameters';
+import { designSensitivity } from '../../../../src/lib/engine/sensitivity';
 import { evaluatePolar } from '../../../../src/lib/engine/tf/evaluate';
 import type { AnalysisDetail } from '../../../../src/lib/engine/analyze';
 
@@ -74,5 +77,20 @@ describe('Ri and Se tolerances', () => {
 		// Ri −10 % steepens nothing the ramp does not also scale: the same ratio Se/Sn rises, mc rises, it stays stable.
 		const riOnly = verdict(design(m, { tolerances: { senseGain: { tol: 0.1 } } }));
 		expect(row(riOnly).status).toBe('caution');
+	});
+
+	it('names Ri and Se alike in the corner labels, the sensitivity rows and the fit parameters', () => {
+		// [common practice: Ri and Se are the trade's symbols of the sense gain and the compensation ramp]
+		const doc = design({ control: 'peak-current', senseGain: 0.2, rampSlope: 2e5 }, { tolerances: { senseGain: { tol: 0.1 }, rampSlope: { tol: 0.2 } } });
+		const corners = verdict(doc).corners.list.map((c) => c.label).join('; ');
+		expect(corners).toMatch(/Ri [+−]10 %/);
+		expect(corners).toMatch(/Se [+−]20 %/);
+		const sensitivity = designSensitivity(designDocumentSchema.parse(doc));
+		if ('error' in sensitivity) throw new Error(sensitivity.error.message);
+		expect(sensitivity.rows.filter((r) => r.parameter === 'senseGain' || r.parameter === 'rampSlope').map((r) => r.label).sort()).toEqual(['Ri', 'Se']);
+		const fitted = resolveParameters([{ name: 'senseGain' }, { name: 'rampSlope' }], loopSpecFromDetail(detail(doc)), designDocumentSchema.parse(doc), false);
+		expect(fitted.ok && fitted.parameters.map((p) => p.label)).toEqual(['Ri', 'Se']);
+		// The one name list: a second capacitor branch and the delay as the fit and sensitivities name them.
+		expect([partLabel('c', 1, 2), partLabel('esr', 0, 1), partLabel('delay')]).toEqual(['C (branch 2)', 'ESR', 'Loop delay']);
 	});
 });
