@@ -129,9 +129,13 @@ export function analyzeForm(form: FormResult): AnalysisOutcome {
 	const doc: DesignDocumentInput = { ...form.document, sweep };
 	// The closed-loop section is computed by the panels that show it, only while they are open.
 	// Parsed once (analyzeDesignDetailed is this parse plus analyzeValidatedDesign); a document
-	// that does not parse takes the whole path for its error.
-	const parsedNominal = designDocumentSchema.safeParse(doc);
-	const nominal = parsedNominal.success ? analyzeValidatedDesign(parsedNominal.data, { closedLoop: false, sections: false }) : analyzeDesignDetailed(doc, { closedLoop: false, sections: false });
+	// that does not parse takes the whole path for its error. The sweep is our own log grid with
+	// exact endpoints, so it is checked as its range (the bounds each of its points would be
+	// checked against) instead of point by point: on a keystroke, parsing the 400 frequencies was
+	// most of this parse and its garbage. The engine then gets the list itself.
+	const parsedNominal = designDocumentSchema.safeParse({ ...form.document, sweep: { startHz: freqHz[0], stopHz: freqHz[freqHz.length - 1], points: freqHz.length } });
+	const validNominal: DesignDocument | null = parsedNominal.success ? { ...parsedNominal.data, sweep } : null;
+	const nominal = validNominal ? analyzeValidatedDesign(validNominal, { closedLoop: false, sections: false }) : analyzeDesignDetailed(doc, { closedLoop: false, sections: false });
 	if ('error' in nominal) return { ok: false, ...contractMessage(nominal) };
 
 	const compensator = fixedCompensator(nominal);
@@ -144,7 +148,7 @@ export function analyzeForm(form: FormResult): AnalysisOutcome {
 	const corners = designCorners(form.range).map((corner): CornerAnalysis => {
 		if (corner.nominal) return { corner, detail: nominal, error: null };
 		const cornerDoc = operatingPointDocument(doc, corner, compensator);
-		const validated = parsedNominal.success && parsedCompensator.success ? validatedCorner(parsedNominal.data, cornerDoc, parsedCompensator.data) : null;
+		const validated = validNominal && parsedCompensator.success ? validatedCorner(validNominal, cornerDoc, parsedCompensator.data) : null;
 		const r = validated ? analyzeValidatedDesign(validated, { ...CASE_OPTIONS, networkResponse }) : analyzeDesignDetailed(cornerDoc, CASE_OPTIONS);
 		if ('error' in r) return { corner, detail: null, error: r.error.message };
 		networkResponse ??= frequencyResponse(r.compensator.built, freqHz);
