@@ -22,6 +22,14 @@ export const FC_TOLERANCE = 0.1;
 export const DEFAULT_DUTY_MODULATION = 1e-3;
 /** Points the crossover search may add beside the switching crossover (two passes of two). */
 const CROSSOVER_EXTRA_POINTS = 4;
+/**
+ * The most switching periods one measured point may take: its frequency is fsw/N with N at most
+ * this. A point costs N periods per chord iteration (about a second per thousand periods on one
+ * core), so a design crossing over at tens of hertz would otherwise ask for hundreds of thousands
+ * of periods, minutes of CPU in the browser or the analysis pool. The API's frequencies keep the
+ * same bound (fsw/2000).
+ */
+export const MAX_PERIODS_PER_POINT = 2000;
 
 export interface SwitchingCheckInput {
 	circuit: SwitchingCircuitInput;
@@ -128,18 +136,37 @@ export function orbitOf(input: SwitchingCheckInput): { orbit: PeriodicOrbit; pro
 
 /**
  * The default frequencies: fc × {0.1, 0.2, 0.5, 2, 5, 10} and fsw/10, fsw/5, fsw/3, none above
- * fsw/3 (at fsw/2 the modulator's sampling dominates and no averaged figure is comparable).
+ * fsw/3 (at fsw/2 the modulator's sampling dominates and no averaged figure is comparable) and
+ * none below fsw/MAX_PERIODS_PER_POINT.
  */
 export function defaultCheckFrequencies(fcHz: number | null, fswHz: number): number[] {
 	const fc = fcHz ?? fswHz / 20;
 	const list = [0.1, 0.2, 0.5, 2, 5, 10].map((k) => k * fc).concat([fswHz / 10, fswHz / 5, fswHz / 3]);
-	return list.filter((f) => f > 0 && f <= (fswHz / 3) * (1 + 1e-9));
+	return list.filter((f) => f > 0 && f <= (fswHz / 3) * (1 + 1e-9) && withinPeriodLimit(fswHz, f));
+}
+
+const withinPeriodLimit = (fswHz: number, freqHz: number) => periodsFor(fswHz, freqHz) <= MAX_PERIODS_PER_POINT;
+
+/** Why a check would need more periods per point than MAX_PERIODS_PER_POINT, or null. */
+function periodLimitReason(input: SwitchingCheckInput, freqHz: readonly number[] | undefined): string | null {
+	const fsw = input.circuit.fswHz;
+	const limit = `fsw/${MAX_PERIODS_PER_POINT} (${formatEng(fsw / MAX_PERIODS_PER_POINT, 'Hz')}), the lowest frequency the switching check measures (at most ${MAX_PERIODS_PER_POINT} switching periods per point)`;
+	if (freqHz) {
+		const low = freqHz.find((f) => !withinPeriodLimit(fsw, f));
+		return low === undefined ? null : `The frequency ${formatEng(low, 'Hz')} is below ${limit}.`;
+	}
+	const fc = input.averaged.crossoverHz;
+	// The points beside the crossover are fsw/N with N around fsw/fc: that ratio must stay within the limit.
+	if (fc === null || fsw / fc <= MAX_PERIODS_PER_POINT) return null;
+	return `The crossover (${formatEng(fc, 'Hz')}) is below ${limit}: measuring the loop there would take ${Math.round(fsw / fc)} periods per point.`;
 }
 
 export function switchingCheck(input: SwitchingCheckInput, options: SwitchingCheckOptions = {}): SwitchingCheckResult {
 	const c = input.circuit;
 	if (input.outsideReach) return notRun(input, input.outsideReach);
 	if (input.delayS > 0) return notRun(input, `The loop delay (${formatEng(input.delayS, 's')}) is not in the switching model.`);
+	const tooSlow = periodLimitReason(input, options.freqHz);
+	if (tooSlow) return notRun(input, tooSlow);
 	let found: ReturnType<typeof orbitOf>;
 	try {
 		found = orbitOf(input);
@@ -177,6 +204,9 @@ export function switchingCheck(input: SwitchingCheckInput, options: SwitchingChe
 	}
 
 	const requested = options.freqHz ?? defaultCheckFrequencies(input.averaged.crossoverHz, c.fswHz);
+	if (!options.freqHz && input.averaged.crossoverHz !== null && !withinPeriodLimit(c.fswHz, input.averaged.crossoverHz / 10)) {
+		notes.push(`Points below fsw/${MAX_PERIODS_PER_POINT} (${formatEng(c.fswHz / MAX_PERIODS_PER_POINT, 'Hz')}) are left out: each would take more than ${MAX_PERIODS_PER_POINT} switching periods.`);
+	}
 	const periodsWanted = [...new Set(requested.map((f) => periodsFor(c.fswHz, f)))];
 	const fcAvg = input.averaged.crossoverHz;
 	if (!options.freqHz && fcAvg !== null && fcAvg < c.fswHz / 3) {

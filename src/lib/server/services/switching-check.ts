@@ -6,6 +6,7 @@ import { eq } from 'drizzle-orm';
 import type { Database } from '../db';
 import { loopRevision } from '../db/schema';
 import { ENGINE_VERSION } from '../../engine/version';
+import { MAX_PERIODS_PER_POINT } from '../../engine/switching/check';
 import type { StoredSwitchingCheck } from '../../verdict/switchingText';
 import * as analyses from '../analysis-pool';
 import { ApiError } from '../http/errors';
@@ -13,9 +14,8 @@ import * as audit from './audit';
 import type { Actor } from './types';
 import type { Loop } from './signoff';
 
-/** The measurable span: fsw/2000 (2000 switching periods per injection period) … fsw/2. */
-export const MAX_PERIODS_PER_POINT = 2000;
 
+/** The measurable span: fsw/MAX_PERIODS_PER_POINT … fsw/2. */
 function checkFrequencies(freqHz: number[] | undefined, fswHz: number): number[] | null {
 	if (!freqHz) return null;
 	const fields: Record<string, string> = {};

@@ -6,10 +6,11 @@
  */
 import { readFileSync } from 'node:fs';
 import path from 'node:path';
-import { describe, expect, it } from 'vitest';
+import { describe, expect, it, vi } from 'vitest';
 import { analyzeDesignDetailed } from '$lib/engine/analyze';
 import { switchingCheckInputOf } from '$lib/engine/pipeline/switchingCircuit';
-import { orbitOf, switchingCheck } from '$lib/engine/switching/check';
+import { defaultCheckFrequencies, MAX_PERIODS_PER_POINT, orbitOf, switchingCheck } from '$lib/engine/switching/check';
+import { Propagator } from '$lib/engine/switching/cycle';
 import { readMultipliers } from '$lib/engine/switching/steadyState';
 import { expectJacobianMatchesMap } from './periodMapCheck';
 
@@ -104,5 +105,48 @@ describe('switching check refusals', () => {
 		const r = switchingCheck(switchingCheckInputOf(detailOf({ ...doc, modulator: { ...doc.modulator, delay: 1e-7 } })));
 		expect(r.status).toBe('not-run');
 		expect(r.reason).toMatch(/delay/);
+	});
+});
+
+describe('the switching check keeps each measured point within its period limit', () => {
+	// [derived: docs/formulas.md §13.4] a point at f is measured over N = fsw/f switching periods,
+	// each chord iteration running all N; fsw/2000 at 500 kHz is 250 Hz.
+	const slow = { ...caseDoc('buck-12v-3v3'), compensator: { kind: 'type2', target: { method: 'k-factor', crossoverHz: 30, phaseMarginDeg: 60 } } };
+
+	it('does not run a design crossing over at tens of hertz, and says the limit', () => {
+		const input = switchingCheckInputOf(detailOf(slow));
+		// About 17 000 periods per point at fc and 170 000 at fc/10: minutes of CPU without the limit.
+		expect(input.averaged.crossoverHz!).toBeLessThan(500e3 / MAX_PERIODS_PER_POINT);
+		// Counted work, not time: a runaway measurement stops at the first thousand periods.
+		let periods = 0;
+		const cycle = Propagator.prototype.cycle;
+		const spy = vi.spyOn(Propagator.prototype, 'cycle').mockImplementation(function (this: Propagator, x: Float64Array) {
+			if (++periods > 1000) throw new Error('more than 1000 switching periods simulated');
+			return cycle.call(this, x);
+		});
+		let r: ReturnType<typeof switchingCheck>;
+		try {
+			r = switchingCheck(input);
+		} finally {
+			spy.mockRestore();
+		}
+		expect(periods).toBeLessThan(1000);
+		expect(r.status).toBe('not-run');
+		expect(r.points).toEqual([]);
+		expect(r.reason).toMatch(/crossover \(29\.\d Hz\) is below fsw\/2000 \(250 Hz\)/);
+		expect(r.reason).toMatch(/at most 2000 switching periods per point/);
+	}, 30_000);
+
+	it('does not run a requested frequency below fsw/2000, naming it', () => {
+		const r = switchingCheck(switchingCheckInputOf(detailOf(caseDoc('buck-12v-3v3'))), { freqHz: [100, 40e3] });
+		expect(r.status).toBe('not-run');
+		expect(r.reason).toMatch(/frequency 100 Hz is below fsw\/2000/);
+	}, 30_000);
+
+	it('leaves out of its default frequencies those below fsw/2000', () => {
+		// fc = 1 kHz at 500 kHz: fc/10 (5000 periods) and fc/5 (2500) go, fc/2 (1000) stays.
+		const f = defaultCheckFrequencies(1000, 500e3);
+		expect(Math.min(...f)).toBe(500);
+		expect(f).toEqual([500, 2000, 5000, 10000, 50e3, 100e3, 500e3 / 3]);
 	});
 });
