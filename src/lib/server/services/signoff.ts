@@ -75,8 +75,8 @@ export async function trail(db: Database, loop: Loop): Promise<(ReviewEntry & { 
 
 /** What the review page shows from the database alone: the stored verdict, spec, comments, trail and diffs (no analysis). */
 export async function reviewRecord(db: Database, loop: Loop) {
-	const { rail, board } = await context(db, loop);
-	const [comments, requests, history, previous, approved] = await Promise.all([
+	const [{ rail, board }, comments, requests, history, previous, approved] = await Promise.all([
+		context(db, loop),
 		loops.comments(db, loop.id),
 		reviews.requestsFor(db, loop.id),
 		trail(db, loop),
