@@ -7,6 +7,7 @@ import { randomUUID } from 'node:crypto';
 import { eq } from 'drizzle-orm';
 import { describe, expect, it } from 'vitest';
 import { loopRevision } from '../../src/lib/server/db/schema';
+import { olderChecks } from '../../src/lib/server/services/switching-check';
 import { reverify } from '../../src/lib/server/services/verdicts';
 import { ENGINE_VERSION } from '../../src/lib/engine/version';
 import { teamWithBoard } from './support/board';
@@ -104,3 +105,18 @@ describe('template change', () => {
 		expect((await board.team.as.viewer.get(`/api/v1/loops/${applied.body.saved.id}`)).body.verification).toEqual(stored);
 	});
 });
+
+describe('kept switching checks of an older engine', () => {
+	it('are listed by rail and revision, with the engine they came from; a current one is not', async () => {
+		const railId = await newRail();
+		const r1 = await save(railId, null);
+		const r2 = await save(railId, 1);
+		const kept = (engineVersion: string) => ({ engineVersion, computedAt: new Date().toISOString(), requestedBy: board.team.as.engineer.userId, freqHz: null, result: {} }) as never;
+		await db.update(loopRevision).set({ switchingCheck: kept('old') }).where(eq(loopRevision.id, r1.id));
+		await db.update(loopRevision).set({ switchingCheck: kept(ENGINE_VERSION) }).where(eq(loopRevision.id, r2.id));
+		const railName = (await board.team.as.viewer.get(`/api/v1/rails/${railId}`)).body.name;
+		const mine = (await olderChecks(db)).filter((c) => c.railName === railName);
+		expect(mine).toEqual([{ railName, revision: 1, engineVersion: 'old' }]);
+	});
+});
+

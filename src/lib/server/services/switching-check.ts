@@ -2,9 +2,9 @@
 // caller's slots, its time and memory budget), then written beside the stored verdict with its
 // engine version. A revision whose kept check is from the current engine and the same
 // frequencies answers that check without running again, so repeating the request costs nothing.
-import { eq } from 'drizzle-orm';
+import { and, asc, eq, isNotNull, sql } from 'drizzle-orm';
 import type { Database } from '../db';
-import { loopRevision } from '../db/schema';
+import { loopRevision, rail } from '../db/schema';
 import { ENGINE_VERSION } from '../../engine/version';
 import { MAX_PERIODS_PER_POINT } from '../../engine/switching/check';
 import type { StoredSwitchingCheck } from '../../verdict/switchingText';
@@ -58,3 +58,26 @@ export async function run(db: Database, actor: Actor, loop: Loop, request: { fre
 	});
 	return { check, reused: false };
 }
+
+export interface OlderSwitchingCheck {
+	railName: string;
+	revision: number;
+	/** The engine version the kept check was computed with. */
+	engineVersion: string;
+}
+
+/**
+ * The revisions whose kept switching check came from another engine version. `npm run reverify`
+ * lists them and does not re-run them: a check costs seconds of CPU each and runs in the analysis
+ * pool when someone asks for it (POST …/switching-check answers a fresh one then).
+ */
+export async function olderChecks(db: Database): Promise<OlderSwitchingCheck[]> {
+	const version = sql<string>`JSON_UNQUOTE(JSON_EXTRACT(${loopRevision.switchingCheck}, '$.engineVersion'))`;
+	return db
+		.select({ railName: rail.name, revision: loopRevision.revision, engineVersion: version })
+		.from(loopRevision)
+		.innerJoin(rail, eq(rail.id, loopRevision.railId))
+		.where(and(isNotNull(loopRevision.switchingCheck), sql`NOT (${version} <=> ${ENGINE_VERSION})`))
+		.orderBy(asc(rail.name), asc(loopRevision.revision));
+}
+
