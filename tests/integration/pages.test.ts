@@ -1,27 +1,16 @@
 // The account pages as a browser without JavaScript uses them (HTML forms, 303 redirects,
 // session cookies), the signed-in area's redirect, and the development-only mail page.
 import './support/env';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { servedApp } from './support/app';
+import { describe, expect, it } from 'vitest';
 import { Client, PASSWORD, uniqueEmail } from './support/client';
-import { buildTeam, testDb, type Team } from './support/fixtures';
+import { servedTeam } from './support/fixtures';
 import { confirmationLink, waitForMail } from './support/mail';
 
-const app = servedApp();
-let team: Team;
-const { db, pool } = testDb();
-
-beforeAll(async () => {
-	team = await buildTeam(app.origin, db);
-});
-
-afterAll(async () => {
-	await pool.end();
-});
+const served = servedTeam();
 
 describe('account pages', () => {
 	it('signs up, signs out and signs in through the forms', async () => {
-		const browser = new Client(app.origin);
+		const browser = new Client(served.origin);
 		const email = uniqueEmail('form');
 		const tooShort = await browser.form('/sign-up', { name: 'Form User', email, password: 'short' });
 		expect(tooShort.status).toBe(400);
@@ -58,29 +47,29 @@ describe('account pages', () => {
 	});
 
 	it('sends signed-out visitors of the signed-in area to the sign-in page', async () => {
-		const reply = await fetch(`${app.origin}/w/some-workspace?x=1`, { redirect: 'manual' });
+		const reply = await fetch(`${served.origin}/w/some-workspace?x=1`, { redirect: 'manual' });
 		expect(reply.status).toBe(303);
 		expect(reply.headers.get('location')).toBe('/sign-in?redirectTo=%2Fw%2Fsome-workspace%3Fx%3D1');
 	});
 
 	it('mails a reset link from the forgot-password form without telling whether the address exists', async () => {
-		const anonymous = new Client(app.origin);
+		const anonymous = new Client(served.origin);
 		const unknown = await anonymous.form('/forgot-password', { email: uniqueEmail('nobody') });
-		const known = await anonymous.form('/forgot-password', { email: team.as.viewer.email });
+		const known = await anonymous.form('/forgot-password', { email: served.team.as.viewer.email });
 		expect(unknown.status).toBe(200);
 		expect(known.status).toBe(200);
 		const text = (html: string) => html.replace(/nobody-[^@]+@example\.test|viewer-[^@]+@example\.test/g, '<email>').replace(/<!--[\s\S]*?-->/g, '');
 		expect(text(unknown.body)).toContain('a link to set a new password is on its way');
 		expect(text(known.body)).toContain('a link to set a new password is on its way');
-		expect((await waitForMail(team.as.viewer.email, /^Reset/)).subject).toBe('Reset your Loopwright password');
+		expect((await waitForMail(served.team.as.viewer.email, /^Reset/)).subject).toBe('Reset your Loopwright password');
 	});
 });
 
 describe('invitation page', () => {
 	it('shows the invitation and accepts it for the invited address', async () => {
 		const email = uniqueEmail('page-invitee');
-		const sent = await team.as.owner.post(`/api/v1/workspaces/${team.workspaceId}/invitations`, { email, role: 'engineer' });
-		const invitee = new Client(app.origin);
+		const sent = await served.team.as.owner.post(`/api/v1/workspaces/${served.team.workspaceId}/invitations`, { email, role: 'engineer' });
+		const invitee = new Client(served.origin);
 		const page = await invitee.request('GET', `/invitations/${sent.body.id}`);
 		expect(page.status).toBe(200);
 		expect(page.body).toContain('Workspace team');
@@ -88,8 +77,8 @@ describe('invitation page', () => {
 		await invitee.confirm(email);
 		const accepted = await invitee.form(`/invitations/${sent.body.id}?/accept`, {});
 		expect(accepted.status).toBe(303);
-		expect(accepted.location).toBe(`/w/${team.workspaceId}`);
-		expect((await invitee.get('/api/v1/me')).body.workspaces).toEqual([expect.objectContaining({ id: team.workspaceId, role: 'engineer' })]);
+		expect(accepted.location).toBe(`/w/${served.team.workspaceId}`);
+		expect((await invitee.get('/api/v1/me')).body.workspaces).toEqual([expect.objectContaining({ id: served.team.workspaceId, role: 'engineer' })]);
 		expect((await invitee.request('GET', '/invitations/00000000-0000-0000-0000-000000000000')).status).toBe(404);
 	});
 });
@@ -97,20 +86,20 @@ describe('invitation page', () => {
 describe('captured mail page (development)', () => {
 	it("shows each signed-in user only the messages to their own address, never another's reset or invitation link", async () => {
 		const invited = uniqueEmail('listed');
-		await team.as.owner.post(`/api/v1/workspaces/${team.workspaceId}/invitations`, { email: invited, role: 'viewer' });
-		await new Client(app.origin).post('/api/auth/request-password-reset', { email: team.as.reviewer.email, redirectTo: '/reset-password' });
+		await served.team.as.owner.post(`/api/v1/workspaces/${served.team.workspaceId}/invitations`, { email: invited, role: 'viewer' });
+		await new Client(served.origin).post('/api/auth/request-password-reset', { email: served.team.as.reviewer.email, redirectTo: '/reset-password' });
 		await waitForMail(invited, /invited you/);
-		await waitForMail(team.as.reviewer.email, /^Reset/);
-		const owner = await team.as.owner.request('GET', '/dev/mail');
+		await waitForMail(served.team.as.reviewer.email, /^Reset/);
+		const owner = await served.team.as.owner.request('GET', '/dev/mail');
 		expect(owner.status).toBe(200);
 		// The owner's own confirmation mail is there; the invitation they sent and the reviewer's reset link are not.
 		expect(owner.body).toContain('Confirm your e-mail address');
 		expect(owner.body).not.toContain(invited);
 		expect(owner.body).not.toContain('Reset your Loopwright password');
-		const reviewer = await team.as.reviewer.request('GET', '/dev/mail');
+		const reviewer = await served.team.as.reviewer.request('GET', '/dev/mail');
 		expect(reviewer.status).toBe(200);
 		expect(reviewer.body).toContain('Reset your Loopwright password');
 		expect(reviewer.body).not.toContain(invited);
-		expect((await new Client(app.origin).request('GET', '/dev/mail')).status).toBe(303);
+		expect((await new Client(served.origin).request('GET', '/dev/mail')).status).toBe(303);
 	});
 });

@@ -1,28 +1,17 @@
 // The REST API against the real app and MariaDB: happy paths, validation errors, signed-out
 // access, cross-workspace isolation and the audit trail.
 import './support/env';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { servedApp } from './support/app';
+import { describe, expect, it } from 'vitest';
 import { Client } from './support/client';
-import { buildTeam, railBody, testDb, type Team } from './support/fixtures';
+import { railBody, servedTeam } from './support/fixtures';
 
-const app = servedApp();
-let team: Team;
-const { db, pool } = testDb();
+const served = servedTeam();
 
-beforeAll(async () => {
-	team = await buildTeam(app.origin, db);
-});
-
-afterAll(async () => {
-	await pool.end();
-});
-
-const q = () => `?workspace=${team.workspaceId}`;
+const q = () => `?workspace=${served.team.workspaceId}`;
 
 describe('projects and rails', () => {
 	it('creates, reads, lists, updates and deletes a project with its rails', async () => {
-		const eng = team.as.engineer;
+		const eng = served.team.as.engineer;
 		const made = await eng.post(`/api/v1/projects${q()}`, { name: 'Motor drive board', description: 'rev B' });
 		expect(made.status).toBe(201);
 		const id = made.body.id;
@@ -50,13 +39,13 @@ describe('projects and rails', () => {
 
 		// Deleting a board is for owners.
 		expect((await eng.delete(`/api/v1/projects/${id}`)).status).toBe(403);
-		expect((await team.as.owner.delete(`/api/v1/projects/${id}`)).status).toBe(204);
+		expect((await served.team.as.owner.delete(`/api/v1/projects/${id}`)).status).toBe(204);
 		expect((await eng.get(`/api/v1/projects/${id}`)).status).toBe(404);
 		expect((await eng.get(`/api/v1/rails/${rail.body.id}`)).status).toBe(404);
 	});
 
 	it('answers 400 with field errors for an invalid rail, also after a PATCH that breaks a cross-field rule', async () => {
-		const eng = team.as.engineer;
+		const eng = served.team.as.engineer;
 		const project = await eng.post(`/api/v1/projects${q()}`, { name: 'Validation board' });
 		const bad = await eng.post(`/api/v1/projects/${project.body.id}/rails`, { ...railBody('5v0 main'), vinMin: 4 });
 		expect(bad.status).toBe(400);
@@ -78,7 +67,7 @@ describe('projects and rails', () => {
 	});
 
 	it('refuses non-JSON bodies, broken JSON and oversized bodies', async () => {
-		const eng = team.as.engineer;
+		const eng = served.team.as.engineer;
 		const form = await eng.request('POST', `/api/v1/projects${q()}`, 'name=x', { 'content-type': 'text/plain' });
 		expect(form.status).toBe(415);
 		const broken = await eng.request('POST', `/api/v1/projects${q()}`, '{"name":', {});
@@ -91,19 +80,19 @@ describe('projects and rails', () => {
 
 describe('signed-out and cross-workspace access', () => {
 	it('answers 401 with the JSON error shape when signed out', async () => {
-		const anonymous = new Client(app.origin);
-		for (const path of ['/api/v1/projects', '/api/v1/me', '/api/v1/templates', `/api/v1/workspaces/${team.workspaceId}`]) {
+		const anonymous = new Client(served.origin);
+		for (const path of ['/api/v1/projects', '/api/v1/me', '/api/v1/templates', `/api/v1/workspaces/${served.team.workspaceId}`]) {
 			const reply = await anonymous.get(path);
 			expect(reply.status, path).toBe(401);
 			expect(reply.body.error.code).toBe('unauthorized');
 		}
-		expect((await anonymous.post(`/api/v1/projects?workspace=${team.workspaceId}`, { name: 'x' })).status).toBe(401);
+		expect((await anonymous.post(`/api/v1/projects?workspace=${served.team.workspaceId}`, { name: 'x' })).status).toBe(401);
 	});
 
 	it("answers 404 for another workspace's ids, exactly as for ids that do not exist", async () => {
-		const project = await team.as.owner.post(`/api/v1/projects${q()}`, { name: 'Private board' });
-		const rail = await team.as.owner.post(`/api/v1/projects/${project.body.id}/rails`, railBody('12V_BUS'.replace('12V', '1V8')));
-		const stranger = team.outsider;
+		const project = await served.team.as.owner.post(`/api/v1/projects${q()}`, { name: 'Private board' });
+		const rail = await served.team.as.owner.post(`/api/v1/projects/${project.body.id}/rails`, railBody('12V_BUS'.replace('12V', '1V8')));
+		const stranger = served.team.outsider;
 		for (const [method, path] of [
 			['GET', `/api/v1/projects/${project.body.id}`],
 			['PATCH', `/api/v1/projects/${project.body.id}`],
@@ -111,7 +100,7 @@ describe('signed-out and cross-workspace access', () => {
 			['GET', `/api/v1/rails/${rail.body.id}`],
 			['GET', `/api/v1/projects/${project.body.id}/rails`],
 			['GET', `/api/v1/projects${q()}`],
-			['GET', `/api/v1/workspaces/${team.workspaceId}/members`],
+			['GET', `/api/v1/workspaces/${served.team.workspaceId}/members`],
 			['GET', `/api/v1/audit${q()}`]
 		]) {
 			const reply = await stranger.request(method, path, method === 'PATCH' ? { name: 'mine now' } : undefined);
@@ -121,7 +110,7 @@ describe('signed-out and cross-workspace access', () => {
 		const missing = await stranger.get('/api/v1/projects/00000000-0000-0000-0000-000000000000');
 		expect(missing.status).toBe(404);
 		// Their own workspace still answers, and does not list the other team's boards.
-		const own = await stranger.get(`/api/v1/projects?workspace=${team.outsiderWorkspaceId}`);
+		const own = await stranger.get(`/api/v1/projects?workspace=${served.team.outsiderWorkspaceId}`);
 		expect(own.status).toBe(200);
 		expect(own.body.items.map((p: { id: string }) => p.id)).not.toContain(project.body.id);
 	});
@@ -129,10 +118,10 @@ describe('signed-out and cross-workspace access', () => {
 
 describe('audit log', () => {
 	it('records who changed what, with before and after', async () => {
-		const eng = team.as.engineer;
+		const eng = served.team.as.engineer;
 		const project = await eng.post(`/api/v1/projects${q()}`, { name: 'Audited board' });
 		await eng.patch(`/api/v1/projects/${project.body.id}`, { name: 'Audited board 2' });
-		const trail = await team.as.viewer.get(`/api/v1/audit${q()}&entityId=${project.body.id}`);
+		const trail = await served.team.as.viewer.get(`/api/v1/audit${q()}&entityId=${project.body.id}`);
 		expect(trail.status).toBe(200);
 		const [update, create] = trail.body.items;
 		expect(create).toMatchObject({ action: 'project.create', actorEmail: eng.email, after: { name: 'Audited board' } });

@@ -3,11 +3,10 @@
 // file fills with its own rails; `boardWithRails`, a board with named buck rails (railBody) and,
 // per rail, saved revisions r1, r2, … of buckDesign in the order given.
 import { randomUUID } from 'node:crypto';
-import { afterAll, beforeAll, expect } from 'vitest';
-import { servedApp } from './app';
+import { beforeAll, expect } from 'vitest';
 import type { Client } from './client';
 import { buckDesign } from './designs';
-import { buildTeam, railBody, testDb, type Team } from './fixtures';
+import { railBody, servedTeam, type ServedTeam, type Team } from './fixtures';
 
 export type Revision = Parameters<typeof buckDesign>[0] & { message?: string };
 
@@ -61,11 +60,8 @@ export async function boardWithRails(team: Team, boardName: string, rails: Recor
 	return seeded;
 }
 
-export interface TeamBoard {
-	origin: string;
-	db: ReturnType<typeof testDb>['db'];
-	/** The team and its board: there once the file's tests run. */
-	readonly team: Team;
+export interface TeamBoard extends ServedTeam {
+	/** The board: there once the file's tests run. */
 	readonly projectId: string;
 	/** A new rail on the board, made by the owner and named `${prefix}_${n}_XXXX` (unique per run). */
 	newRail(prefix: string, overrides?: Record<string, unknown>): Promise<{ id: string; name: string }>;
@@ -74,14 +70,11 @@ export interface TeamBoard {
 }
 
 /**
- * The set-up of a test file whose tests make their own rails: the served app, a team with one
- * member per role and one board, made before the file's tests; the file's database pool is closed
- * after them. Call it at the top level of the file.
+ * The set-up of a test file whose tests make their own rails: servedTeam's app, team and
+ * database, and one board made before the file's tests. Call it at the top level of the file.
  */
 export function teamWithBoard(boardName: string): TeamBoard {
-	const { origin } = servedApp();
-	const { db, pool } = testDb();
-	let team: Team | undefined;
+	const served = servedTeam();
 	let projectId: string | undefined;
 	let rails = 0;
 	const ready = <T>(value: T | undefined): T => {
@@ -89,22 +82,19 @@ export function teamWithBoard(boardName: string): TeamBoard {
 		return value;
 	};
 	beforeAll(async () => {
-		team = await buildTeam(origin, db);
-		projectId = await newBoard(team, boardName);
-	});
-	afterAll(async () => {
-		await pool.end();
+		projectId = await newBoard(served.team, boardName);
 	});
 	return {
-		origin,
-		db,
+		origin: served.origin,
+		mailDir: served.mailDir,
+		db: served.db,
 		get team() {
-			return ready(team);
+			return served.team;
 		},
 		get projectId() {
 			return ready(projectId);
 		},
-		newRail: (prefix, overrides = {}) => addRail(ready(team).as.owner, ready(projectId), `${prefix}_${++rails}_${randomUUID().slice(0, 4).toUpperCase()}`, overrides),
-		save: (railId, design, { base = null, message = 'saved' } = {}) => saveRevision(ready(team).as.engineer, railId, design, base, message)
+		newRail: (prefix, overrides = {}) => addRail(served.team.as.owner, ready(projectId), `${prefix}_${++rails}_${randomUUID().slice(0, 4).toUpperCase()}`, overrides),
+		save: (railId, design, { base = null, message = 'saved' } = {}) => saveRevision(served.team.as.engineer, railId, design, base, message)
 	};
 }

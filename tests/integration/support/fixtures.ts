@@ -2,9 +2,11 @@
 // through the public API where that is the behaviour under test and directly in the
 // database where it is only set-up (adding members without the e-mail round trip).
 import { randomUUID } from 'node:crypto';
+import { afterAll, beforeAll } from 'vitest';
 import { createDatabase } from '../../../src/lib/server/db';
 import { member } from '../../../src/lib/server/db/schema';
 import type { Role } from '../../../src/lib/authz';
+import { servedApp } from './app';
 import { signUp, type Client } from './client';
 
 export type Member = Client & { email: string; userId: string };
@@ -55,3 +57,38 @@ export const railBody = (name = '5V0_MAIN') => ({
 	ioutMax: 3,
 	fsw: 500_000
 });
+
+export interface ServedTeam {
+	origin: string;
+	mailDir: string;
+	db: ReturnType<typeof createDatabase>['db'];
+	/** There once the file's tests run. */
+	readonly team: Team;
+}
+
+/**
+ * The set-up most integration files share: the served app, a team with one member per role made
+ * before the file's tests, and the file's database pool, closed after them. Call it at the top
+ * level of the file.
+ */
+export function servedTeam(): ServedTeam {
+	const { origin, mailDir } = servedApp();
+	const { db, pool } = testDb();
+	let team: Team | undefined;
+	beforeAll(async () => {
+		team = await buildTeam(origin, db);
+	});
+	afterAll(async () => {
+		await pool.end();
+	});
+	return {
+		origin,
+		mailDir,
+		db,
+		get team() {
+			if (!team) throw new Error('servedTeam: read inside a test, after its beforeAll');
+			return team;
+		}
+	};
+}
+
