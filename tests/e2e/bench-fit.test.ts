@@ -49,7 +49,9 @@ test('the demo bench file: upload, fit, the parasitic named with its interval, s
 	]);
 	const body = await answer.json();
 	expect(body.saved.revision).toBe(2);
-	await expect(page.getByTestId('fit-note')).toContainText('Saved as r2', { timeout: 30_000 });
+	// The page opens r2 and says so above the fit panel, which is made anew for r2.
+	await expect(page.getByTestId('fit-saved')).toContainText('Saved the fitted values as r2', { timeout: 30_000 });
+	await expect(fit).toContainText(`Fit r2 to ${DEMO_BENCH.fileName}`);
 
 	// r2's review page: the sensitivities, ranked by the phase-margin change at the tolerance (the third number column).
 	await page.goto(`/w/${owner.workspaceId}/reviews/${body.saved.id}`);
