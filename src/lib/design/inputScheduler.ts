@@ -44,8 +44,13 @@ export interface InputScheduler {
 	dispose(): void;
 }
 
-/** The quiet time the design screen waits before the verdict and the heavier panels, ms. */
-export const SETTLE_MS = 250;
+/**
+ * The quiet time the design screen waits before the verdict and the heavier panels, ms: longer
+ * than the gap between two keystrokes of one value (about 200–350 ms at 35–60 words a minute
+ * [common practice]), so their work, and the verdict's answer, land after the value is typed,
+ * not between its keystrokes.
+ */
+export const SETTLE_MS = 450;
 
 export function createInputScheduler(o: InputSchedulerOptions): InputScheduler {
 	const frameMs = o.frameMs ?? 1000 / 60;
