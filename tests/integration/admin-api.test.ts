@@ -9,6 +9,7 @@ import { describe, expect, it } from 'vitest';
 import { can, ROLES } from '../../src/lib/authz';
 import { loopRevision } from '../../src/lib/server/db/schema';
 import { HOME_LIST_LIMIT } from '../../src/lib/server/services/home';
+import { withShortCorners } from '../../src/lib/verdict/cornerList';
 import { Client, PASSWORD, signUp } from './support/client';
 import { buckDesign } from './support/designs';
 import { createWorkspace, railBody, servedTeam } from './support/fixtures';
@@ -192,6 +193,9 @@ describe('GET /api/v1/home', () => {
 		expect(mine.body.attentionRails.map((r: { railId: string }) => r.railId)).toContain(rails.HOME_FAST);
 		expect(mine.body.attentionRails.map((r: { railId: string }) => r.railId)).not.toContain(rails.HOME_NOMINAL);
 		expect(mine.body.attentionRails.find((r: { railId: string }) => r.railId === rails.HOME_FAST).status).toBe(statusOf(rails.HOME_FAST));
+		// The summary names its corner briefly, as the verdict panel does with the same stored verdict.
+		const fastVerdict = stored.find((s) => s.railId === rails.HOME_FAST)!.v!;
+		expect(mine.body.attentionRails.find((r: { railId: string }) => r.railId === rails.HOME_FAST).summary).toBe(withShortCorners(fastVerdict.summary, fastVerdict.rows.map((r) => r.corner)));
 		expect(mine.body.pendingReviews).toEqual([]);
 		const kinds = mine.body.activity.map((a: { kind: string; railName: string }) => `${a.kind} ${a.railName}`);
 		expect(kinds).toEqual(expect.arrayContaining(['revision HOME_NOMINAL', 'revision HOME_FAST', 'review-requested HOME_FAST']));

@@ -7,6 +7,7 @@ import { and, desc, eq, inArray, isNotNull, or, sql } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/mysql-core';
 import type { Database } from '../db';
 import { loopRevision, organization, project, rail, reviewRequest, user } from '../db/schema';
+import { withShortCorners } from '../../verdict/cornerList';
 
 /** Entries per list: a home page is a glance, the review queue and the board hold the rest. */
 export const HOME_LIST_LIMIT = 20;
@@ -63,13 +64,14 @@ export async function pendingReviews(db: Database, userId: string, workspaceIds:
 /** The caller's rails whose latest revision's stored verdict is caution or fail, worst first. */
 export async function railsNeedingAttention(db: Database, userId: string, workspaceIds: string[]) {
 	if (workspaceIds.length === 0) return [];
-	// Only the status and summary of the stored verdict are read (JSON_VALUE), not the per-corner list.
+	// Only the status, the summary and the rows' corner names of the stored verdict are read, not the per-corner list.
 	const status = sql<'caution' | 'fail'>`JSON_VALUE(${loopRevision.verification}, '$.status')`;
 	const summary = sql<string | null>`JSON_VALUE(${loopRevision.verification}, '$.summary')`;
+	const rowCorners = sql<unknown>`JSON_EXTRACT(${loopRevision.verification}, '$.rows[*].corner')`;
 	const latest = sql`${loopRevision.revision} = (SELECT MAX(x.revision) FROM loop_revision x WHERE x.rail_id = ${rail.id})`;
 	const authored = sql`EXISTS (SELECT 1 FROM loop_revision a WHERE a.rail_id = ${rail.id} AND a.author_id = ${userId})`;
-	return db
-		.select({ ...place, status, summary, savedAt: loopRevision.createdAt })
+	const rows = await db
+		.select({ ...place, status, summary, rowCorners, savedAt: loopRevision.createdAt })
 		.from(rail)
 		.innerJoin(project, eq(project.id, rail.projectId))
 		.innerJoin(organization, eq(organization.id, rail.workspaceId))
@@ -77,6 +79,21 @@ export async function railsNeedingAttention(db: Database, userId: string, worksp
 		.where(and(inArray(rail.workspaceId, workspaceIds), or(eq(rail.createdBy, userId), authored), sql`${status} IN ('caution', 'fail')`))
 		.orderBy(sql`${status} = 'fail' DESC`, desc(loopRevision.createdAt))
 		.limit(HOME_LIST_LIMIT);
+	// On screen the summary names its corner briefly, as the verdict panel and the board do.
+	return rows.map(({ rowCorners: names, ...r }) => ({ ...r, summary: r.summary ? withShortCorners(r.summary, cornerNames(names)) : null }));
+}
+
+/** The rows' corner names as JSON_EXTRACT answers them (a JSON array, as text or already read by the driver), or none. */
+function cornerNames(extracted: unknown): string[] {
+	let list = extracted;
+	if (typeof list === 'string') {
+		try {
+			list = JSON.parse(list);
+		} catch {
+			return [];
+		}
+	}
+	return Array.isArray(list) ? list.filter((c): c is string => typeof c === 'string') : [];
 }
 
 /** The latest revisions, review requests and sign-offs in the workspaces, newest first. */
