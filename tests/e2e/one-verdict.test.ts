@@ -2,6 +2,7 @@
 // yield and pass/caution/fail read the same, character for character, on the design screen,
 // the board table, the review page, the sign-off PDF's text (PDF.js) and the API. The text is
 // the shared verdictFigures of the verdict the server stored at save.
+import type { Locator } from '@playwright/test';
 import { expect, originHeaders, test } from './support/fixtures';
 import { verdictFigures, verdictLine, type VerdictFigures } from '../../src/lib/verdict/figures';
 import type { Verification } from '../../src/lib/engine/verify/types';
@@ -9,6 +10,18 @@ import { flat, pdfText } from '../support/pdfText';
 
 const RAIL = { name: 'VDD_1V8', topology: 'buck', vout: 1.8, vinNom: 12, vinMin: 10, vinMax: 14, ioutNom: 3, ioutMin: 1, ioutMax: 4, fsw: 500e3 };
 type Shown = Pick<VerdictFigures, 'pm' | 'gm' | 'fc' | 'yield' | 'status'>;
+
+/** The figures a final verdict panel shows. */
+async function shownBy(panel: Locator): Promise<Shown> {
+	const value = async (id: string) => (await panel.getByTestId(id).textContent())!.trim();
+	return {
+		pm: await value('verdict-pm-value'),
+		gm: await value('verdict-gm-value'),
+		fc: await value('verdict-fc-value'),
+		yield: await value('verdict-yield-value'),
+		status: (await panel.getAttribute('data-status')) as Shown['status']
+	};
+}
 const pick = (f: Shown): Shown => ({ pm: f.pm, gm: f.gm, fc: f.fc, yield: f.yield, status: f.status });
 
 test('the worst PM, GM, fc, yield and verdict of a saved revision read the same on every screen, in the PDF and from the API', async ({ authenticatedAs, baseURL }) => {
@@ -30,13 +43,7 @@ test('the worst PM, GM, fc, yield and verdict of a saved revision read the same 
 	// The live verdict of the document the screen saved (verifyDesign in the browser), once final.
 	const panel = page.locator('[data-testid="verdict"][data-state="final"]');
 	await expect(panel).toBeVisible({ timeout: 60_000 });
-	const design: Shown = {
-		pm: (await panel.getByTestId('verdict-pm-value').textContent())!.trim(),
-		gm: (await panel.getByTestId('verdict-gm-value').textContent())!.trim(),
-		fc: (await panel.getByTestId('verdict-fc-value').textContent())!.trim(),
-		yield: (await panel.getByTestId('verdict-yield-value').textContent())!.trim(),
-		status: (await panel.getAttribute('data-status')) as Shown['status']
-	};
+	const design = await shownBy(panel);
 
 	// The API: the stored verdict, and the report's figures.
 	const list = await (await engineer.request.get(`/api/v1/rails/${rail.id}/loops?limit=1`)).json();
@@ -90,12 +97,6 @@ test('the worst PM, GM, fc, yield and verdict of a saved revision read the same 
 	await page.goto(`/w/${owner.workspaceId}/projects/${project.id}/rails/${rail.id}`);
 	const reopened = page.locator('[data-testid="verdict"][data-state="final"]');
 	await expect(reopened).toBeVisible({ timeout: 60_000 });
-	const again: Shown = {
-		pm: (await reopened.getByTestId('verdict-pm-value').textContent())!.trim(),
-		gm: (await reopened.getByTestId('verdict-gm-value').textContent())!.trim(),
-		fc: (await reopened.getByTestId('verdict-fc-value').textContent())!.trim(),
-		yield: (await reopened.getByTestId('verdict-yield-value').textContent())!.trim(),
-		status: (await reopened.getAttribute('data-status')) as Shown['status']
-	};
+	const again = await shownBy(reopened);
 	expect(again).toEqual(api);
 });
