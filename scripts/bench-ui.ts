@@ -3,7 +3,7 @@
 // fresh database (`loopwright_bench`, demo seed and the 200-rail "Scale test" workspace of
 // `scripts/seed.ts --scale`). A benchmark, never a test: it prints p50/p95 per
 // interaction beside its budget and the ratio p95/budget, with the machine's load average, and
-// writes .tmp/bench-ui.json. Options: --no-build (reuse build/), --samples N (keystrokes and drag
+// writes .tmp/bench-ui.json (the summary and every sample, in the order taken). Options: --no-build (reuse build/), --samples N (keystrokes and drag
 // steps per screen, default 40), --rounds N (tab cycles, board→rail clicks; default 10),
 // --only a,b (sections: sandbox, rails, board, server, scale; default all; the 200-rail workspace
 // is seeded only when the scale section runs), --reuse-db (keep the bench database of an earlier
@@ -561,7 +561,7 @@ async function main() {
 	load.end = loadavg();
 	printTable(load);
 	mkdirSync('.tmp', { recursive: true });
-	const summary = rows.map((r) => ({ name: r.name, n: r.samples.length, p50Ms: percentile(r.samples, 50), p95Ms: percentile(r.samples, 95), budgetMs: r.budgetMs, ratio: percentile(r.samples, 95) / r.budgetMs, note: r.note ?? null, mainThreadCpuP50Ms: r.cpu?.length ? percentile(r.cpu, 50) : null, mainThreadCpuP95Ms: r.cpu?.length ? percentile(r.cpu, 95) : null }));
+	const summary = rows.map((r) => ({ name: r.name, n: r.samples.length, p50Ms: percentile(r.samples, 50), p95Ms: percentile(r.samples, 95), budgetMs: r.budgetMs, ratio: percentile(r.samples, 95) / r.budgetMs, note: r.note ?? null, mainThreadCpuP50Ms: r.cpu?.length ? percentile(r.cpu, 50) : null, mainThreadCpuP95Ms: r.cpu?.length ? percentile(r.cpu, 95) : null, samplesMs: r.samples, cpuMs: r.cpu ?? null, frames: r.frames ?? null }));
 	writeFileSync('.tmp/bench-ui.json', JSON.stringify({ date: new Date().toISOString(), loadavg: load, cpus: cpus().length, rows: summary, skipped }, null, 2));
 	log('figures written to .tmp/bench-ui.json');
 	// The mail fake is a child process: while it runs, this process would never end.

@@ -8,7 +8,7 @@ import fc from 'fast-check';
 import { scaleLinear, scaleLog } from 'd3-scale';
 import { describe, expect, it } from 'vitest';
 import { pixelsX, tracePath } from '$lib/components/plot/geometry';
-import { backingSize, pixelRuns, type PixelRun } from '$lib/components/plot/polyline';
+import { backingSize, linearFunction, pixelRuns, type PixelRun } from '$lib/components/plot/polyline';
 import { analyzeForm } from '$lib/design/analysis';
 import { demoForm, readForm } from '$lib/design/form';
 
@@ -122,5 +122,30 @@ describe('backingSize', () => {
 		expect(backingSize(301, 100, 1.5)).toEqual({ width: 452, height: 150, scale: 1.5 });
 		expect(backingSize(300, 200, 0)).toEqual({ width: 300, height: 200, scale: 1 });
 		expect(backingSize(0, 0, 1)).toEqual({ width: 1, height: 1, scale: 1 });
+	});
+});
+
+describe('linearFunction', () => {
+	// The canvas layer maps values with a plain function of the d3 scale's line; it must give d3's
+	// own pixels (d3-scale, the reference library the SVG traces use) to far below a pixel.
+	it('gives the d3 linear scale’s pixel for any domain, range and value', () => {
+		fc.assert(
+			fc.property(
+				fc.double({ min: -400, max: 400, noNaN: true }),
+				fc.double({ min: 1, max: 400, noNaN: true }),
+				fc.double({ min: 10, max: 600, noNaN: true }),
+				fc.double({ min: -1000, max: 1000, noNaN: true }),
+				(d0, span, h, v) => {
+					const scale = scaleLinear().domain([d0, d0 + span]).range([h, 0]);
+					expect(Math.abs(linearFunction(scale)(v) - scale(v))).toBeLessThan(1e-9 * Math.max(1, Math.abs(scale(v))));
+				}
+			)
+		);
+	});
+
+	it('maps every value of an empty domain to the middle of the range, as d3 does', () => {
+		const scale = scaleLinear().domain([3, 3]).range([200, 0]);
+		expect(linearFunction(scale)(7)).toBe(scale(7));
+		expect(linearFunction(scale)(7)).toBe(100);
 	});
 });
