@@ -470,6 +470,8 @@ function prepareDatabase(reuse: boolean) {
 async function main() {
 	const load = { start: loadavg(), end: [] as number[] };
 	log(`load average at the start: ${load.start.map((x) => x.toFixed(2)).join(' ')}`);
+	// Debian's Chromium, installed as `npm test` installs it when a fresh machine lacks it.
+	if (!process.env.CHROMIUM_PATH) sh('source scripts/env.sh && source scripts/deps.sh && ensure_debian_package chromium chromium');
 	const mailer = await ensureMailFake();
 	if (mailer) process.on('exit', () => mailer.child.kill('SIGTERM'));
 	if (!flag('--no-build')) log('building');
