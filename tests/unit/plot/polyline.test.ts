@@ -8,7 +8,7 @@ import fc from 'fast-check';
 import { scaleLinear, scaleLog } from 'd3-scale';
 import { describe, expect, it } from 'vitest';
 import { pixelsX, tracePath } from '$lib/components/plot/geometry';
-import { backingSize, linearFunction, pixelRuns, type PixelRun } from '$lib/components/plot/polyline';
+import { backingSize, linearFunction, pixelRuns, runsPath, type PixelRun } from '$lib/components/plot/polyline';
 import { analyzeForm } from '$lib/design/analysis';
 import { demoForm, readForm } from '$lib/design/form';
 
@@ -147,5 +147,32 @@ describe('linearFunction', () => {
 		const scale = scaleLinear().domain([3, 3]).range([200, 0]);
 		expect(linearFunction(scale)(7)).toBe(scale(7));
 		expect(linearFunction(scale)(7)).toBe(100);
+	});
+});
+
+describe('runsPath', () => {
+	// The nominal traces' SVG path data: the simplified runs, each a subpath, coordinates to a tenth
+	// of a pixel as d3-shape's line().digits(1) writes them (common practice for SVG plots; the
+	// rounding is tracePath's, checked against d3-shape in geometry.test.ts).
+	it('writes each run as one subpath of its points to a tenth of a pixel, a lone sample closed', () => {
+		const runs = [Float64Array.of(0, 10.04, 12.25, 8.96, 30.5, -2.449), Float64Array.of(40, 5)];
+		expect(runsPath(runs)).toBe('M0,10L12.3,9L30.5,-2.4M40,5Z');
+	});
+
+	it('on the demo design’s traces passes through every point of the simplified runs and through nothing else', () => {
+		const outcome = analyzeForm(readForm(demoForm()));
+		if (!outcome.ok) throw new Error(outcome.message);
+		const a = outcome.analysis;
+		const x = scaleLog().domain([a.freqHz[0], a.freqHz[a.freqHz.length - 1]]).range([0, 900]);
+		const xs = pixelsX(x, a.freqHz);
+		const y = scaleLinear().domain([-60, 80]).range([236, 0]);
+		const loop = a.nominal.response.response.loop.magDb;
+		const runs = pixelRuns(xs, loop, linearFunction(y), { references: [0] });
+		const d = runsPath(runs);
+		const points = [...d.matchAll(/[ML](-?[\d.]+),(-?[\d.]+)/g)].map((m) => [Number(m[1]), Number(m[2])]);
+		const expected = runs.flatMap((r) => Array.from({ length: r.length / 2 }, (_, i) => [Math.round(r[2 * i] * 10) / 10, Math.round(r[2 * i + 1] * 10) / 10]));
+		expect(points).toEqual(expected);
+		// Far fewer points than the full path of the same trace.
+		expect(points.length).toBeLessThan((tracePath(x, y, a.freqHz, loop, xs).match(/[ML]/g) ?? []).length / 4);
 	});
 });
