@@ -98,8 +98,14 @@ function run(d: DesignDocument, options: AnalyzeOptions): AnalysisDetail {
 	let freqHz: Float64Array | null = null;
 	if (s && 'freqHz' in s) {
 		freqHz = Float64Array.from(s.freqHz);
-		lo = Math.min(...s.freqHz);
-		hi = Math.max(...s.freqHz);
+		// A loop, not Math.min(...list): spreading a 400-point list copies it into the call's
+		// arguments, twice per operating case on every keystroke of the design screen.
+		lo = Infinity;
+		hi = -Infinity;
+		for (let i = 0; i < freqHz.length; i++) {
+			if (freqHz[i] < lo) lo = freqHz[i];
+			if (freqHz[i] > hi) hi = freqHz[i];
+		}
 	} else {
 		const r = s ?? { ...defaultSweepRange(plant.features.f0Hz, p.fsw), points: DEFAULT_SWEEP_POINTS };
 		lo = r.startHz;

@@ -64,7 +64,7 @@ function splitRoots(roots: FactoredTf['zeros']): { real: Float64Array; invW: Flo
 }
 
 /** ln|T(jω)| and the unwrapped phase in rad, written into out[0], out[1] (`logOmega`: ln ω, if known). */
-export function lnMagPhaseAt(c: CompiledTf, omega: number, out: Float64Array | number[], logOmega = Math.log(omega)): void {
+export function lnMagPhaseAt(c: CompiledTf, omega: number, out: Float64Array, logOmega = Math.log(omega)): void {
 	let ln = c.lnAbsGain + c.originPower * logOmega;
 	let ph = c.phase0 + c.originPower * (Math.PI / 2) - omega * c.delayS;
 	// Running product of squared magnitudes; folded into ln when it leaves a safe range.
@@ -237,7 +237,9 @@ export function lnMagPhaseSlopeAt(c: CompiledTf, omega: number, out: Float64Arra
 /** Magnitude (dB) and unwrapped phase (deg) of T(jω) at one angular frequency. */
 export function evaluatePolar(tf: FactoredTf | CompiledTf, omega: number): { magDb: number; phaseDeg: number } {
 	const c = 'lnAbsGain' in tf ? tf : compileTf(tf);
-	const out = [0, 0];
+	// A typed array like every other caller's: lnMagPhaseAt's stores stay of one kind (a plain
+	// [0, 0] changed its element kind on the first fraction and boxed every number stored).
+	const out = new Float64Array(2);
 	lnMagPhaseAt(c, omega, out);
 	return { magDb: out[0] / LN10_OVER_20, phaseDeg: out[1] * RAD2DEG };
 }
@@ -245,7 +247,9 @@ export function evaluatePolar(tf: FactoredTf | CompiledTf, omega: number): { mag
 /** T(jω) as a complex number. */
 export function evaluate(tf: FactoredTf | CompiledTf, omega: number): Complex {
 	const c = 'lnAbsGain' in tf ? tf : compileTf(tf);
-	const out = [0, 0];
+	// A typed array like every other caller's: lnMagPhaseAt's stores stay of one kind (a plain
+	// [0, 0] changed its element kind on the first fraction and boxed every number stored).
+	const out = new Float64Array(2);
 	lnMagPhaseAt(c, omega, out);
 	const m = Math.exp(out[0]);
 	return { re: m * Math.cos(out[1]), im: m * Math.sin(out[1]) };
