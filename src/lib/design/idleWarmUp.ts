@@ -31,9 +31,21 @@ export interface IdleWarmUp {
 	dispose(): void;
 }
 
+/**
+ * requestIdleCallback, or where a browser lacks it (Safari) a timer with a 50 ms period whose
+ * remaining time runs down with the clock, as an idle period's does.
+ */
+function defaultRequestIdle(callback: (deadline: IdleDeadlineLike) => void): number {
+	if (typeof requestIdleCallback === 'function') return requestIdleCallback(callback, { timeout: 2000 });
+	return setTimeout(() => {
+		const start = performance.now();
+		callback({ timeRemaining: () => Math.max(0, 50 - (performance.now() - start)) });
+	}, 50) as unknown as number;
+}
+
 export function startIdleWarmUp(o: IdleWarmUpOptions): IdleWarmUp {
 	const reserveMs = o.reserveMs ?? 8;
-	const requestIdle = o.requestIdle ?? ((cb) => (typeof requestIdleCallback === 'function' ? requestIdleCallback(cb, { timeout: 2000 }) : (setTimeout(() => cb({ timeRemaining: () => 50 }), 50) as unknown as number)));
+	const requestIdle = o.requestIdle ?? defaultRequestIdle;
 	const cancelIdle = o.cancelIdle ?? ((id: number) => (typeof cancelIdleCallback === 'function' ? cancelIdleCallback(id) : clearTimeout(id)));
 	let done = 0;
 	let pending: number | null = null;
