@@ -22,6 +22,7 @@ export class KeptWidth {
 	}
 	/** Whether the box has been measured at least once. */
 	get measuredOnce(): boolean {
-		return this.measured > 0 || this.#seen;
+		if (this.measured > 0) this.#seen = true;
+		return this.#seen;
 	}
 }
