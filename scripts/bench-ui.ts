@@ -3,9 +3,9 @@
 // fresh database (`loopwright_bench`, demo seed and the 200-rail "Scale test" workspace of
 // `scripts/seed.ts --scale`). A benchmark, never a test: it prints p50/p95 per
 // interaction beside its budget and the ratio p95/budget, with the machine's load average, and
-// writes .tmp/bench-ui.json (the summary and every sample, in the order taken). Options: --no-build (reuse build/), --samples N (keystrokes and drag
-// steps per screen, default 40), --rounds N (tab cycles, board→rail clicks; default 10),
-// --only a,b (sections: sandbox, rails, board, server, scale; default all; the 200-rail workspace
+// writes .tmp/bench-ui.json (the summary and every sample, in the order taken). Options:
+// --no-build (reuse build/), --samples N (keystrokes and drag steps per screen, default 40),
+// --rounds N (tab cycles, board→rail clicks; default 10), --only a,b (sections: sandbox, rails, board, server, scale; default all; the 200-rail workspace
 // is seeded only when the scale section runs), --reuse-db (keep the bench database of an earlier
 // run instead of a fresh one: faster while iterating, never for the figures you publish),
 // --plain-marker (time the paint with a plain MessageChannel task, as before, instead of the
@@ -238,6 +238,7 @@ function printTable(load: { start: number[]; end: number[] }) {
 	for (const s of skipped) console.log(`  skipped: ${s.name}: ${s.why}`);
 	const la = (v: number[]) => v.map((x) => x.toFixed(2)).join(' ');
 	console.log(`  load average (1, 5, 15 min): ${la(load.start)} at the start, ${la(load.end)} at the end; ${cpus().length} CPUs`);
+	console.log(`  paint marker: ${flag('--plain-marker') ? 'a plain MessageChannel task (--plain-marker)' : "a scheduler.postTask 'user-blocking' task"} after the frame`);
 	const over = rows.filter((r) => percentile(r.samples, 95) > r.budgetMs);
 	console.log(over.length ? `  over budget: ${over.map((r) => r.name).join('; ')}` : '  every row within its budget');
 }
