@@ -68,4 +68,13 @@ test('an engineer compares r1 with r2; a viewer sees the rail read-only', async 
 	expect(await inputs.count()).toBeGreaterThan(0);
 	const editable = await inputs.evaluateAll((els) => els.filter((e) => !(e as HTMLInputElement).disabled && !(e as HTMLInputElement).readOnly).map((e) => e.id || e.getAttribute('name') || e.outerHTML.slice(0, 80)));
 	expect(editable, 'design inputs a viewer could edit').toEqual([]);
+	// The panels' own copies of the design's part tolerances too (Corners and Spread): before,
+	// a viewer could type them and the screen re-analysed a design they cannot save.
+	for (const tab of ['corners', 'spread']) {
+		await viewer.page.getByTestId(`tab-${tab}`).click();
+		const tolerances = viewer.page.getByTestId(`${tab}-tolerances`).locator('input, select');
+		await expect(tolerances.first()).toBeVisible();
+		const open = await tolerances.evaluateAll((els) => els.filter((e) => !(e as HTMLInputElement).disabled && !(e as HTMLInputElement).readOnly).map((e) => e.id || e.outerHTML.slice(0, 80)));
+		expect(open, `${tab} tolerances a viewer could edit`).toEqual([]);
+	}
 });
